@@ -1,0 +1,29 @@
+/* src/core/core_impl.h
+ * Private helpers shared by every stage: error-message formatting and checked allocation.
+ * Not installed; functions carry the core_ prefix and hidden visibility.
+ */
+#ifndef ASCR_CORE_IMPL_H
+#define ASCR_CORE_IMPL_H
+
+#include <stddef.h>
+#include "airscrew/ascr_errno.h"
+
+#if defined(__GNUC__)
+#define ASCR_PRINTF(a, b) __attribute__((format(printf, a, b)))
+#else
+#define ASCR_PRINTF(a, b)
+/* pi to double precision (M_PI is not part of ISO C). */
+#define ASCR_PI 3.14159265358979323846
+
+#endif
+
+/* Write a formatted message into err (if not NULL) and return code. */
+ascr_status core_fail(ascr_errbuf *err, ascr_status code, const char *fmt, ...) ASCR_PRINTF(3, 4);
+
+/* calloc of n elements of size sz with overflow check; NULL on failure or n == 0. */
+void *core_calloc(size_t n, size_t sz);
+
+/* pi to double precision (M_PI is not part of ISO C). */
+#define ASCR_PI 3.14159265358979323846
+
+#endif
