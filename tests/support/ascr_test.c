@@ -29,8 +29,8 @@ void ascr_assert_close_impl(double obs, double exp, double epsrel, double epsabs
     char msg[512];
     snprintf(msg, sizeof msg, "%s: observed %.10g, expected %.10g (|diff| %.3g > tol %.3g)",
              desc, obs, exp, fabs(obs - exp), tol);
-    _fail(file, line);
     print_error("%s\n", msg);
+    _fail(file, line);
   }
 }
 
