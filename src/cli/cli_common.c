@@ -1,0 +1,226 @@
+/* src/cli/cli_common.c
+ * Messages, option-value parsing, section loading and whole-or-nothing output for the CLI.
+ */
+#define _POSIX_C_SOURCE 200809L
+#include "cli.h"
+
+#include <errno.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+void cli_error(const char *fmt, ...)
+{
+  va_list ap;
+  va_start(ap, fmt);
+  fputs("airscrew: error: ", stderr);
+  vfprintf(stderr, fmt, ap);
+  fputc('\n', stderr);
+  va_end(ap);
+}
+
+void cli_warn(const char *fmt, ...)
+{
+  va_list ap;
+  va_start(ap, fmt);
+  fputs("airscrew: warning: ", stderr);
+  vfprintf(stderr, fmt, ap);
+  fputc('\n', stderr);
+  va_end(ap);
+}
+
+int cli_exit_for(ascr_status st)
+{
+  switch (st) {
+  case ASCR_OK: return CLI_EXIT_OK;
+  case ASCR_EPARSE:
+  case ASCR_EGEOM:
+  case ASCR_EIO: return CLI_EXIT_INPUT;
+  case ASCR_ESING:
+  case ASCR_EMAXITER:
+  case ASCR_CONTINUE:
+  case ASCR_EDOM: return CLI_EXIT_ANALYSIS;
+  case ASCR_EINVAL: return CLI_EXIT_USAGE;
+  case ASCR_ENOMEM: return CLI_EXIT_INTERNAL;
+  }
+  return CLI_EXIT_INTERNAL;
+}
+
+int cli_parse_double(const char *opt, const char *text, double lo, double hi, double *out)
+{
+  char *end = NULL;
+  errno = 0;
+  double v = strtod(text, &end);
+  if (end == text || *end != '\0') {
+    cli_error("%s: '%s' is not a number", opt, text);
+    return 1;
+  }
+  if (!isfinite(v) || errno == ERANGE) {
+    cli_error("%s: '%s' is not a finite number", opt, text);
+    return 1;
+  }
+  if (v < lo || v > hi) {
+    cli_error("%s: %g is outside the accepted range %g .. %g", opt, v, lo, hi);
+    return 1;
+  }
+  *out = v;
+  return 0;
+}
+
+int cli_parse_size(const char *opt, const char *text, size_t lo, size_t hi, size_t *out)
+{
+  char *end = NULL;
+  errno = 0;
+  if (text[0] == '-' || text[0] == '+') {
+    cli_error("%s: '%s' is not a whole number", opt, text);
+    return 1;
+  }
+  unsigned long long v = strtoull(text, &end, 10);
+  if (end == text || *end != '\0' || errno == ERANGE) {
+    cli_error("%s: '%s' is not a whole number", opt, text);
+    return 1;
+  }
+  if (v < lo || v > hi) {
+    cli_error("%s: %llu is outside the accepted range %zu .. %zu", opt, v, lo, hi);
+    return 1;
+  }
+  *out = (size_t)v;
+  return 0;
+}
+
+int cli_load_section(const char *arg, ascr_geom_section **out, ascr_geom_load_info *info,
+                     int *from_file)
+{
+  ascr_errbuf err;
+  struct stat sb;
+  ascr_status st;
+  *from_file = 0;
+  if (stat(arg, &sb) == 0) {
+    if (S_ISDIR(sb.st_mode)) {
+      cli_error("%s: is a folder, not a section file", arg);
+      return CLI_EXIT_INPUT;
+    }
+    *from_file = 1;
+    st = ascr_geom_section_read(arg, out, info, &err);
+  } else if (ascr_geom_is_spec(arg)) {
+    st = ascr_geom_section_from_spec(arg, out, &err);
+  } else {
+    cli_error("%s: no such file, and not a section spec (naca2412, naca23012, naca0012c, "
+              "plate:t=3,f=4,xf=50)", arg);
+    return CLI_EXIT_INPUT;
+  }
+  if (st != ASCR_OK) {
+    cli_error("%s", err.msg);
+    return st == ASCR_EINVAL || st == ASCR_EDOM ? CLI_EXIT_INPUT : cli_exit_for(st);
+  }
+  return 0;
+}
+
+int cli_output_open(cli_output *o, const char *path, int force)
+{
+  memset(o, 0, sizeof *o);
+  o->path = path;
+  o->force = force;
+  if (path != NULL) {
+    struct stat sb;
+    if (stat(path, &sb) == 0) {
+      if (S_ISDIR(sb.st_mode)) {
+        cli_error("%s: is a folder; give a file name for the output", path);
+        return CLI_EXIT_OUTPUT;
+      }
+      if (!force) {
+        cli_error("%s: exists; not overwritten (add --force to replace it)", path);
+        return CLI_EXIT_OUTPUT;
+      }
+    }
+  }
+  o->fp = open_memstream(&o->buf, &o->len);
+  if (o->fp == NULL) {
+    cli_error("out of memory for the output");
+    return CLI_EXIT_INTERNAL;
+  }
+  return 0;
+}
+
+void cli_output_discard(cli_output *o)
+{
+  if (o->fp != NULL) fclose(o->fp);
+  o->fp = NULL;
+  free(o->buf);
+  o->buf = NULL;
+}
+
+int cli_output_commit(cli_output *o)
+{
+  if (fclose(o->fp) != 0) {
+    o->fp = NULL;
+    free(o->buf);
+    cli_error("out of memory for the output");
+    return CLI_EXIT_INTERNAL;
+  }
+  o->fp = NULL;
+  int rc = 0;
+  if (o->path == NULL) {
+    if (fwrite(o->buf, 1, o->len, stdout) != o->len || fflush(stdout) != 0) {
+      cli_error("standard output: write failed: %s", strerror(errno));
+      rc = CLI_EXIT_OUTPUT;
+    }
+  } else {
+    size_t pl = strlen(o->path);
+    char *tmp = malloc(pl + 16);
+    if (tmp == NULL) {
+      free(o->buf);
+      cli_error("out of memory");
+      return CLI_EXIT_INTERNAL;
+    }
+    memcpy(tmp, o->path, pl);
+    memcpy(tmp + pl, ".tmp-XXXXXX", 12);
+    int fd = mkstemp(tmp);
+    if (fd < 0) {
+      cli_error("%s: cannot create a temporary file beside it: %s", o->path, strerror(errno));
+      rc = CLI_EXIT_OUTPUT;
+    } else {
+      size_t off = 0;
+      while (off < o->len) {
+        ssize_t w = write(fd, o->buf + off, o->len - off);
+        if (w < 0) {
+          if (errno == EINTR) continue;
+          break;
+        }
+        off += (size_t)w;
+      }
+      int ok = off == o->len && fsync(fd) == 0;
+      if (close(fd) != 0) ok = 0;
+      /* keep the permissions a new file would get (mkstemp makes it 0600) */
+      mode_t um = umask(0);
+      umask(um);
+      if (ok) chmod(tmp, 0666 & ~um);
+      if (!ok) {
+        cli_error("%s: write failed: %s", o->path, strerror(errno));
+        unlink(tmp);
+        rc = CLI_EXIT_OUTPUT;
+      } else {
+        struct stat sb;
+        if (!o->force && stat(o->path, &sb) == 0) {
+          cli_error("%s: appeared while running; not overwritten (add --force)", o->path);
+          unlink(tmp);
+          rc = CLI_EXIT_OUTPUT;
+        } else if (rename(tmp, o->path) != 0) {
+          cli_error("%s: cannot move the finished output into place: %s", o->path,
+                    strerror(errno));
+          unlink(tmp);
+          rc = CLI_EXIT_OUTPUT;
+        }
+      }
+    }
+    free(tmp);
+  }
+  free(o->buf);
+  o->buf = NULL;
+  return rc;
+}
+
+int cli_isatty(FILE *fp) { return isatty(fileno(fp)); }

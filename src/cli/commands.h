@@ -1,0 +1,11 @@
+/* src/cli/commands.h
+ * Subcommands of the airscrew program. Each takes the arguments after the subcommand name
+ * (argv[0] is the subcommand) and returns an exit code (cli.h).
+ */
+#ifndef ASCR_CLI_COMMANDS_H
+#define ASCR_CLI_COMMANDS_H
+
+int cmd_section(int argc, char **argv);
+int cmd_flow(int argc, char **argv);
+
+#endif

@@ -1,0 +1,59 @@
+/* src/cli/main.c
+ * The airscrew program: dispatch to subcommands, global --help and --version.
+ */
+#include "cli.h"
+#include "commands.h"
+
+#include <gsl/gsl_errno.h>
+#include <string.h>
+
+static void main_help(FILE *fp)
+{
+  fputs("usage: airscrew COMMAND [options]\n"
+        "\n"
+        "Section aerodynamics for small propellers, from the section shape.\n"
+        "\n"
+        "commands:\n"
+        "  section   read or generate a section, repanel it, report its shape, write coordinates\n"
+        "  flow      analyse one section at one angle of attack (inviscid in this version)\n"
+        "\n"
+        "  airscrew COMMAND --help    options of a command\n"
+        "  airscrew --version         program and library version\n"
+        "\n"
+        "Results are estimates from published methods. A spinning propeller can cut and a blade\n"
+        "can fail at speed: test on a guarded thrust stand and follow local rules.\n",
+        fp);
+}
+
+int main(int argc, char **argv)
+{
+  gsl_set_error_handler_off();
+  if (argc < 2) {
+    main_help(stderr);
+    return CLI_EXIT_USAGE;
+  }
+  const char *cmd = argv[1];
+  if (strcmp(cmd, "--help") == 0 || strcmp(cmd, "-h") == 0 || strcmp(cmd, "help") == 0) {
+    main_help(stdout);
+    return CLI_EXIT_OK;
+  }
+  if (strcmp(cmd, "--version") == 0) {
+    printf("airscrew %s\n", ascr_version());
+    return CLI_EXIT_OK;
+  }
+  for (int i = 2; i < argc; i++) {
+    if (strcmp(argv[i], "--version") == 0) {
+      printf("airscrew %s\n", ascr_version());
+      return CLI_EXIT_OK;
+    }
+    if (strcmp(argv[i], "--") == 0) break;
+  }
+  if (strcmp(cmd, "section") == 0) return cmd_section(argc - 1, argv + 1);
+  if (strcmp(cmd, "flow") == 0) return cmd_flow(argc - 1, argv + 1);
+  if (cmd[0] == '-') {
+    cli_error("unknown option '%s' (see airscrew --help)", cmd);
+  } else {
+    cli_error("unknown command '%s' (commands: section, flow; see airscrew --help)", cmd);
+  }
+  return CLI_EXIT_USAGE;
+}

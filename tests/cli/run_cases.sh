@@ -1,0 +1,45 @@
+#!/bin/sh
+# Table-driven command-line tests: tests/cli/cases.txt lists exit code | stderr fragment | args.
+# usage: run_cases.sh AIRSCREW CASES SOURCE_DIR
+set -u
+exe=$1; cases=$2; src=$3
+tmp=$(mktemp -d) || exit 1
+trap 'rm -rf "$tmp"' EXIT
+printf '\000\001\002binary' > "$tmp/binary.dat"
+: > "$tmp/empty.dat"
+echo "keep me" > "$tmp/existing.dat"
+pass=0; fail=0
+while IFS= read -r line; do
+  case "$line" in ''|'#'*) continue ;; esac
+  want=$(printf '%s' "$line" | cut -d'|' -f1 | tr -d ' ')
+  frag=$(printf '%s' "$line" | cut -d'|' -f2 | sed 's/^ *//;s/ *$//')
+  args=$(printf '%s' "$line" | cut -d'|' -f3- | sed 's/^ *//')
+  args=$(printf '%s' "$args" | sed "s#@DATA@#$src/tests/data#g;s#@TMP@#$tmp#g")
+  # shellcheck disable=SC2086
+  "$exe" $args > "$tmp/out" 2> "$tmp/err"
+  got=$?
+  ok=1
+  [ "$got" = "$want" ] || ok=0
+  if [ -n "$frag" ]; then
+    grep -qF -- "$frag" "$tmp/err" || ok=0
+  elif [ "$want" = 0 ] && [ -s "$tmp/err" ]; then
+    ok=0
+  fi
+  # a failed run writes nothing on stdout
+  if [ "$want" != 0 ] && [ -s "$tmp/out" ]; then ok=0; fi
+  if [ $ok = 1 ]; then
+    pass=$((pass + 1))
+  else
+    fail=$((fail + 1))
+    echo "FAIL: airscrew $args"
+    echo "  exit $got (want $want); stderr: $(head -c 400 "$tmp/err")"
+  fi
+done < "$cases"
+# the file that was refused is untouched
+if ! grep -q "keep me" "$tmp/existing.dat" 2>/dev/null && [ ! -s "$tmp/existing.dat" ]; then
+  echo "FAIL: existing output file damaged"; fail=$((fail + 1))
+fi
+# no temporary files left behind
+if ls "$tmp" | grep -q '\.tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
+echo "$pass passed, $fail failed"
+[ $fail = 0 ]
