@@ -16,6 +16,7 @@ static void main_help(FILE *fp)
         "commands:\n"
         "  section   read or generate a section, repanel it, report its shape, write coordinates\n"
         "  flow      analyse one section at one angle of attack (inviscid in this version)\n"
+        "  demo      built-in demonstration on sample sections\n"
         "\n"
         "  airscrew COMMAND --help    options of a command\n"
         "  airscrew --version         program and library version\n"
@@ -50,10 +51,11 @@ int main(int argc, char **argv)
   }
   if (strcmp(cmd, "section") == 0) return cmd_section(argc - 1, argv + 1);
   if (strcmp(cmd, "flow") == 0) return cmd_flow(argc - 1, argv + 1);
+  if (strcmp(cmd, "demo") == 0) return cmd_demo(argc - 1, argv + 1);
   if (cmd[0] == '-') {
     cli_error("unknown option '%s' (see airscrew --help)", cmd);
   } else {
-    cli_error("unknown command '%s' (commands: section, flow; see airscrew --help)", cmd);
+    cli_error("unknown command '%s' (commands: section, flow, demo; see airscrew --help)", cmd);
   }
   return CLI_EXIT_USAGE;
 }

@@ -128,6 +128,11 @@ ascr_status ascr_geom_section_metrics(const ascr_geom_section *s, ascr_geom_metr
   }
   refine(xs, th, MET_STATIONS, it, &m->thickness_x, &m->thickness);
   refine(xs, ca, MET_STATIONS, ic, &m->camber_x, &m->camber);
+  if (fabs(m->camber) < 1e-9) {
+    /* symmetric section: no camber, and its position means nothing */
+    m->camber = 0.0;
+    m->camber_x = 0.0;
+  }
   double kle = geom_spline_curvature(&sp, sle);
   m->le_radius = fabs(kle) > 0.0 ? 1.0 / fabs(kle) : INFINITY;
   m->te_gap = hypot(s->x[0] - s->x[s->n - 1], s->y[0] - s->y[s->n - 1]);
