@@ -62,6 +62,8 @@ struct ascr_panel_solver {
   double te_len;   /* trailing-edge panel length */
   double te_sn;    /* b . n_out of the trailing-edge panel */
   double te_tb;    /* b . t_TE */
+  double *ptx, *pty, *plen; /* panel unit tangents and lengths, n-1 each (set-up scratch) */
+  double *lnr, *rsq;        /* ln r and r^2 from one field node to every node (scratch) */
 };
 
 ascr_panel_solver *ascr_panel_solver_alloc(size_t n_nodes)
@@ -79,7 +81,13 @@ ascr_panel_solver *ascr_panel_solver_alloc(size_t n_nodes)
   w->ipiv = core_calloc(m, sizeof(lapack_int));
   w->g0 = core_calloc(m, sizeof(double));
   w->g90 = core_calloc(m, sizeof(double));
-  if (!w->x || !w->y || !w->a || !w->ipiv || !w->g0 || !w->g90) {
+  w->ptx = core_calloc(n_nodes, sizeof(double));
+  w->pty = core_calloc(n_nodes, sizeof(double));
+  w->plen = core_calloc(n_nodes, sizeof(double));
+  w->lnr = core_calloc(n_nodes, sizeof(double));
+  w->rsq = core_calloc(n_nodes, sizeof(double));
+  if (!w->x || !w->y || !w->a || !w->ipiv || !w->g0 || !w->g90 || !w->ptx || !w->pty ||
+      !w->plen || !w->lnr || !w->rsq) {
     ascr_panel_solver_free(w);
     return NULL;
   }
@@ -95,6 +103,11 @@ void ascr_panel_solver_free(ascr_panel_solver *w)
   free(w->ipiv);
   free(w->g0);
   free(w->g90);
+  free(w->ptx);
+  free(w->pty);
+  free(w->plen);
+  free(w->lnr);
+  free(w->rsq);
   free(w);
 }
 
@@ -172,11 +185,30 @@ ascr_status ascr_panel_solver_set(ascr_panel_solver *w, const ascr_geom_section 
     w->te_tb = bx * tx + by * ty;
   }
 
+  for (size_t j = 0; j + 1 < n; j++) {
+    double dx = x[j + 1] - x[j], dy = y[j + 1] - y[j];
+    w->plen[j] = hypot(dx, dy);
+    w->ptx[j] = dx / w->plen[j];
+    w->pty[j] = dy / w->plen[j];
+  }
   for (size_t i = 0; i < n; i++) {
+    /* ln r and r^2 to every node are shared by the two panels that meet there; the angle
+     * theta2 - theta1 a panel subtends is atan2(a x b, a . b) with a, b the vectors from its
+     * two nodes to the field point (the same value as in panel_integrals, frame-free). */
+    for (size_t j = 0; j < n; j++) {
+      double rx = x[i] - x[j], ry = y[i] - y[j];
+      w->rsq[j] = rx * rx + ry * ry;
+      w->lnr[j] = w->rsq[j] > 0.0 ? 0.5 * log(w->rsq[j]) : 0.0;
+    }
     for (size_t j = 0; j + 1 < n; j++) {
-      double L = hypot(x[j + 1] - x[j], y[j + 1] - y[j]);
-      double P0, P1;
-      panel_integrals(x[j], y[j], x[j + 1], y[j + 1], x[i], y[i], &P0, &P1, NULL);
+      double ax = x[i] - x[j], ay = y[i] - y[j], bx2 = x[i] - x[j + 1], by2 = y[i] - y[j + 1];
+      double L = w->plen[j];
+      double X = ax * w->ptx[j] + ay * w->pty[j];
+      double Y = -ax * w->pty[j] + ay * w->ptx[j];
+      double dth = atan2(ax * by2 - ay * bx2, ax * bx2 + ay * by2);
+      double lr1 = w->lnr[j], lr2 = w->lnr[j + 1], r1s = w->rsq[j], r2s = w->rsq[j + 1];
+      double P0 = X * lr1 - (X - L) * lr2 - L + Y * dth;
+      double P1 = X * P0 - 0.5 * (r1s * lr1 - r2s * lr2) + 0.25 * (r1s - r2s);
       A[i + j * m] += inv2pi * (P0 - P1 / L);
       A[i + (j + 1) * m] += inv2pi * (P1 / L);
     }
