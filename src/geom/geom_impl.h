@@ -57,10 +57,22 @@ void geom_spline_free(geom_spline *sp);
 /* Cosine-spaced chord stations 0..1, n of them. */
 void geom_cosine_stations(double *xs, size_t n);
 
-/* Assemble a generated section from camber line and half-thickness at stations xs[0..m-1]
- * (xs[0] = 0, xs[m-1] = 1), thickness laid normal to the camber line. */
-ascr_status geom_from_camber_thickness(const double *xs, const double *yc, const double *dyc,
-                                       const double *yt, size_t m, const char *name,
-                                       ascr_geom_section **out, ascr_errbuf *err);
+/* Camber line and half-thickness of a generated section at m cosine-spaced stations. */
+typedef struct geom_profile {
+  size_t m;
+  double *xs;  /* stations, xs[0] = 0, xs[m-1] = 1 */
+  double *yc;  /* camber line */
+  double *dyc; /* its slope */
+  double *yt;  /* half-thickness, laid normal to the camber line */
+} geom_profile;
+
+/* Allocate m stations (cosine spaced) with zeroed camber and thickness; ASCR_ENOMEM on failure. */
+ascr_status geom_profile_alloc(geom_profile *p, size_t m, ascr_errbuf *err);
+void geom_profile_free(geom_profile *p);
+/* Two-parabola mean line of maximum ordinate f at x = xf (Abbott & von Doenhoff eq. 6.4). */
+void geom_camber_two_parabola(double f, double xf, double x, double *yc, double *dyc);
+/* Assemble the section: thickness normal to the camber line (eq. 6.1). */
+ascr_status geom_from_profile(const geom_profile *p, const char *name, ascr_geom_section **out,
+                              ascr_errbuf *err);
 
 #endif

@@ -32,19 +32,57 @@ static double naca_thickness(double x, double t, int closed)
                     a4 * x * x * x * x);
 }
 
-ascr_status geom_from_camber_thickness(const double *xs, const double *yc, const double *dyc,
-                                       const double *yt, size_t m, const char *name,
-                                       ascr_geom_section **out, ascr_errbuf *err)
+ascr_status geom_profile_alloc(geom_profile *p, size_t m, ascr_errbuf *err)
 {
+  p->m = m;
+  p->xs = core_calloc(m, sizeof(double));
+  p->yc = core_calloc(m, sizeof(double));
+  p->dyc = core_calloc(m, sizeof(double));
+  p->yt = core_calloc(m, sizeof(double));
+  if (p->xs == NULL || p->yc == NULL || p->dyc == NULL || p->yt == NULL) {
+    geom_profile_free(p);
+    return core_fail(err, ASCR_ENOMEM, "section generator: out of memory for %zu stations", m);
+  }
+  geom_cosine_stations(p->xs, m);
+  return ASCR_OK;
+}
+
+void geom_profile_free(geom_profile *p)
+{
+  free(p->xs);
+  free(p->yc);
+  free(p->dyc);
+  free(p->yt);
+  p->xs = p->yc = p->dyc = p->yt = NULL;
+}
+
+void geom_camber_two_parabola(double f, double xf, double x, double *yc, double *dyc)
+{
+  if (f == 0.0) {
+    *yc = 0.0;
+    *dyc = 0.0;
+  } else if (x < xf) {
+    *yc = f / (xf * xf) * (2.0 * xf * x - x * x);
+    *dyc = 2.0 * f / (xf * xf) * (xf - x);
+  } else {
+    *yc = f / ((1.0 - xf) * (1.0 - xf)) * ((1.0 - 2.0 * xf) + 2.0 * xf * x - x * x);
+    *dyc = 2.0 * f / ((1.0 - xf) * (1.0 - xf)) * (xf - x);
+  }
+}
+
+ascr_status geom_from_profile(const geom_profile *p, const char *name, ascr_geom_section **out,
+                              ascr_errbuf *err)
+{
+  const size_t m = p->m;
   size_t n = 2 * m - 1;
   ascr_geom_section *s = geom_section_new(n, name);
   if (s == NULL) {
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", name);
   }
   for (size_t i = 0; i < m; i++) {
-    double th = atan(dyc[i]);
-    double xu = xs[i] - yt[i] * sin(th), yu = yc[i] + yt[i] * cos(th);
-    double xl = xs[i] + yt[i] * sin(th), yl = yc[i] - yt[i] * cos(th);
+    double th = atan(p->dyc[i]);
+    double xu = p->xs[i] - p->yt[i] * sin(th), yu = p->yc[i] + p->yt[i] * cos(th);
+    double xl = p->xs[i] + p->yt[i] * sin(th), yl = p->yc[i] - p->yt[i] * cos(th);
     s->x[m - 1 - i] = xu;
     s->y[m - 1 - i] = yu;
     s->x[m - 1 + i] = xl;
@@ -119,47 +157,28 @@ ascr_status ascr_geom_naca(const char *digits, int closed_te, size_t n_side,
     r5 = tab_r[P - 1];
     k1 = tab_k1[P - 1] * (0.15 * L) / 0.3;
   }
-  double *xs = core_calloc(n_side, sizeof(double));
-  double *yc = core_calloc(n_side, sizeof(double));
-  double *dyc = core_calloc(n_side, sizeof(double));
-  double *yt = core_calloc(n_side, sizeof(double));
-  ascr_status st = ASCR_OK;
-  if (xs == NULL || yc == NULL || dyc == NULL || yt == NULL) {
-    st = core_fail(err, ASCR_ENOMEM, "naca%s: out of memory", digits);
-    goto done;
+  geom_profile pr;
+  ascr_status st = geom_profile_alloc(&pr, n_side, err);
+  if (st != ASCR_OK) {
+    return st;
   }
-  geom_cosine_stations(xs, n_side);
   for (size_t i = 0; i < n_side; i++) {
-    double x = xs[i];
-    yt[i] = naca_thickness(x, t, closed_te);
+    double x = pr.xs[i];
+    pr.yt[i] = naca_thickness(x, t, closed_te);
     if (!five) {
-      if (m4 > 0.0) {
-        if (x < p4) {
-          yc[i] = m4 / (p4 * p4) * (2.0 * p4 * x - x * x);
-          dyc[i] = 2.0 * m4 / (p4 * p4) * (p4 - x);
-        } else {
-          yc[i] = m4 / ((1.0 - p4) * (1.0 - p4)) * ((1.0 - 2.0 * p4) + 2.0 * p4 * x - x * x);
-          dyc[i] = 2.0 * m4 / ((1.0 - p4) * (1.0 - p4)) * (p4 - x);
-        }
-      }
+      geom_camber_two_parabola(m4, p4, x, &pr.yc[i], &pr.dyc[i]);
+    } else if (x < r5) {
+      pr.yc[i] = k1 / 6.0 * (x * x * x - 3.0 * r5 * x * x + r5 * r5 * (3.0 - r5) * x);
+      pr.dyc[i] = k1 / 6.0 * (3.0 * x * x - 6.0 * r5 * x + r5 * r5 * (3.0 - r5));
     } else {
-      if (x < r5) {
-        yc[i] = k1 / 6.0 * (x * x * x - 3.0 * r5 * x * x + r5 * r5 * (3.0 - r5) * x);
-        dyc[i] = k1 / 6.0 * (3.0 * x * x - 6.0 * r5 * x + r5 * r5 * (3.0 - r5));
-      } else {
-        yc[i] = k1 / 6.0 * r5 * r5 * r5 * (1.0 - x);
-        dyc[i] = -k1 / 6.0 * r5 * r5 * r5;
-      }
+      pr.yc[i] = k1 / 6.0 * r5 * r5 * r5 * (1.0 - x);
+      pr.dyc[i] = -k1 / 6.0 * r5 * r5 * r5;
     }
   }
-  yt[0] = 0.0;
+  pr.yt[0] = 0.0;
   char name[32];
   snprintf(name, sizeof name, "NACA %s%s", digits, closed_te ? " (closed TE)" : "");
-  st = geom_from_camber_thickness(xs, yc, dyc, yt, n_side, name, out, err);
-done:
-  free(xs);
-  free(yc);
-  free(dyc);
-  free(yt);
+  st = geom_from_profile(&pr, name, out, err);
+  geom_profile_free(&pr);
   return st;
 }

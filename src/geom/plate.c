@@ -55,26 +55,14 @@ ascr_status ascr_geom_plate(const ascr_geom_plate_params *p, size_t n_side,
     return core_fail(err, ASCR_EDOM,
                      "plate: a trailing edge thinner than the plate needs a taper length above 0");
   }
-  double *xs = core_calloc(n_side, sizeof(double));
-  double *yc = core_calloc(n_side, sizeof(double));
-  double *dyc = core_calloc(n_side, sizeof(double));
-  double *yt = core_calloc(n_side, sizeof(double));
-  ascr_status st = ASCR_OK;
-  if (xs == NULL || yc == NULL || dyc == NULL || yt == NULL) {
-    st = core_fail(err, ASCR_ENOMEM, "plate: out of memory");
-    goto done;
+  geom_profile pr;
+  ascr_status st = geom_profile_alloc(&pr, n_side, err);
+  if (st != ASCR_OK) {
+    return st;
   }
-  geom_cosine_stations(xs, n_side);
-  double m = p->camber, pp = p->camber_pos;
   for (size_t i = 0; i < n_side; i++) {
-    double x = xs[i];
-    if (x < pp) {
-      yc[i] = m / (pp * pp) * (2.0 * pp * x - x * x);
-      dyc[i] = 2.0 * m / (pp * pp) * (pp - x);
-    } else {
-      yc[i] = m / ((1.0 - pp) * (1.0 - pp)) * ((1.0 - 2.0 * pp) + 2.0 * pp * x - x * x);
-      dyc[i] = 2.0 * m / ((1.0 - pp) * (1.0 - pp)) * (pp - x);
-    }
+    double x = pr.xs[i];
+    geom_camber_two_parabola(p->camber, p->camber_pos, x, &pr.yc[i], &pr.dyc[i]);
     double h;
     if (x < a) {
       double u = 1.0 - x / a;
@@ -85,16 +73,12 @@ ascr_status ascr_geom_plate(const ascr_geom_plate_params *p, size_t n_side,
       double u = (x - 1.0 + L) / L;
       h = 0.5 * tte + 0.5 * (t - tte) * (1.0 - u * u);
     }
-    yt[i] = h;
+    pr.yt[i] = h;
   }
   char name[96];
-  snprintf(name, sizeof name, "plate t=%.3g%% f=%.3g%% at %.3g%%", 100.0 * t, 100.0 * m,
-           100.0 * pp);
-  st = geom_from_camber_thickness(xs, yc, dyc, yt, n_side, name, out, err);
-done:
-  free(xs);
-  free(yc);
-  free(dyc);
-  free(yt);
+  snprintf(name, sizeof name, "plate t=%.3g%% f=%.3g%% at %.3g%%", 100.0 * t,
+           100.0 * p->camber, 100.0 * p->camber_pos);
+  st = geom_from_profile(&pr, name, out, err);
+  geom_profile_free(&pr);
   return st;
 }

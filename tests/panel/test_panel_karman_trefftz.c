@@ -63,32 +63,31 @@ static kt_run run_kt(const kt_section *k, double alpha, size_t n_panels)
   return out;
 }
 
+/* Check one shape at one angle at the default paneling against the acceptance tolerances. */
+static void check_kt_default(double mux, double muy, double tau_deg, double alpha_deg)
+{
+  kt_section k;
+  kt_init(&k, mux, muy, tau_deg * DEG);
+  kt_run r = run_kt(&k, alpha_deg * DEG, 0);
+  print_message("KT (%g, %g, %g deg) alpha %g: cl %.6f circ %.6f exact %.6f, max |dCp| %.4f\n",
+                mux, muy, tau_deg, alpha_deg, r.cl, r.cl_circ, r.cl_exact, r.cp_err_max);
+  ascr_assert_close(r.cl, r.cl_exact, TOL_CL_REL, 0.0, "cl by pressure");
+  ascr_assert_close(r.cl_circ, r.cl_exact, TOL_CL_REL, 0.0, "cl by circulation");
+  assert_true(r.cp_err_max < TOL_CP_ABS);
+}
+
 /* A cambered 13 %-thick Karman-Trefftz section with a 10 deg trailing edge at alpha 3.7 deg. */
 static void test_panel_karman_trefftz_cl_and_cp_at_default_panels(void **state)
 {
   (void)state;
-  kt_section k;
-  kt_init(&k, 0.1, 0.08, 10.0 * DEG);
-  kt_run r = run_kt(&k, 3.7 * DEG, 0);
-  print_message("KT (0.1, 0.08, 10 deg) alpha 3.7: cl %.6f circ %.6f exact %.6f, max |dCp| %.4f\n",
-                r.cl, r.cl_circ, r.cl_exact, r.cp_err_max);
-  ascr_assert_close(r.cl, r.cl_exact, TOL_CL_REL, 0.0, "cl by pressure");
-  ascr_assert_close(r.cl_circ, r.cl_exact, TOL_CL_REL, 0.0, "cl by circulation");
-  assert_true(r.cp_err_max < TOL_CP_ABS);
+  check_kt_default(0.1, 0.08, 10.0, 3.7);
 }
 
 /* A thicker, less cambered section with a 15 deg trailing edge, at negative alpha. */
 static void test_panel_karman_trefftz_second_shape_negative_alpha(void **state)
 {
   (void)state;
-  kt_section k;
-  kt_init(&k, 0.15, 0.04, 15.0 * DEG);
-  kt_run r = run_kt(&k, -7.4 * DEG, 0);
-  print_message("KT (0.15, 0.04, 15 deg) alpha -7.4: cl %.6f circ %.6f exact %.6f, max |dCp| %.4f\n",
-                r.cl, r.cl_circ, r.cl_exact, r.cp_err_max);
-  ascr_assert_close(r.cl, r.cl_exact, TOL_CL_REL, 0.0, "cl by pressure");
-  ascr_assert_close(r.cl_circ, r.cl_exact, TOL_CL_REL, 0.0, "cl by circulation");
-  assert_true(r.cp_err_max < TOL_CP_ABS);
+  check_kt_default(0.15, 0.04, 15.0, -7.4);
 }
 
 /* Convergence as the panel count doubles: 80 -> 160 -> 320 -> 640. */
