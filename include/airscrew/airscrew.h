@@ -11,5 +11,6 @@
 #include "airscrew/ascr_errno.h"
 #include "airscrew/ascr_geom.h"
 #include "airscrew/ascr_panel.h"
+#include "airscrew/ascr_bl.h"
 
 #endif /* AIRSCREW_H */

@@ -1,0 +1,48 @@
+/* src/bl/bl_impl.h
+ * Private definitions of the boundary-layer stage: closure relations of the two-equation
+ * integral method, the e^N envelope amplification rate, and the interval residuals used by the
+ * marching solver (march.c) and, later, by the coupled viscous solver.
+ *
+ * Notation (Drela & Giles 1987): theta momentum thickness, dstar displacement thickness,
+ * H = dstar/theta, Hk kinematic shape parameter (Whitfield), Hs = H* kinetic-energy shape
+ * parameter, Re_theta = Re ue theta, Cf skin friction, CD dissipation coefficient, Ctau max
+ * shear-stress coefficient, N amplification exponent. Lengths in chord, speeds in free-stream
+ * units, Re = V c / nu.
+ */
+#ifndef ASCR_BL_IMPL_H
+#define ASCR_BL_IMPL_H
+
+#include "airscrew/ascr_bl.h"
+
+/* Closure values at one station. */
+typedef struct bl_closure {
+  double hk;      /* kinematic shape parameter */
+  double hs;      /* H* = theta_KE / theta (kinetic-energy shape parameter) */
+  double cf;      /* skin-friction coefficient tau_w / (1/2 rho ue^2) */
+  double cd;      /* dissipation coefficient D / (rho ue^3) */
+  double ctau_eq; /* equilibrium Ctau (turbulent only) */
+  double us;      /* normalised wall slip velocity (turbulent only) */
+  double delta;   /* boundary-layer thickness estimate (turbulent only), chord */
+} bl_closure;
+
+/* Whitfield's kinematic shape parameter from H and the edge Mach number. */
+double bl_hk(double h, double me);
+
+/* Laminar closures at Hk, Re_theta (Falkner-Skan fits, Drela & Giles 1987). */
+void bl_closure_laminar(double h, double rth, double me, bl_closure *c);
+
+/* Turbulent closures at H, Re_theta, Ctau (Drela & Giles 1987; Swafford 1983 for Cf).
+ * wake = 1 sets Cf = 0 and doubles the outer-layer dissipation scale as for a free shear layer. */
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_closure *c);
+
+/* Envelope amplification rate dN/dxi (1/chord) at Hk, theta, Re_theta (Drela & Giles 1987). */
+double bl_amplification_rate(double hk, double theta, double rth);
+
+/* Ctau at the start of turbulent flow from the laminar state at transition. */
+double bl_ctau_initial(double hk, double ctau_eq);
+
+/* Similarity (Falkner-Skan) start: laminar state at xi for ue = C xi^m, closures included.
+ * Returns 0, or -1 if no shape parameter in (1.5, 6) satisfies the equations. */
+int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h);
+
+#endif

@@ -1,0 +1,67 @@
+/* src/bl/closure_turbulent.c
+ * Turbulent closure relations of the two-equation integral method with a lag equation for the
+ * maximum shear-stress coefficient Ctau.
+ *
+ * Method and references.
+ *   H*: M. Drela and M. B. Giles, AIAA Journal 25(10), 1987, turbulent H*(Hk, Re_theta) fit
+ *       with H0 = 3 + 400/Re_theta (H0 = 4 below Re_theta = 400).
+ *   Cf: T. W. Swafford, "Analytical approximation of two-dimensional separated turbulent
+ *       boundary-layer velocity profiles", AIAA Journal 21(6), 1983, pp. 923-926, in the form
+ *       used by Drela & Giles: Cf Fc = 0.3 exp(-1.33 Hk) (log10(Re_theta/Fc))^(-1.74-0.31 Hk)
+ *       + 0.00011 (tanh(4 - Hk/0.875) - 1), Fc = sqrt(1 + 0.2 M^2).
+ *   Dissipation: CD = (Cf/2) Us + Ctau (1 - Us), wall slip velocity
+ *       Us = (H* / 2)(1 - (4/3)(Hk - 1)/H) (Drela & Giles 1987), from the G-beta equilibrium
+ *       locus with A = 6.7, B = 0.75, which also gives the equilibrium
+ *       Ctau_EQ = H* (0.015/(1 - Us)) (Hk - 1)^3 / (Hk^2 H).
+ *   Layer thickness for the lag equation: delta = theta (3.15 + 1.72/(Hk - 1)) + dstar.
+ *   Lag equation (G. E. Green, D. J. Weeks and J. M. Brooman, "Prediction of turbulent boundary
+ *       layers and wakes in compressible flow by a lag-entrainment method", ARC R&M 3791, 1977),
+ *       in the form (delta/sqrt(Ctau)) d sqrt(Ctau)/dxi = K (sqrt(Ctau_EQ) - sqrt(Ctau)), K = 5.6,
+ *       is applied in march.c.
+ * In a wake (wake = 1) the wall terms vanish (Cf = 0) and the outer-layer dissipation is
+ * doubled, the two halves of the wake each carrying a shear layer (Drela & Giles 1987).
+ * The constants are written from memory of the published fits; the turbulent flat-plate test
+ * (tests/bl/test_bl_flat_plate.c) checks the assembled closure against Schlichting's formula.
+ */
+#include "bl/bl_impl.h"
+
+#include <math.h>
+
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_closure *c)
+{
+  double hk = bl_hk(h, me);
+  if (hk < 1.05) hk = 1.05;
+  if (rth < 200.0) rth = 200.0; /* the fits are not meant below this; see march.c */
+  double h0 = rth > 400.0 ? 3.0 + 400.0 / rth : 4.0;
+  double lr = log(rth);
+  double hs;
+  if (hk < h0) {
+    hs = 1.505 + 4.0 / rth + (0.165 - 1.6 / sqrt(rth)) * pow(h0 - hk, 1.6) / hk;
+  } else {
+    double e = hk - h0, g = hk - h0 + 4.0 / lr;
+    hs = 1.505 + 4.0 / rth + e * e * (0.04 / hk + 0.007 * lr / (g * g));
+  }
+  double fc = sqrt(1.0 + 0.2 * me * me);
+  double cf = 0.0;
+  if (!wake) {
+    double lg = log10(rth / fc);
+    if (lg < 0.5) lg = 0.5;
+    cf = (0.3 * exp(-1.33 * hk) * pow(lg, -1.74 - 0.31 * hk) +
+          0.00011 * (tanh(4.0 - hk / 0.875) - 1.0)) / fc;
+  }
+  double us = 0.5 * hs * (1.0 - 4.0 / 3.0 * (hk - 1.0) / h);
+  if (us > 0.95) us = 0.95;
+  if (us < 0.0) us = 0.0;
+  double ctau_eq = hs * 0.015 / (1.0 - us) * (hk - 1.0) * (hk - 1.0) * (hk - 1.0) / (hk * hk * h);
+  double cd = 0.5 * cf * us + ctau * (1.0 - us);
+  if (wake) {
+    cd *= 2.0;
+  }
+  c->hk = hk;
+  c->hs = hs;
+  c->cf = cf;
+  c->cd = cd;
+  c->ctau_eq = ctau_eq;
+  c->us = us;
+  c->delta = 0.0; /* set by the caller, which knows theta and dstar */
+}
