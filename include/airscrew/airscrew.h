@@ -12,5 +12,6 @@
 #include "airscrew/ascr_geom.h"
 #include "airscrew/ascr_panel.h"
 #include "airscrew/ascr_bl.h"
+#include "airscrew/ascr_visc.h"
 
 #endif /* AIRSCREW_H */

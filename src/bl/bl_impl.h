@@ -45,4 +45,11 @@ double bl_ctau_initial(double hk, double ctau_eq);
  * Returns 0, or -1 if no shape parameter in (1.5, 6) satisfies the equations. */
 int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h);
 
+/* Integral of f over [xa, xb] from its end values. With xa > 0 the trapezoidal rule is taken
+ * in ln(xi): 0.5 (fa xa + fb xb) ln(xb/xa), exact for f ~ 1/xi, which is how the source terms of
+ * every Falkner-Skan layer vary (theta ~ xi^((1-m)/2), Cf ~ 1/(ue theta)); it keeps the first
+ * intervals next to a stagnation point, where ue changes by a factor of ten, accurate. With
+ * xa <= 0 (wake from the trailing edge) the ordinary trapezoidal rule. */
+double bl_interval_integral(double fa, double fb, double xa, double xb);
+
 #endif

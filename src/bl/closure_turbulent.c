@@ -30,7 +30,9 @@
 void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_closure *c)
 {
   double hk = bl_hk(h, me);
-  if (hk < 1.05) hk = 1.05;
+  /* floor of the fits: a wake tends to H = 1 far downstream, a wall layer never goes below 1.05 */
+  double hk_min = wake ? 1.00005 : 1.05;
+  if (hk < hk_min) hk = hk_min;
   if (rth < 200.0) rth = 200.0; /* the fits are not meant below this; see march.c */
   double h0 = rth > 400.0 ? 3.0 + 400.0 / rth : 4.0;
   double lr = log(rth);

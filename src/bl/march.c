@@ -9,7 +9,7 @@
  * (Drela & Giles 1987, eqs. for the momentum and shape-parameter equations; lag equation after
  * Green, Weeks & Brooman 1977, K = 5.6) are integrated in logarithmic form: the logarithmic
  * terms exactly, the coefficient (2 + H - Me^2), (1 - H) as interval means, and the right-hand
- * sides by the trapezoidal rule (mean of the two station values); the stiff lag equation by the
+ * sides by the trapezoidal rule in ln(xi) (bl_interval_integral); the stiff lag equation by the
  * implicit Euler rule (station 2 value), which cannot overshoot. The unknowns at station 2,
  * (ln theta, H) or (ln theta, H, sqrt Ctau), are found by Newton's method with a forward-
  * difference Jacobian (step 1e-7), step limits |d ln theta| <= 0.5, |dH| <= 0.5, H >= 1.02,
@@ -95,8 +95,10 @@ static void residuals(const st_state *a, const st_eval *ea, const st_state *b, d
   double lue = log(b->ue / a->ue);
   double hm = 0.5 * (a->h + b->h);
   double mm = 0.5 * (ea->me * ea->me + eb.me * eb.me);
-  r[0] = log(b->theta / a->theta) + (2.0 + hm - mm) * lue - dxi * 0.5 * (ea->mom_rhs + eb.mom_rhs);
-  r[1] = log(eb.c.hs / ea->c.hs) + (1.0 - hm) * lue - dxi * 0.5 * (ea->ke_rhs + eb.ke_rhs);
+  r[0] = log(b->theta / a->theta) + (2.0 + hm - mm) * lue -
+         bl_interval_integral(ea->mom_rhs, eb.mom_rhs, a->xi, b->xi);
+  r[1] = log(eb.c.hs / ea->c.hs) + (1.0 - hm) * lue -
+         bl_interval_integral(ea->ke_rhs, eb.ke_rhs, a->xi, b->xi);
   if (b->turb) {
     r[2] = (b->sc - a->sc) - dxi * eb.lag_rhs;
   }
@@ -194,6 +196,14 @@ static double similarity_g(double m, double hh, double *f_out)
   double den = 0.5 * (1.0 - m) + (2.0 + hh) * m;
   if (f_out) *f_out = f;
   return (1.0 - hh) * m * f / den - (d - f);
+}
+
+double bl_interval_integral(double fa, double fb, double xa, double xb)
+{
+  if (xa > 0.0 && xb > xa) {
+    return 0.5 * (fa * xa + fb * xb) * log(xb / xa);
+  }
+  return 0.5 * (fa + fb) * (xb - xa);
 }
 
 int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h)
@@ -323,7 +333,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
       st_eval ea, eb;
       evaluate(&a, re, mach, &ea);
       evaluate(&b, re, mach, &eb);
-      double n2 = namp + (b.xi - a.xi) * 0.5 * (ea.amp + eb.amp);
+      double n2 = namp + bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
       int trip = p->s_trip >= 0.0 && p->s_trip > a.xi && p->s_trip <= b.xi;
       if (n2 >= p->ncrit || trip) {
         double xtr = n2 >= p->ncrit ? a.xi + (p->ncrit - namp) / (n2 - namp) * (b.xi - a.xi) : b.xi;

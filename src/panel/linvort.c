@@ -51,21 +51,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-struct ascr_panel_solver {
-  size_t n;        /* nodes */
-  int is_set;      /* 1 after a successful _set */
-  int sharp;       /* 1 if the trailing edge is treated as sharp */
-  double *x, *y;   /* node coordinates (owned copies) */
-  double *a;       /* LU factors, (n+1)^2 column-major (owned) */
-  lapack_int *ipiv;
-  double *g0, *g90;/* unit solutions, n+1 each (last entry Psi0) */
-  double te_len;   /* trailing-edge panel length */
-  double te_sn;    /* b . n_out of the trailing-edge panel */
-  double te_tb;    /* b . t_TE */
-  double *ptx, *pty, *plen; /* panel unit tangents and lengths, n-1 each (set-up scratch) */
-  double *lnr, *rsq;        /* ln r and r^2 from one field node to every node (scratch) */
-};
-
 ascr_panel_solver *ascr_panel_solver_alloc(size_t n_nodes)
 {
   if (n_nodes < 8 || n_nodes > 20000) {
@@ -275,6 +260,37 @@ ascr_status ascr_panel_solver_set(ascr_panel_solver *w, const ascr_geom_section 
   return ASCR_OK;
 }
 
+void panel_force_accumulate(double xa, double ya, double xb, double yb, double cpa, double cpb,
+                            double *fx, double *fy, double *mom)
+{
+  const double xr = 0.25, yr = 0.0;
+  double dx = xb - xa, dy = yb - ya;
+  double L = hypot(dx, dy);
+  if (!(L > 0.0)) return;
+  double nx = dy / L, ny = -dx / L; /* outward normal */
+  *fx -= 0.5 * (cpa + cpb) * L * nx;
+  *fy -= 0.5 * (cpa + cpb) * L * ny;
+  /* moment arm, linear along the panel: h = (x - xr) n_y - (y - yr) n_x; exact for linear Cp */
+  double ha = (xa - xr) * ny - (ya - yr) * nx;
+  double hb = (xb - xr) * ny - (yb - yr) * nx;
+  *mom += L / 6.0 * (2.0 * cpa * ha + cpa * hb + cpb * ha + 2.0 * cpb * hb);
+}
+
+void panel_integrate_cp(const ascr_panel_solver *w, const double *cp, double alpha_rad,
+                        double *cl, double *cm, double *cdp)
+{
+  const size_t n = w->n;
+  double fx = 0.0, fy = 0.0, mom = 0.0;
+  for (size_t i = 1; i <= n; i++) {
+    size_t a = i - 1, k = i < n ? i : 0;
+    panel_force_accumulate(w->x[a], w->y[a], w->x[k], w->y[k], cp[a], cp[k], &fx, &fy, &mom);
+  }
+  double ca = cos(alpha_rad), sa = sin(alpha_rad);
+  *cl = fy * ca - fx * sa;
+  *cdp = fx * ca + fy * sa;
+  *cm = mom;
+}
+
 ascr_status ascr_panel_solver_solve(const ascr_panel_solver *w, double alpha_rad, double mach,
                                     ascr_panel_result *r, double *cp, double *q,
                                     ascr_errbuf *err)
@@ -294,7 +310,6 @@ ascr_status ascr_panel_solver_solve(const ascr_panel_solver *w, double alpha_rad
   const size_t n = w->n;
   const double ca = cos(alpha_rad), sa = sin(alpha_rad);
   const double beta = sqrt(1.0 - mach * mach);
-  const double xr = 0.25, yr = 0.0;
   double fx = 0.0, fy = 0.0, mom = 0.0, circ = 0.0;
   double cpmin = INFINITY;
   double gprev = 0.0, cpprev = 0.0;
@@ -320,17 +335,9 @@ ascr_status ascr_panel_solver_solve(const ascr_panel_solver *w, double alpha_rad
     }
     if (i > 0) {
       size_t a = i - 1;
-      double dx = w->x[k] - w->x[a], dy = w->y[k] - w->y[a];
-      double L = hypot(dx, dy);
+      double L = hypot(w->x[k] - w->x[a], w->y[k] - w->y[a]);
       if (L > 0.0) {
-        double nx = dy / L, ny = -dx / L; /* outward normal */
-        double cpa = cpprev, cpb = c;
-        fx -= 0.5 * (cpa + cpb) * L * nx;
-        fy -= 0.5 * (cpa + cpb) * L * ny;
-        /* moment arm, linear along the panel: h = (x - xr) n_y - (y - yr) n_x */
-        double ha = (w->x[a] - xr) * ny - (w->y[a] - yr) * nx;
-        double hb = (w->x[k] - xr) * ny - (w->y[k] - yr) * nx;
-        mom += L / 6.0 * (2.0 * cpa * ha + cpa * hb + cpb * ha + 2.0 * cpb * hb);
+        panel_force_accumulate(w->x[a], w->y[a], w->x[k], w->y[k], cpprev, c, &fx, &fy, &mom);
         if (i < n) {
           circ += 0.5 * (gprev + g) * L;
         } else if (!w->sharp) {

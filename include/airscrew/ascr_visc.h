@@ -1,0 +1,102 @@
+/* include/airscrew/ascr_visc.h
+ * Viscous section analysis: the integral boundary layer of ascr_bl.h on both surfaces and the
+ * wake, coupled to the panel solution through the mass defect (edge velocity = inviscid
+ * velocity + source influence x mass defect) and solved for all stations at once by Newton's
+ * method (the simultaneous coupling of Drela & Giles 1987, AIAA J. 25(10); our formulation in
+ * docs/theory/viscous.md). Drag from the far-wake momentum thickness (Squire & Young 1937,
+ * ARC R&M 1838).
+ *
+ * Life cycle: _alloc(n_nodes, n_wake) -> _set(panel solver, params) -> _solve(alpha) any number
+ * of times (each solve may start from the previous converged state: continuation) -> _free.
+ * The panel solver is borrowed and must outlive the viscous solver; it is only read.
+ * Thread safety: one solver object per thread.
+ */
+#ifndef ASCR_VISC_H
+#define ASCR_VISC_H
+
+#include <stddef.h>
+#include "airscrew/ascr_errno.h"
+#include "airscrew/ascr_panel.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+typedef struct ascr_visc_solver ascr_visc_solver;
+
+/** Parameters of a viscous analysis. */
+typedef struct ascr_visc_params {
+  double re;            /* chord Reynolds number V c / nu (1e3 .. 1e8) */
+  double mach;          /* free-stream Mach number (0 .. 0.7) */
+  double ncrit;         /* critical amplification exponent (default 9) */
+  double trip_upper;    /* forced transition x/c on the upper surface (> 1 for none) */
+  double trip_lower;    /* forced transition x/c on the lower surface (> 1 for none) */
+  double wake_length;   /* wake length, chords (default 1) */
+  int max_iter;         /* Newton iteration limit (default 40) */
+  double tol;           /* convergence: largest relative update of theta and m (default 1e-7) */
+} ascr_visc_params;
+
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 40 iterations, 1e-7. */
+ASCR_EXPORT ascr_visc_params ascr_visc_params_defaults(void);
+
+/** Default number of wake nodes for a section of n_nodes nodes. */
+ASCR_EXPORT size_t ascr_visc_default_wake_nodes(size_t n_nodes);
+
+/** Allocate for sections of n_nodes nodes and a wake of n_wake nodes (>= 8). NULL on failure. */
+ASCR_EXPORT ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake);
+
+/** Attach a set panel solver (borrowed) and the parameters (copied); builds the surface part
+ *  of the source-influence matrix. Forgets any previous solution.
+ *  @return ASCR_OK, ASCR_EINVAL (sizes, parameter ranges; message names the field),
+ *          ASCR_ESING (LU solve failed). */
+ASCR_EXPORT ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *ps,
+                                             const ascr_visc_params *p, ascr_errbuf *err);
+
+/** Results at one angle of attack. */
+typedef struct ascr_visc_result {
+  double alpha_rad;
+  double cl;                 /* from the viscous surface pressure */
+  double cm;                 /* about (0.25, 0), nose up positive */
+  double cd;                 /* total drag, Squire-Young at the wake end */
+  double cdf;                /* skin-friction drag */
+  double cdp;                /* pressure drag, cd - cdf */
+  double x_transition_upper; /* x/c of transition, upper surface (NaN if laminar to the TE) */
+  double x_transition_lower;
+  int forced_upper;          /* 1 if the upper transition is the trip */
+  double x_separation_upper; /* x/c where Cf first turns negative on the upper surface (NaN if none) */
+  double x_reattach_upper;   /* x/c where it turns positive again (NaN if it does not) */
+  double x_separation_lower;
+  double x_reattach_lower;
+  int converged;             /* 1 if the Newton iteration met the tolerance */
+  int iterations;            /* Newton iterations used */
+  double residual;           /* final largest relative update */
+} ascr_visc_result;
+
+/** Solve at angle alpha_rad. warm != 0 starts from the previous solution of this object (if
+ *  any), which is how polar sweeps continue from point to point; otherwise the layer is
+ *  initialised by a direct march on the inviscid velocity.
+ *  @return ASCR_OK if converged; ASCR_EMAXITER if not (r is still filled, r->converged = 0:
+ *          the numbers are the last iterate and must not be used as a result); ASCR_EINVAL;
+ *          ASCR_ESING (singular Newton system). */
+ASCR_EXPORT ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int warm,
+                                               ascr_visc_result *r, ascr_errbuf *err);
+
+/** Distributions of the last solve, one entry per station (caller-owned arrays of
+ *  ascr_visc_solver_stations() entries; any pointer may be NULL). Stations run over the upper
+ *  surface from the stagnation point to the trailing edge, then the lower surface likewise,
+ *  then the wake. side: 0 upper, 1 lower, 2 wake. ampl: N (laminar) or sqrt(Ctau) (turbulent). */
+ASCR_EXPORT size_t ascr_visc_solver_stations(const ascr_visc_solver *v);
+ASCR_EXPORT void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *side, double *s,
+                                                double *x, double *y, double *ue, double *dstar,
+                                                double *theta, double *h, double *cf,
+                                                double *ampl, int *turbulent);
+/** Surface pressure of the last solve at the section nodes (n_nodes entries). */
+ASCR_EXPORT void ascr_visc_solver_cp(const ascr_visc_solver *v, double *cp);
+
+/** Free; NULL is a no-op. */
+ASCR_EXPORT void ascr_visc_solver_free(ascr_visc_solver *v);
+
+#ifdef __cplusplus
+}
+#endif
+#endif /* ASCR_VISC_H */

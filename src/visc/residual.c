@@ -1,0 +1,193 @@
+/* src/visc/residual.c
+ * Residuals of the coupled boundary-layer system, station by station.
+ *
+ * Method. The same discretisation as the direct march (src/bl/march.c): between stations a
+ * and b, in logarithmic form,
+ *   R0 = ln(theta_b/theta_a) + (2 + H_m - Me_m^2) ln(ue_b/ue_a) - int Cf/(2 theta) dxi
+ *   R1 = ln(H*_b/H*_a) + (1 - H_m) ln(ue_b/ue_a) - int (2CD/H* - Cf/2)/theta dxi
+ *   R2 = N_b - N_a - int dN/dxi dxi                                  (laminar)
+ *   R2 = sqrt(Ctau)_b - sqrt(Ctau)_a - dxi [K sqrt(Ctau)(sqrt(Ctau_EQ) - sqrt(Ctau))/delta]_b (turbulent)
+ * with H = m/(ue theta), the integrals by bl_interval_integral (trapezoidal in ln xi on the
+ * surfaces) (Drela & Giles 1987 for the equations, Green et al. 1977 for the lag).
+ * A transition interval is split at the point where N, growing at the rate of its laminar
+ * end, reaches N_crit (or at the trip): the
+ * state there is interpolated linearly between a and b, the laminar equations hold before it
+ * and the turbulent ones after it (their R0 and R1 are added), and Ctau starts at
+ * bl_ctau_initial(). The first station of each surface follows the Hiemenz similarity state of
+ * the closure with a = ue/xi (stagnation flow, bl_similarity_start with m = 1). The first wake
+ * station takes the sum of the two trailing-edge momentum and displacement thicknesses and the
+ * theta-weighted mean of their sqrt(Ctau) (a laminar side contributes its initial Ctau).
+ */
+#include "visc/visc_impl.h"
+
+#include <math.h>
+
+#define LAG_K 5.6
+
+typedef struct vev {
+  double h, rth, me;
+  bl_closure c;
+  double mom, ke, lag, amp;
+} vev;
+
+static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
+{
+  double ue = s->ue > 1e-6 ? s->ue : 1e-6;
+  double th = s->th > 1e-12 ? s->th : 1e-12;
+  e->h = s->m / (ue * th);
+  if (e->h < (wake ? 1.00005 : 1.02)) e->h = wake ? 1.00005 : 1.02;
+  e->me = cx->mach * ue;
+  e->rth = cx->re * ue * th;
+  if (turb) {
+    double sc = s->c > 1e-5 ? s->c : 1e-5;
+    bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, &e->c);
+    double delta = th * (3.15 + 1.72 / (e->c.hk - 1.0)) + e->h * th;
+    e->lag = LAG_K * sc * (sqrt(e->c.ctau_eq) - sc) / delta;
+    e->amp = 0.0;
+  } else {
+    bl_closure_laminar(e->h, e->rth, e->me, &e->c);
+    e->lag = 0.0;
+    e->amp = bl_amplification_rate(e->c.hk, th, e->rth);
+  }
+  e->mom = 0.5 * e->c.cf / th;
+  e->ke = (2.0 * e->c.cd / e->c.hs - 0.5 * e->c.cf) / th;
+}
+
+/* R0, R1 over the interval between two evaluated states. */
+static void two_eq(const vstate *a, const vev *ea, const vstate *b, const vev *eb,
+                   double *r0, double *r1)
+{
+  double lue = log(fmax(b->ue, 1e-6) / fmax(a->ue, 1e-6));
+  double hm = 0.5 * (ea->h + eb->h);
+  double mm = 0.5 * (ea->me * ea->me + eb->me * eb->me);
+  *r0 = log(fmax(b->th, 1e-12) / fmax(a->th, 1e-12)) + (2.0 + hm - mm) * lue -
+        bl_interval_integral(ea->mom, eb->mom, a->xi, b->xi);
+  *r1 = log(eb->c.hs / ea->c.hs) + (1.0 - hm) * lue -
+        bl_interval_integral(ea->ke, eb->ke, a->xi, b->xi);
+}
+
+static double sqrt_ctau_start(const vctx *cx, const vstate *s)
+{
+  vev e;
+  vstate t = *s;
+  t.c = 0.03;
+  eval(cx, &t, 1, 0, &e);
+  return sqrt(bl_ctau_initial(e.c.hk, e.c.ctau_eq));
+}
+
+double visc_hiemenz_h(void)
+{
+  double th, h;
+  if (bl_similarity_start(1.0, 1.0, 1.0, 1.0, &th, &h) != 0) return 2.24;
+  return h;
+}
+
+/* State at fraction f of the interval a -> b (linear in theta, dstar, ue). */
+static vstate interp(const vstate *a, const vstate *b, double f)
+{
+  vstate t;
+  double da = a->m / a->ue, db = b->m / b->ue;
+  t.th = a->th + f * (b->th - a->th);
+  t.ue = a->ue + f * (b->ue - a->ue);
+  t.m = t.ue * (da + f * (db - da));
+  t.xi = a->xi + f * (b->xi - a->xi);
+  t.c = a->c;
+  t.turb = 0;
+  return t;
+}
+
+/* A first station is seen at its distance from the stagnation point, but no closer than
+ * xi_min, with the edge velocity of the stagnation flow there, ue = stag_a xi. The stagnation
+ * point may sit arbitrarily close to a node; this keeps the logarithms of the first interval
+ * finite while the node's own (tiny) ue plays no part. */
+static vstate first_view(const vctx *cx, const vstate *s)
+{
+  vstate t = *s;
+  if (s->first) {
+    double m_over_ue = s->m / fmax(s->ue, 1e-9);
+    t.xi = fmax(s->xi, cx->xi_min);
+    t.ue = cx->stag_a * t.xi;
+    t.m = m_over_ue * t.ue;
+  }
+  return t;
+}
+
+void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b_in,
+                   const vstate *w, double *R, double *f_tr)
+{
+  R[0] = R[1] = R[2] = 0.0;
+  if (kind == VR_STAG) {
+    /* Hiemenz state of the closure for ue = stag_a xi: theta independent of xi */
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, cx->re, cx->stag_a, 1.0, &thh, &h2);
+    double h = b_in->m / (fmax(b_in->ue, 1e-9) * fmax(b_in->th, 1e-12));
+    R[0] = log(fmax(b_in->th, 1e-12) / thh);
+    R[1] = log(fmax(h, 1e-6) / hh);
+    R[2] = b_in->c;
+    return;
+  }
+  vstate av, bv;
+  const vstate *a = a_in, *b = b_in;
+  if (kind != VR_MERGE) {
+    av = first_view(cx, a_in);
+    bv = first_view(cx, b_in);
+    a = &av;
+    b = &bv;
+  }
+  if (kind == VR_MERGE) {
+    double da = a->m / fmax(a->ue, 1e-6), db = b->m / fmax(b->ue, 1e-6);
+    double dw = w->m / fmax(w->ue, 1e-6);
+    double sca = a->turb ? a->c : sqrt_ctau_start(cx, a);
+    double scb = b->turb ? b->c : sqrt_ctau_start(cx, b);
+    R[0] = log(fmax(w->th, 1e-12) / (a->th + b->th));
+    R[1] = log(fmax(dw, 1e-12) / (da + db));
+    R[2] = w->c - (a->th * sca + b->th * scb) / (a->th + b->th);
+    return;
+  }
+  double dxi = b->xi - a->xi;
+  if (kind == VR_LAM || kind == VR_TURB || kind == VR_WAKE) {
+    int turb = kind != VR_LAM, wake = kind == VR_WAKE;
+    vev ea, eb;
+    eval(cx, a, turb, wake, &ea);
+    eval(cx, b, turb, wake, &eb);
+    two_eq(a, &ea, b, &eb, &R[0], &R[1]);
+    if (turb) {
+      R[2] = (b->c - a->c) - dxi * eb.lag;
+    } else {
+      R[2] = b->c - a->c - bl_interval_integral(ea.amp, eb.amp, a->xi, b->xi);
+    }
+    return;
+  }
+  /* transition interval: a laminar, b turbulent. N grows from a at the rate of station a
+   * (an explicit step: b carries a turbulent state, so a rate interpolated toward it would
+   * mix in a turbulent shape parameter and make N non-monotonic in the crossing point) */
+  vev ea;
+  eval(cx, a, 0, 0, &ea);
+  double f = 1.0;
+  if (ea.amp > 0.0 && dxi > 0.0) {
+    f = (cx->ncrit - a->c) / (ea.amp * dxi);
+    if (f > 1.0) f = 1.0;
+  }
+  vstate t;
+  vev et;
+  if (cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi) {
+    double ft = (cx->xi_trip - a->xi) / dxi;
+    if (ft < f) f = ft;
+  }
+  if (f < 1e-6) f = 1e-6;
+  if (f_tr) *f_tr = f;
+  t = interp(a, b, f);
+  eval(cx, &t, 0, 0, &et);
+  double r0a, r1a, r0b, r1b;
+  two_eq(a, &ea, &t, &et, &r0a, &r1a);
+  vstate tt = t;
+  tt.turb = 1;
+  tt.c = sqrt_ctau_start(cx, &t);
+  vev ett, eb;
+  eval(cx, &tt, 1, 0, &ett);
+  eval(cx, b, 1, 0, &eb);
+  two_eq(&tt, &ett, b, &eb, &r0b, &r1b);
+  R[0] = r0a + r0b;
+  R[1] = r1a + r1b;
+  R[2] = (b->c - tt.c) - (1.0 - f) * dxi * eb.lag;
+}

@@ -1,0 +1,1104 @@
+/* src/visc/solver.c
+ * Coupled viscous-inviscid section analysis: wake geometry, source-influence matrix, station
+ * bookkeeping, initial state, global Newton iteration, forces and drag.
+ *
+ * Method (docs/theory/viscous.md). The boundary layer displaces the flow by its mass defect
+ * m = ue dstar; its streamwise growth acts on the outer flow as a source sheet sigma = dm/ds on
+ * the surface panels (uniform per panel) and on the wake panels. The panel system (linvort.c)
+ * gives the change of the surface vortex strength per unit source, d gamma/d sigma = -A^-1 B,
+ * with B the stream function of the sources at the nodes; at the wake nodes the tangential
+ * velocity is summed from vortices and sources directly. So every edge velocity is
+ *     ue = ue_inv + D m,   D = E G,
+ * and the boundary-layer residuals of all stations (residual.c), with the edge velocities
+ * substituted, form one nonlinear system in (theta, m, N or sqrt(Ctau)) per station. It is
+ * solved by Newton's method: residual derivatives with respect to the local unknowns and edge
+ * velocities by forward differences (relative step 1e-7), chained through D into a dense
+ * Jacobian of order 3 (n + n_wake), solved by LAPACKE dgesv. Updates are under-relaxed so that
+ * no theta or m changes by more than 50 % and no N by more than 2 in one step (the idea of
+ * Drela & Giles 1987; the limits are ours). Between iterations the transition interval on each
+ * side and the stagnation point are re-located from the current state.
+ * The wake follows the inviscid streamline from the trailing edge (midpoint rule, geometric
+ * spacing starting at the trailing-edge panel size), fixed during the iteration.
+ * Drag: Squire & Young (ARC R&M 1838, 1937): cd = 2 theta_end ue_end^((H_end + 5)/2) at the
+ * wake end; skin-friction drag by integrating Cf ue^2 along the surface projected on the free
+ * stream; pressure drag by difference.
+ */
+#include "visc/visc_impl.h"
+#include "core/core_impl.h"
+
+#include <lapacke.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+#include <stdio.h>
+
+#define FD_STEP 1e-7
+
+ascr_visc_params ascr_visc_params_defaults(void)
+{
+  ascr_visc_params p;
+  p.re = 1e6;
+  p.mach = 0.0;
+  p.ncrit = 9.0;
+  p.trip_upper = 2.0;
+  p.trip_lower = 2.0;
+  p.wake_length = 1.0;
+  p.max_iter = 40;
+  p.tol = 1e-7;
+  return p;
+}
+
+size_t ascr_visc_default_wake_nodes(size_t n_nodes)
+{
+  size_t k = n_nodes / 6 + 8;
+  return k < 12 ? 12 : k;
+}
+
+ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
+{
+  if (n_nodes < 20 || n_nodes > 4000 || n_wake < 8 || n_wake > 1000) return NULL;
+  ascr_visc_solver *v = calloc(1, sizeof *v);
+  if (v == NULL) return NULL;
+  size_t n = n_nodes, nw = n_wake, np = (n - 1) + (nw - 1), nst = n + nw;
+  v->n = n;
+  v->nw = nw;
+  v->np = np;
+  v->nst = nst;
+  size_t wcols = (n - 1 > nw - 1) ? n - 1 : nw - 1;
+  int ok = 1;
+#define ALLOC(ptr, cnt) ok = ok && ((ptr) = core_calloc((cnt), sizeof *(ptr))) != NULL
+  ALLOC(v->snode, n);
+  ALLOC(v->xw, nw);
+  ALLOC(v->yw, nw);
+  ALLOC(v->sw, nw);
+  ALLOC(v->E, (n + nw) * np);
+  ALLOC(v->gam_inv, n);
+  ALLOC(v->qw_inv, nw);
+  ALLOC(v->plen, np);
+  ALLOC(v->work, (n + 1) * wcols);
+  ALLOC(v->cu, n);
+  ALLOC(v->cv, n);
+  ALLOC(v->qmid, (nw - 1) * np);
+  ALLOC(v->qmid_g, (nw - 1) * n);
+  ALLOC(v->qmid_inv, nw - 1);
+  ALLOC(v->node, nst);
+  ALLOC(v->side, nst);
+  ALLOC(v->sgn, nst);
+  ALLOC(v->xi, nst);
+  ALLOC(v->dfirst, nst);
+  ALLOC(v->D, nst * nst);
+  ALLOC(v->ue_inv, nst);
+  ALLOC(v->pa, np);
+  ALLOC(v->pb, np);
+  ALLOC(v->ga, np);
+  ALLOC(v->gb, np);
+  ALLOC(v->th, nst);
+  ALLOC(v->mm, nst);
+  ALLOC(v->cc, nst);
+  ALLOC(v->turb, nst);
+  ALLOC(v->ue, nst);
+  ALLOC(v->J, 9 * nst * nst);
+  ALLOC(v->R, 3 * nst);
+  ALLOC(v->dx, 3 * nst);
+  ALLOC(v->ipiv, 3 * nst);
+  ALLOC(v->cp, n);
+#undef ALLOC
+  if (!ok) {
+    ascr_visc_solver_free(v);
+    return NULL;
+  }
+  return v;
+}
+
+void ascr_visc_solver_free(ascr_visc_solver *v)
+{
+  if (v == NULL) return;
+  free(v->snode); free(v->xw); free(v->yw); free(v->sw); free(v->E); free(v->gam_inv);
+  free(v->qw_inv); free(v->plen); free(v->work); free(v->cu); free(v->cv); free(v->qmid);
+  free(v->qmid_g); free(v->qmid_inv); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
+  free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
+  free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
+  free(v->ipiv); free(v->cp);
+  free(v);
+}
+
+size_t ascr_visc_solver_stations(const ascr_visc_solver *v) { return v ? v->nst : 0; }
+
+ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *ps,
+                                 const ascr_visc_params *p, ascr_errbuf *err)
+{
+  if (v == NULL || ps == NULL || p == NULL) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: NULL argument");
+  }
+  if (!ps->is_set || ps->n != v->n) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: panel solver has %zu nodes (set: %d), "
+                     "expected %zu", ps->n, ps->is_set, v->n);
+  }
+  if (!(p->re >= 1e3 && p->re <= 1e8)) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: Re = %g outside 1e3 .. 1e8", p->re);
+  }
+  if (!(p->mach >= 0.0 && p->mach <= 0.7)) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: Mach %g outside 0 .. 0.7", p->mach);
+  }
+  if (!(p->ncrit > 0.0 && p->ncrit <= 20.0)) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: N_crit %g outside (0, 20]", p->ncrit);
+  }
+  if (!(p->wake_length >= 0.2 && p->wake_length <= 5.0) || p->max_iter < 1 || !(p->tol > 0.0)) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: wake length, iteration limit or tolerance "
+                     "out of range");
+  }
+  if (!isfinite(p->trip_upper) || !isfinite(p->trip_lower)) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: trip location is not finite");
+  }
+  v->ps = ps;
+  v->p = *p;
+  v->is_set = 0;
+  v->have_solution = 0;
+  v->alpha = NAN;
+  const size_t n = v->n, m = n + 1, np = v->np;
+  v->snode[0] = 0.0;
+  for (size_t i = 1; i < n; i++) {
+    v->snode[i] = v->snode[i - 1] + hypot(ps->x[i] - ps->x[i - 1], ps->y[i] - ps->y[i - 1]);
+  }
+  /* surface source panels: d gamma / d sigma = -A^-1 B (alpha-independent) */
+  double *W = v->work;
+  for (size_t pp = 0; pp + 1 < n; pp++) {
+    v->plen[pp] = hypot(ps->x[pp + 1] - ps->x[pp], ps->y[pp + 1] - ps->y[pp]);
+    for (size_t i = 0; i < n; i++) {
+      W[i + pp * m] = -panel_source_psi(ps->x[pp], ps->y[pp], ps->x[pp + 1], ps->y[pp + 1],
+                                        ps->x[i], ps->y[i], 0);
+    }
+    if (ps->sharp) W[(n - 1) + pp * m] = 0.0; /* that row is the TE closure, not a psi equation */
+    W[n + pp * m] = 0.0;                       /* Kutta row */
+  }
+  if (panel_lu_solve(ps, W, n - 1) != 0) {
+    return core_fail(err, ASCR_ESING, "viscous solver: source influence solve failed (n = %zu)", m);
+  }
+  for (size_t i = 0; i < n; i++) {
+    for (size_t pp = 0; pp + 1 < n; pp++) v->E[i * np + pp] = W[i + pp * m];
+  }
+  v->is_set = 1;
+  return ASCR_OK;
+}
+
+/* Velocity of the inviscid flow at a point (free stream + sheet with gamma_inv). */
+static void inviscid_velocity(ascr_visc_solver *v, double px, double py, double *u, double *w)
+{
+  panel_velocity_coeffs(v->ps, px, py, v->cu, v->cv);
+  double uu = cos(v->alpha), vv = sin(v->alpha);
+  for (size_t j = 0; j < v->n; j++) {
+    uu += v->cu[j] * v->gam_inv[j];
+    vv += v->cv[j] * v->gam_inv[j];
+  }
+  *u = uu;
+  *w = vv;
+}
+
+/* Wake geometry and the alpha-dependent parts of E. */
+static ascr_status prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *err)
+{
+  const ascr_panel_solver *ps = v->ps;
+  const size_t n = v->n, nw = v->nw, np = v->np, m = n + 1, ns = n - 1;
+  v->alpha = alpha;
+  for (size_t i = 0; i < n; i++) v->gam_inv[i] = cos(alpha) * ps->g0[i] + sin(alpha) * ps->g90[i];
+  /* wake spacing: first step the mean trailing-edge panel length, geometric growth to the length */
+  double h0 = 0.5 * (v->plen[0] + v->plen[n - 2]);
+  double L = v->p.wake_length;
+  double qlo = 0.5, qhi = 3.0;
+  for (int it = 0; it < 100; it++) {
+    double q = 0.5 * (qlo + qhi), tot = 0.0, h = h0;
+    for (size_t k = 0; k + 1 < nw; k++) {
+      tot += h;
+      h *= q;
+    }
+    if (tot > L) qhi = q;
+    else qlo = q;
+  }
+  double q = 0.5 * (qlo + qhi);
+  /* trailing-edge bisector */
+  double ux = ps->x[0] - ps->x[1], uy = ps->y[0] - ps->y[1];
+  double lx = ps->x[n - 1] - ps->x[n - 2], ly = ps->y[n - 1] - ps->y[n - 2];
+  double bx = ux / hypot(ux, uy) + lx / hypot(lx, ly), by = uy / hypot(ux, uy) + ly / hypot(lx, ly);
+  double lb = hypot(bx, by);
+  bx /= lb;
+  by /= lb;
+  v->xw[0] = 0.5 * (ps->x[0] + ps->x[n - 1]);
+  v->yw[0] = 0.5 * (ps->y[0] + ps->y[n - 1]);
+  v->sw[0] = 0.0;
+  double h = h0, dxp = bx, dyp = by;
+  for (size_t k = 0; k + 1 < nw; k++) {
+    double mx = v->xw[k] + 0.5 * h * dxp, my = v->yw[k] + 0.5 * h * dyp;
+    double uu, vv;
+    inviscid_velocity(v, mx, my, &uu, &vv);
+    double sp = hypot(uu, vv);
+    if (!(sp > 1e-6)) {
+      return core_fail(err, ASCR_EGEOM, "viscous solver: the wake meets a stagnation point at "
+                       "(%.4f, %.4f)", mx, my);
+    }
+    double dx = uu / sp, dy = vv / sp;
+    if (k == 0) {
+      /* leave the trailing edge along the mean of the bisector and the flow direction */
+      dx = 0.5 * (dx + bx);
+      dy = 0.5 * (dy + by);
+      double l2 = hypot(dx, dy);
+      dx /= l2;
+      dy /= l2;
+    }
+    v->xw[k + 1] = v->xw[k] + h * dx;
+    v->yw[k + 1] = v->yw[k] + h * dy;
+    v->sw[k + 1] = v->sw[k] + h;
+    dxp = dx;
+    dyp = dy;
+    h *= q;
+  }
+  for (size_t k = 0; k + 1 < nw; k++) v->plen[ns + k] = hypot(v->xw[k + 1] - v->xw[k], v->yw[k + 1] - v->yw[k]);
+  /* wake source panels on the surface: -A^-1 B_wake */
+  double *W = v->work;
+  for (size_t k = 0; k + 1 < nw; k++) {
+    for (size_t i = 0; i < n; i++) {
+      W[i + k * m] = -panel_source_psi(v->xw[k], v->yw[k], v->xw[k + 1], v->yw[k + 1], ps->x[i],
+                                       ps->y[i], 1);
+    }
+    if (ps->sharp) W[(n - 1) + k * m] = 0.0;
+    W[n + k * m] = 0.0;
+  }
+  if (panel_lu_solve(ps, W, nw - 1) != 0) {
+    return core_fail(err, ASCR_ESING, "viscous solver: wake source influence solve failed");
+  }
+  for (size_t i = 0; i < n; i++) {
+    for (size_t k = 0; k + 1 < nw; k++) v->E[i * np + ns + k] = W[i + k * m];
+  }
+  /* tangential speed at the wake panel midpoints */
+  for (size_t k = 0; k + 1 < nw; k++) {
+    double tx = (v->xw[k + 1] - v->xw[k]) / v->plen[ns + k], ty = (v->yw[k + 1] - v->yw[k]) / v->plen[ns + k];
+    double mx = 0.5 * (v->xw[k] + v->xw[k + 1]), my = 0.5 * (v->yw[k] + v->yw[k + 1]);
+    panel_velocity_coeffs(ps, mx, my, v->cu, v->cv);
+    double qi = cos(alpha) * tx + sin(alpha) * ty;
+    for (size_t j = 0; j < n; j++) {
+      v->qmid_g[k * n + j] = v->cu[j] * tx + v->cv[j] * ty;
+      qi += v->qmid_g[k * n + j] * v->gam_inv[j];
+    }
+    v->qmid_inv[k] = qi;
+    for (size_t pp = 0; pp < np; pp++) {
+      double ax, ay, bx2, by2, su, sv;
+      if (pp < ns) {
+        ax = ps->x[pp]; ay = ps->y[pp]; bx2 = ps->x[pp + 1]; by2 = ps->y[pp + 1];
+      } else {
+        size_t kk = pp - ns;
+        ax = v->xw[kk]; ay = v->yw[kk]; bx2 = v->xw[kk + 1]; by2 = v->yw[kk + 1];
+      }
+      panel_source_velocity(ax, ay, bx2, by2, mx, my, &su, &sv);
+      double qq = su * tx + sv * ty;
+      for (size_t j = 0; j < n; j++) qq += v->qmid_g[k * n + j] * v->E[j * np + pp];
+      v->qmid[k * np + pp] = qq;
+    }
+  }
+  /* wake node rows of E and inviscid speeds */
+  for (size_t k = 0; k < nw; k++) {
+    double *row = v->E + (n + k) * np;
+    if (k == 0) {
+      for (size_t pp = 0; pp < np; pp++) row[pp] = 0.5 * (v->E[pp] - v->E[(n - 1) * np + pp]);
+      v->qw_inv[0] = 0.5 * (v->gam_inv[0] - v->gam_inv[n - 1]);
+    } else if (k + 1 < nw) {
+      for (size_t pp = 0; pp < np; pp++) row[pp] = 0.5 * (v->qmid[(k - 1) * np + pp] + v->qmid[k * np + pp]);
+      v->qw_inv[k] = 0.5 * (v->qmid_inv[k - 1] + v->qmid_inv[k]);
+    } else {
+      for (size_t pp = 0; pp < np; pp++) row[pp] = v->qmid[(k - 1) * np + pp];
+      v->qw_inv[k] = v->qmid_inv[k - 1];
+    }
+  }
+  return ASCR_OK;
+}
+
+/* Current surface gamma at node i from the inviscid part and the sources of the current m. */
+static double node_gamma(const ascr_visc_solver *v, size_t i)
+{
+  double g = v->gam_inv[i];
+  const double *row = v->E + i * v->np;
+  for (size_t pp = 0; pp < v->np; pp++) {
+    g += row[pp] * (v->ga[pp] * v->mm[v->pa[pp]] + v->gb[pp] * v->mm[v->pb[pp]]);
+  }
+  return g;
+}
+
+/* Station layout for stagnation between nodes is and is+1; builds G, D and ue_inv. */
+static void restage(ascr_visc_solver *v, size_t is, double s_stag)
+{
+  const size_t n = v->n, nw = v->nw, np = v->np, ns = n - 1, nst = v->nst;
+  v->is = is;
+  v->s_stag = s_stag;
+  v->nu = is + 1;
+  v->nl = n - 1 - is;
+  v->dsp = v->snode[is + 1] - v->snode[is];
+  size_t k = 0;
+  for (size_t i = is + 1; i-- > 0;) {
+    v->node[k] = i; v->side[k] = 0; v->sgn[k] = 1.0;
+    v->xi[k] = s_stag - v->snode[i];
+    v->dfirst[k] = v->snode[is] - v->snode[i];
+    k++;
+  }
+  for (size_t i = is + 1; i < n; i++) {
+    v->node[k] = i; v->side[k] = 1; v->sgn[k] = -1.0;
+    v->xi[k] = v->snode[i] - s_stag;
+    v->dfirst[k] = v->snode[i] - v->snode[is + 1];
+    k++;
+  }
+  for (size_t j = 0; j < nw; j++) {
+    v->node[k] = j; v->side[k] = 2; v->sgn[k] = 1.0;
+    v->xi[k] = v->sw[j];
+    v->dfirst[k] = 0.0;
+    k++;
+  }
+  /* station of node i */
+#define ST_OF(i) ((i) <= is ? is - (i) : v->nu + ((i) - is - 1))
+  for (size_t pp = 0; pp < ns; pp++) {
+    double L = v->plen[pp];
+    size_t a = ST_OF(pp), b = ST_OF(pp + 1);
+    v->pa[pp] = a;
+    v->pb[pp] = b;
+    if (pp + 1 <= is) { /* upper: flow from node pp+1 to node pp */
+      v->ga[pp] = 1.0 / L;
+      v->gb[pp] = -1.0 / L;
+    } else if (pp >= is + 1) { /* lower: flow from pp to pp+1 */
+      v->ga[pp] = -1.0 / L;
+      v->gb[pp] = 1.0 / L;
+    } else { /* the panel holding the stagnation point: both layers start in it */
+      v->ga[pp] = 1.0 / L;
+      v->gb[pp] = 1.0 / L;
+    }
+  }
+#undef ST_OF
+  size_t w0 = v->nu + v->nl;
+  for (size_t j = 0; j + 1 < nw; j++) {
+    double L = v->plen[ns + j];
+    v->pa[ns + j] = w0 + j;
+    v->pb[ns + j] = w0 + j + 1;
+    v->ga[ns + j] = -1.0 / L;
+    v->gb[ns + j] = 1.0 / L;
+  }
+  memset(v->D, 0, nst * nst * sizeof *v->D);
+  for (size_t r = 0; r < nst; r++) {
+    size_t row_node = v->side[r] == 2 ? n + v->node[r] : v->node[r];
+    const double *er = v->E + row_node * np;
+    double *dr = v->D + r * nst;
+    for (size_t pp = 0; pp < np; pp++) {
+      dr[v->pa[pp]] += v->sgn[r] * er[pp] * v->ga[pp];
+      dr[v->pb[pp]] += v->sgn[r] * er[pp] * v->gb[pp];
+    }
+    v->ue_inv[r] = v->side[r] == 2 ? v->qw_inv[v->node[r]] : v->sgn[r] * v->gam_inv[v->node[r]];
+  }
+}
+
+/* Stagnation point from nodal gamma: the last node of the first positive-to-negative change
+ * counting from the leading-edge node region. */
+static int find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *is, double *s_stag)
+{
+  const size_t n = v->n;
+  /* start from the node of smallest |gamma| change near the nose: scan all sign changes and
+   * take the one nearest the leading-edge node */
+  const ascr_panel_solver *ps = v->ps;
+  size_t best = n;
+  double bestd = INFINITY;
+  for (size_t i = 0; i + 1 < n; i++) {
+    if (gam[i] > 0.0 && gam[i + 1] <= 0.0) {
+      double d = fmin(ps->x[i], ps->x[i + 1]);
+      if (d < bestd) {
+        bestd = d;
+        best = i;
+      }
+    }
+  }
+  if (best >= n || best < 1 || best + 2 >= n) return -1;
+  *is = best;
+  double f = gam[best] / (gam[best] - gam[best + 1]);
+  *s_stag = v->snode[best] + f * (v->snode[best + 1] - v->snode[best]);
+  return 0;
+}
+
+static void update_ue(ascr_visc_solver *v)
+{
+  const size_t nst = v->nst;
+  for (size_t r = 0; r < nst; r++) {
+    double u = v->ue_inv[r];
+    const double *dr = v->D + r * nst;
+    for (size_t k = 0; k < nst; k++) u += dr[k] * v->mm[k];
+    v->ue[r] = u;
+  }
+}
+
+/* Stagnation point between the first stations of the two sides, where the edge velocity,
+ * linear along the stagnation panel, vanishes: offsets of the two sides' first stations. */
+static void stag_offsets(const ascr_visc_solver *v, double ueu, double uel, double *xu, double *xl)
+{
+  ueu = fmax(ueu, 1e-7);
+  uel = fmax(uel, 1e-7);
+  *xu = v->dsp * ueu / (ueu + uel);
+  *xl = v->dsp * uel / (ueu + uel);
+}
+
+/* Surface xi from the current first-station edge velocities. */
+static void set_xi(ascr_visc_solver *v)
+{
+  double xu, xl;
+  stag_offsets(v, v->ue[0], v->ue[v->nu], &xu, &xl);
+  for (size_t k = 0; k < v->nu; k++) v->xi[k] = xu + v->dfirst[k];
+  for (size_t k = v->nu; k < v->nu + v->nl; k++) v->xi[k] = xl + v->dfirst[k];
+  v->s_stag = v->snode[v->is] + xu;
+}
+
+static vstate get_state(const ascr_visc_solver *v, size_t k)
+{
+  vstate s;
+  s.th = v->th[k];
+  s.m = v->mm[k];
+  s.c = v->cc[k];
+  s.ue = v->ue[k];
+  s.xi = v->xi[k];
+  s.turb = v->turb[k];
+  s.first = (k == 0 || k == v->nu);
+  return s;
+}
+
+/* Residual kind of station k and its partner stations. */
+static int station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *b, size_t *w)
+{
+  size_t w0 = v->nu + v->nl;
+  *w = k;
+  *b = k;
+  if (k == 0 || k == v->nu) {
+    *a = k;
+    return VR_STAG;
+  }
+  if (k == w0) {
+    *a = v->nu - 1;
+    *b = w0 - 1;
+    return VR_MERGE;
+  }
+  *a = k - 1;
+  if (k > w0) return VR_WAKE;
+  if (!v->turb[k]) return VR_LAM;
+  return v->turb[k - 1] ? VR_TURB : VR_TRANS;
+}
+
+static vctx context(const ascr_visc_solver *v, int side)
+{
+  vctx c;
+  c.re = v->p.re;
+  c.mach = v->p.mach;
+  c.ncrit = v->p.ncrit;
+  c.xi_trip = -1.0;
+  c.stag_a = (fmax(v->ue[0], 0.0) + fmax(v->ue[v->nu], 0.0)) / v->dsp;
+  if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
+  c.xi_min = 0.25 * v->dsp;
+  double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
+  if (side < 2 && xt >= 0.0 && xt <= 1.0) {
+    /* xi of the trip: first node on this side at or behind x = xt */
+    const ascr_panel_solver *ps = v->ps;
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      double xa = ps->x[v->node[k - 1]], xb = ps->x[v->node[k]];
+      if (xa <= xt && xb >= xt && xb > xa) {
+        c.xi_trip = v->xi[k - 1] + (xt - xa) / (xb - xa) * (v->xi[k] - v->xi[k - 1]);
+        break;
+      }
+    }
+  }
+  return c;
+}
+
+/* Sum of squared residuals of all stations at the current state (R and J untouched). */
+static double residual_norm2(ascr_visc_solver *v, const vctx cxs[3])
+{
+  double sum = 0.0;
+  for (size_t k = 0; k < v->nst; k++) {
+    const vctx *cx = &cxs[v->side[k]];
+    size_t a, b, w;
+    int kind = station_kind(v, k, &a, &b, &w);
+    vstate sa = get_state(v, a), sb = get_state(v, b), sw = get_state(v, w);
+    double R[3];
+    if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
+    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
+    else visc_residual(kind, cx, &sa, &sb, NULL, R, NULL);
+    for (int e = 0; e < 3; e++) sum += isfinite(R[e]) ? R[e] * R[e] : 1e300;
+  }
+  return sum;
+}
+
+/* Build R and J. Returns the largest |R|. */
+static double assemble(ascr_visc_solver *v, const vctx cxs[3])
+{
+  const size_t nst = v->nst, N = 3 * nst;
+  memset(v->J, 0, N * N * sizeof *v->J);
+  double rmax = 0.0;
+  for (size_t k = 0; k < nst; k++) {
+    const vctx *cx = &cxs[v->side[k]];
+    size_t a, b, w;
+    int kind = station_kind(v, k, &a, &b, &w);
+    size_t st[3] = {a, b, w};
+    int nsts = kind == VR_MERGE ? 3 : (kind == VR_STAG ? 1 : 2);
+    if (kind == VR_STAG) st[0] = k;
+    vstate s[3];
+    for (int q = 0; q < nsts; q++) s[q] = get_state(v, st[q]);
+    double R0[3], ftr = 1.0;
+    if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, &ftr);
+    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
+    else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, &ftr);
+    if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr;
+    for (int e = 0; e < 3; e++) {
+      v->R[3 * k + e] = R0[e];
+      rmax = fmax(rmax, fabs(R0[e]));
+    }
+    /* derivative with respect to the stagnation offset of this side (surface stations): the
+     * offsets depend on the two first-station edge velocities, which depend on all m */
+    if (v->side[k] < 2 && kind != VR_MERGE) {
+      vstate sp[3];
+      for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+      double h = 1e-7 * fmax(v->xi[v->side[k] == 0 ? 0 : v->nu], 1e-9);
+      for (int qq = 0; qq < nsts; qq++) sp[qq].xi += h;
+      double R1[3];
+      if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
+      else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+      double ueu = fmax(v->ue[0], 1e-7), uel = fmax(v->ue[v->nu], 1e-7), sum = ueu + uel;
+      /* d xoff / d ue_u0 and d ue_l0 for this side */
+      double du, dl;
+      if (v->side[k] == 0) {
+        du = v->dsp * uel / (sum * sum);
+        dl = -v->dsp * ueu / (sum * sum);
+      } else {
+        du = -v->dsp * uel / (sum * sum);
+        dl = v->dsp * ueu / (sum * sum);
+      }
+      const double *du_row = v->D + 0 * nst, *dl_row = v->D + v->nu * nst;
+      for (int e = 0; e < 3; e++) {
+        double d = (R1[e] - R0[e]) / h;
+        if (d == 0.0) continue;
+        double *jr = v->J + (3 * k + e);
+        for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * (du * du_row[kk] + dl * dl_row[kk]);
+      }
+    }
+    /* derivative with respect to the stagnation-flow gradient a = (ue_u0 + ue_l0)/dsp */
+    if (v->side[k] < 2 && kind != VR_MERGE) {
+      vctx cp2 = *cx;
+      double h = 1e-7 * cx->stag_a;
+      cp2.stag_a += h;
+      double R1[3];
+      if (kind == VR_STAG) visc_residual(kind, &cp2, NULL, &s[0], NULL, R1, NULL);
+      else visc_residual(kind, &cp2, &s[0], &s[1], NULL, R1, NULL);
+      const double *du_row = v->D + 0 * nst, *dl_row = v->D + v->nu * nst;
+      for (int e = 0; e < 3; e++) {
+        double d = (R1[e] - R0[e]) / h / v->dsp;
+        if (d == 0.0) continue;
+        double *jr = v->J + (3 * k + e);
+        for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * (du_row[kk] + dl_row[kk]);
+      }
+    }
+    /* derivatives with respect to theta, m, c, ue of each involved station */
+    for (int q = 0; q < nsts; q++) {
+      for (int var = 0; var < 4; var++) {
+        vstate sp[3];
+        for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+        double *x = var == 0 ? &sp[q].th : var == 1 ? &sp[q].m : var == 2 ? &sp[q].c : &sp[q].ue;
+        double h = FD_STEP * (fabs(*x) > 1e-3 ? fabs(*x) : 1e-3);
+        if (var == 0 || var == 1) h = FD_STEP * fabs(*x) + 1e-14;
+        *x += h;
+        double R1[3];
+        if (kind == VR_MERGE) visc_residual(kind, cx, &sp[0], &sp[1], &sp[2], R1, NULL);
+        else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
+        else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+        for (int e = 0; e < 3; e++) {
+          double d = (R1[e] - R0[e]) / h;
+          if (d == 0.0) continue;
+          double *jr = v->J + (3 * k + e); /* column-major: J[row + col*N] */
+          if (var < 3) {
+            jr[(3 * st[q] + (size_t)var) * N] += d;
+          } else {
+            const double *dr = v->D + st[q] * nst;
+            for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * dr[kk];
+          }
+        }
+      }
+    }
+  }
+  return rmax;
+}
+
+/* Re-locate transition per side from the current state. Returns 1 if a flag changed.
+ * Hysteresis of TR_HYST in N: within it the transition interval keeps its place and the
+ * crossing point moves inside it (clamped to its ends), which stops the interval from
+ * hopping back and forth between iterations. */
+#define TR_HYST 0.3
+static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
+{
+  int changed = 0;
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    const vctx *cx = &cxs[side];
+    /* first turbulent station */
+    size_t kt = k1;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      if (v->turb[k]) {
+        kt = k;
+        break;
+      }
+    }
+    /* upstream move: a laminar station already past N_crit, or past the trip */
+    for (size_t k = k0 + 1; k < kt; k++) {
+      int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip && v->xi[k - 1] < cx->xi_trip;
+      if (v->cc[k] >= cx->ncrit + TR_HYST || trip) {
+        for (size_t j = k; j < k1; j++) {
+          if (!v->turb[j]) {
+            v->turb[j] = 1;
+            v->cc[j] = 0.07;
+          }
+        }
+        changed = 1;
+        kt = k;
+        break;
+      }
+    }
+    /* downstream move: the laminar N extrapolated to the first turbulent station stays below */
+    if (!changed && kt < k1 && kt > k0 + 1) {
+      vstate a = get_state(v, kt - 1);
+      double rate = bl_amplification_rate(bl_hk(a.m / (a.ue * a.th), cx->mach * a.ue), a.th,
+                                          cx->re * a.ue * a.th);
+      double nb = a.c + rate * (v->xi[kt] - a.xi); /* as in the transition residual */
+      vstate b = get_state(v, kt);
+      int trip_here = cx->xi_trip >= 0.0 && cx->xi_trip > a.xi && cx->xi_trip <= b.xi;
+      if (nb < cx->ncrit - TR_HYST && !trip_here) {
+        v->turb[kt] = 0;
+        v->cc[kt] = nb;
+        changed = 1;
+      }
+    }
+    v->itr[side] = kt;
+  }
+  return changed;
+}
+
+/* Cold start: direct march of each surface on the inviscid edge velocity. */
+static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errbuf *err)
+{
+  (void)err;
+  const size_t nst = v->nst;
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
+    double *s = core_calloc(cnt, sizeof *s), *ue = core_calloc(cnt, sizeof *ue);
+    ascr_bl_station *out = core_calloc(cnt, sizeof *out);
+    if (!s || !ue || !out) {
+      free(s); free(ue); free(out);
+      return core_fail(err, ASCR_ENOMEM, "viscous solver: out of memory");
+    }
+    for (size_t j = 0; j < cnt; j++) {
+      s[j] = v->xi[k0 + j];
+      ue[j] = fmax(v->ue_inv[k0 + j], 1e-3);
+    }
+    ascr_bl_params bp = ascr_bl_params_defaults();
+    bp.re = v->p.re;
+    bp.mach = v->p.mach;
+    bp.ncrit = v->p.ncrit;
+    bp.s_trip = cxs[side].xi_trip;
+    ascr_bl_result br;
+    ascr_errbuf merr;
+    ascr_status st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
+    if (st && getenv("VDBG")) fprintf(stderr, "%s\n", merr.msg);
+    if (st == ASCR_OK && br.n_done < cnt && br.n_done > 0 && !out[br.n_done - 1].turbulent) {
+      /* laminar separation: restart with transition forced there (a bubble closes turbulent) */
+      bp.s_trip = br.s_separation;
+      st = ascr_bl_march(s, ue, cnt, &bp, out, &br, NULL);
+    }
+    size_t done = (st == ASCR_OK) ? br.n_done : 0;
+    if (getenv("VDBG")) fprintf(stderr, "march side %d: status %d done %zu of %zu sep %g tr %g\n", side, st, br.n_done, cnt, br.s_separation, br.s_transition);
+    for (size_t j = 0; j < cnt; j++) {
+      size_t k = k0 + j;
+      if (j < done) {
+        v->th[k] = out[j].theta;
+        v->mm[k] = out[j].dstar * ue[j];
+        v->turb[k] = out[j].turbulent;
+        v->cc[k] = out[j].turbulent ? sqrt(out[j].ctau) : out[j].n;
+      } else if (j > 0) {
+        /* beyond a separation the march cannot go: grow theta, keep a separated shape */
+        v->th[k] = v->th[k - 1] * (1.0 + 0.5 * (s[j] - s[j - 1]) / fmax(s[j - 1], 1e-3));
+        v->turb[k] = 1;
+        v->cc[k] = 0.12;
+        v->mm[k] = 2.2 * v->th[k] * ue[j];
+      } else {
+        v->th[k] = sqrt(0.08 * s[0] / (v->p.re * ue[0]));
+        v->mm[k] = 2.24 * v->th[k] * ue[0];
+        v->turb[k] = 0;
+        v->cc[k] = 0.0;
+      }
+    }
+    free(s); free(ue); free(out);
+  }
+  size_t w0 = v->nu + v->nl, ku = v->nu - 1, kl = w0 - 1;
+  double thw = v->th[ku] + v->th[kl];
+  double dw = v->mm[ku] / fmax(v->ue_inv[ku], 1e-3) + v->mm[kl] / fmax(v->ue_inv[kl], 1e-3);
+  for (size_t j = 0; j < v->nw; j++) {
+    size_t k = w0 + j;
+    double hw = 1.05 + (dw / thw - 1.05) * exp(-v->xi[k] / 0.1);
+    v->th[k] = thw;
+    v->mm[k] = hw * thw * fmax(v->ue_inv[k], 0.5);
+    v->turb[k] = 1;
+    v->cc[k] = 0.05;
+  }
+  (void)nst;
+  return ASCR_OK;
+}
+
+/* Set the unknowns to saved + rlx * dx, with the positivity floors. */
+static void set_trial(ascr_visc_solver *v, const double *saved, double rlx)
+{
+  const size_t nst = v->nst;
+  for (size_t k = 0; k < nst; k++) {
+    v->th[k] = saved[3 * k] + rlx * v->dx[3 * k];
+    v->mm[k] = saved[3 * k + 1] + rlx * v->dx[3 * k + 1];
+    v->cc[k] = saved[3 * k + 2] + rlx * v->dx[3 * k + 2];
+    if (v->th[k] < 1e-10) v->th[k] = 1e-10;
+    if (v->mm[k] < 1e-12) v->mm[k] = 1e-12;
+    if (v->turb[k]) {
+      if (v->cc[k] < 1e-4) v->cc[k] = 1e-4;
+      if (v->cc[k] > 0.5) v->cc[k] = 0.5;
+    } else if (v->cc[k] < 0.0) {
+      v->cc[k] = 0.0;
+    }
+  }
+}
+
+/* Relaxed Newton update. Returns the largest relative change applied (before relaxation). */
+static double apply_update(ascr_visc_solver *v, double *rlx_out)
+{
+  const size_t nst = v->nst;
+  double rlx = 1.0, dmax = 0.0;
+  for (size_t k = 0; k < nst; k++) {
+    double dth = v->dx[3 * k] / v->th[k], dm = v->dx[3 * k + 1] / fmax(v->mm[k], 1e-12);
+    double dc = v->dx[3 * k + 2];
+    dmax = fmax(dmax, fmax(fabs(dth), fabs(dm)));
+    if (fabs(dth) * rlx > 0.5) rlx = 0.5 / fabs(dth);
+    if (fabs(dm) * rlx > 0.5) rlx = 0.5 / fabs(dm);
+    if (!v->turb[k]) {
+      if (fabs(dc) * rlx > 2.0) rlx = 2.0 / fabs(dc);
+    } else {
+      double lim = 0.5 * fmax(v->cc[k], 0.01);
+      if (fabs(dc) * rlx > lim) rlx = lim / fabs(dc);
+    }
+  }
+  if (getenv("VDBG")) {
+    size_t kw = 0; double w = 0;
+    for (size_t k = 0; k < nst; k++) { double a = fmax(fabs(v->dx[3*k]/v->th[k]), fabs(v->dx[3*k+1]/fmax(v->mm[k],1e-12))); if (a > w) { w = a; kw = k; } }
+    fprintf(stderr, "   worst station %zu side %d node %zu dth/th %.2e dm/m %.2e dc %.2e th %.2e m %.2e ue %.3e turb %d\n", kw, v->side[kw], v->node[kw], v->dx[3*kw]/v->th[kw], v->dx[3*kw+1]/v->mm[kw], v->dx[3*kw+2], v->th[kw], v->mm[kw], v->ue[kw], v->turb[kw]);
+  }
+  *rlx_out = rlx;
+  return dmax;
+}
+
+/* Keep H above its floor with the current ue (the closures are not defined below it). */
+static void clamp_shape(ascr_visc_solver *v)
+{
+  for (size_t k = 0; k < v->nst; k++) {
+    double hmin = v->side[k] == 2 ? 1.0001 : 1.05;
+    double ue = fmax(v->ue[k], 1e-6);
+    if (v->mm[k] < hmin * ue * v->th[k]) v->mm[k] = hmin * ue * v->th[k];
+  }
+}
+
+/* Move the stagnation point if the current surface gamma says so; states are carried by node. */
+static int relocate_stagnation(ascr_visc_solver *v)
+{
+  const size_t n = v->n;
+  double *g = v->cp; /* scratch */
+  for (size_t i = 0; i < n; i++) g[i] = node_gamma(v, i);
+  size_t is;
+  double ss;
+  if (find_stagnation(v, g, &is, &ss) != 0) return -1;
+  if (is == v->is) {
+    set_xi(v);
+    return 0;
+  }
+  /* carry the state by node: save, restage, restore */
+  size_t nst = v->nst;
+  double *th = v->J, *mm = v->J + nst, *cc = v->J + 2 * nst; /* J is rebuilt anyway */
+  int *tb = v->ipiv;
+  double *nth = v->J + 3 * nst, *nmm = v->J + 4 * nst, *ncc = v->J + 5 * nst;
+  int *ntb = v->ipiv + nst;
+  for (size_t k = 0; k < nst; k++) {
+    th[k] = v->th[k]; mm[k] = v->mm[k]; cc[k] = v->cc[k]; tb[k] = v->turb[k];
+  }
+  size_t old_is = v->is, old_nu = v->nu;
+  /* node -> old station */
+  for (size_t i = 0; i < n; i++) {
+    size_t ko = i <= old_is ? old_is - i : old_nu + (i - old_is - 1);
+    nth[i] = th[ko]; nmm[i] = mm[ko]; ncc[i] = cc[ko]; ntb[i] = tb[ko];
+  }
+  double *wth = v->J + 6 * nst; /* wake part unchanged */
+  size_t w0o = old_nu + (n - 1 - old_is);
+  for (size_t j = 0; j < v->nw; j++) {
+    wth[3 * j] = th[w0o + j]; wth[3 * j + 1] = mm[w0o + j]; wth[3 * j + 2] = cc[w0o + j];
+  }
+  restage(v, is, ss);
+  update_ue(v);
+  for (size_t k = 0; k < v->nu + v->nl; k++) {
+    size_t i = v->node[k];
+    v->th[k] = nth[i]; v->mm[k] = nmm[i]; v->cc[k] = ncc[i]; v->turb[k] = ntb[i];
+  }
+  /* the first station of each side is laminar at the stagnation point */
+  v->turb[0] = 0; v->cc[0] = 0.0;
+  v->turb[v->nu] = 0; v->cc[v->nu] = 0.0;
+  size_t w0 = v->nu + v->nl;
+  for (size_t j = 0; j < v->nw; j++) {
+    v->th[w0 + j] = wth[3 * j]; v->mm[w0 + j] = wth[3 * j + 1]; v->cc[w0 + j] = wth[3 * j + 2];
+    v->turb[w0 + j] = 1;
+  }
+  update_ue(v);
+  set_xi(v);
+  return 1;
+}
+
+/* x/c at fraction f of the interval ending at station k (side stations). */
+static double station_x(const ascr_visc_solver *v, size_t k, double f)
+{
+  const ascr_panel_solver *ps = v->ps;
+  double xb = ps->x[v->node[k]];
+  double xa = ps->x[v->node[k - 1]];
+  return xa + f * (xb - xa);
+}
+
+static void results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
+{
+  const size_t n = v->n;
+  const ascr_panel_solver *ps = v->ps;
+  /* surface pressure from the viscous edge velocity */
+  for (size_t k = 0; k < v->nu + v->nl; k++) {
+    double ue = v->ue[k];
+    double cp0 = 1.0 - ue * ue;
+    double cp = v->p.mach > 0.0 ? ascr_panel_karman_tsien(cp0, v->p.mach) : cp0;
+    v->cp[v->node[k]] = isfinite(cp) ? cp : cp0;
+  }
+  double cl, cm, cdp_int;
+  panel_integrate_cp(ps, v->cp, v->alpha, &cl, &cm, &cdp_int);
+  (void)cdp_int;
+  r->alpha_rad = v->alpha;
+  r->cl = cl;
+  r->cm = cm;
+  size_t ke = v->nst - 1;
+  double he = v->mm[ke] / (v->ue[ke] * v->th[ke]);
+  r->cd = 2.0 * v->th[ke] * pow(fmax(v->ue[ke], 1e-6), 0.5 * (he + 5.0));
+  /* skin friction drag */
+  double cdf = 0.0, ca = cos(v->alpha), sa = sin(v->alpha);
+  r->x_transition_upper = r->x_transition_lower = NAN;
+  r->x_separation_upper = r->x_separation_lower = NAN;
+  r->x_reattach_upper = r->x_reattach_lower = NAN;
+  r->forced_upper = 0;
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    double cfprev = 0.0, xprev = 0.0;
+    double xsep = NAN, xre = NAN;
+    for (size_t k = k0; k < k1; k++) {
+      vstate s = get_state(v, k);
+      vctx cx = cxs[side];
+      double h = s.m / (fmax(s.ue, 1e-6) * s.th), rth = cx.re * fmax(s.ue, 1e-6) * s.th;
+      bl_closure c;
+      if (s.turb) bl_closure_turbulent(h, rth, cx.mach * s.ue, s.c * s.c, 0, &c);
+      else bl_closure_laminar(h, rth, cx.mach * s.ue, &c);
+      double x = ps->x[v->node[k]];
+      if (k > k0) {
+        size_t ia = v->node[k - 1], ib = v->node[k];
+        double dx = ps->x[ib] - ps->x[ia], dy = ps->y[ib] - ps->y[ia];
+        double ta = cfprev * v->ue[k - 1] * v->ue[k - 1], tb = c.cf * s.ue * s.ue;
+        cdf += 0.5 * (ta + tb) * (dx * ca + dy * sa);
+        if (cfprev > 0.0 && c.cf <= 0.0 && isnan(xsep)) {
+          xsep = xprev + cfprev / (cfprev - c.cf) * (x - xprev);
+        } else if (cfprev <= 0.0 && c.cf > 0.0 && !isnan(xsep) && isnan(xre)) {
+          xre = xprev + cfprev / (cfprev - c.cf) * (x - xprev);
+        }
+      }
+      cfprev = c.cf;
+      xprev = x;
+    }
+    double xtr = NAN;
+    size_t kt = v->itr[side];
+    if (kt < k1 && kt > k0) xtr = station_x(v, kt, v->f_tr[side]);
+    int forced = 0;
+    if (!isnan(xtr) && cxs[side].xi_trip >= 0.0) {
+      double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
+      forced = fabs(xtr - xt) < 1e-9 + 1e-6;
+    }
+    if (side == 0) {
+      r->x_transition_upper = xtr;
+      r->forced_upper = forced;
+      r->x_separation_upper = xsep;
+      r->x_reattach_upper = xre;
+    } else {
+      r->x_transition_lower = xtr;
+      r->x_separation_lower = xsep;
+      r->x_reattach_lower = xre;
+    }
+  }
+  r->cdf = cdf;
+  r->cdp = r->cd - cdf;
+  (void)n;
+}
+
+ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int warm,
+                                   ascr_visc_result *r, ascr_errbuf *err)
+{
+  if (v == NULL || r == NULL) return core_fail(err, ASCR_EINVAL, "viscous solve: NULL argument");
+  if (!v->is_set) return core_fail(err, ASCR_EINVAL, "viscous solve: solver not set");
+  if (!isfinite(alpha_rad) || fabs(alpha_rad) > 1.2) {
+    return core_fail(err, ASCR_EINVAL, "viscous solve: alpha %g rad outside +-1.2", alpha_rad);
+  }
+  memset(r, 0, sizeof *r);
+  ascr_status st = prepare_alpha(v, alpha_rad, err);
+  if (st != ASCR_OK) return st;
+  size_t is;
+  double ss;
+  int use_warm = warm && v->have_solution;
+  if (use_warm) {
+    /* keep the previous state by station; restage at the previous stagnation point, then let
+     * relocate_stagnation move it with the new inviscid part */
+    restage(v, v->is, v->s_stag);
+    update_ue(v);
+    relocate_stagnation(v);
+  } else {
+    if (find_stagnation(v, v->gam_inv, &is, &ss) != 0) {
+      return core_fail(err, ASCR_EGEOM, "viscous solve: no stagnation point found at alpha %.2f deg",
+                       alpha_rad * 180.0 / ASCR_PI);
+    }
+    restage(v, is, ss);
+    vctx cx0[3] = {context(v, 0), context(v, 1), context(v, 2)};
+    st = initial_state(v, cx0, err);
+    if (st != ASCR_OK) return st;
+  }
+  const size_t nst = v->nst, N = 3 * nst;
+  v->f_tr[0] = v->f_tr[1] = 1.0;
+  int converged = 0, it;
+  double rel = INFINITY;
+  update_ue(v);
+  relocate_stagnation(v);
+  for (it = 1; it <= v->p.max_iter; it++) {
+    update_ue(v);
+    set_xi(v);
+    clamp_shape(v);
+    vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};
+    int tchange = update_transition(v, cxs);
+    double rmx = assemble(v, cxs);
+    if (getenv("VDBG") && (it <= 2 || getenv("VDBG")[0] == '2')) {
+      for (size_t k = 0; k < 3; k++) fprintf(stderr, "  st %zu node %zu xi %.5f ue_inv %.5f ue %.5f th %.3e m %.3e H %.3f c %.3f turb %d R %.2e %.2e %.2e\n", k, v->node[k], v->xi[k], v->ue_inv[k], v->ue[k], v->th[k], v->mm[k], v->mm[k]/(v->ue[k]*v->th[k]), v->cc[k], v->turb[k], v->R[3*k], v->R[3*k+1], v->R[3*k+2]);
+    }
+    if (getenv("VDBG")) {
+      size_t k1 = v->itr[0];
+      if (k1 < v->nu) fprintf(stderr, "   trans up: f %.6f Na %.4f Hа %.4f Hb %.4f ue_a %.4f ue_b %.4f c_b %.4f\n", v->f_tr[0], v->cc[k1-1], v->mm[k1-1]/(v->ue[k1-1]*v->th[k1-1]), v->mm[k1]/(v->ue[k1]*v->th[k1]), v->ue[k1-1], v->ue[k1], v->cc[k1]);
+      size_t km = 0; for (size_t i = 0; i < N; i++) if (fabs(v->R[i]) > fabs(v->R[km])) km = i;
+      fprintf(stderr, "it %d rmax %.3e at station %zu eq %zu (side %d node %zu xi %.4f) tchange %d is %zu nu %zu\n", it, rmx, km/3, km%3, v->side[km/3], v->node[km/3], v->xi[km/3], tchange, v->is, v->nu);
+    }
+    if (getenv("VJAC") && it == atoi(getenv("VJAC"))) {
+      /* compare Jacobian columns with full finite differences */
+      double *R0 = malloc(N * sizeof(double)), *col = malloc(N * sizeof(double));
+      memcpy(R0, v->R, N * sizeof(double));
+      size_t cols[] = {3*0+1, 3*1+0, 3*1+1, 3*30+0, 3*30+1, 3*30+2, 3*31+0, 3*31+1, 3*31+2, 3*32+1, 3*100+1, 3*200+1};
+      for (size_t ci = 0; ci < sizeof cols / sizeof cols[0]; ci++) {
+        size_t c = cols[ci]; if (c >= N) continue;
+        double *var = (c % 3 == 0) ? &v->th[c/3] : (c % 3 == 1) ? &v->mm[c/3] : &v->cc[c/3];
+        double save = *var, h = 1e-6 * fmax(fabs(save), 1e-8);
+        *var += h; update_ue(v); set_xi(v);
+        for (size_t k = 0; k < v->nst; k++) {
+          size_t a, b, w; int kind = station_kind(v, k, &a, &b, &w);
+          vstate sa = get_state(v, a), sb = get_state(v, b), sw = get_state(v, w); double R[3];
+          const vctx *cx = &cxs[v->side[k]];
+          if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
+          else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
+          else visc_residual(kind, cx, &sa, &sb, NULL, R, NULL);
+          for (int e = 0; e < 3; e++) col[3*k+e] = (R[e] - R0[3*k+e]) / h;
+        }
+        *var = save; update_ue(v); set_xi(v);
+        double worst = 0; size_t wr = 0;
+        for (size_t r = 0; r < N; r++) { double d = fabs(col[r] - v->J[r + c*N]); double sc = fmax(fabs(col[r]), 1.0) ; if (d/sc > worst) { worst = d/sc; wr = r; } }
+        fprintf(stderr, "  col %zu (st %zu var %zu): worst rel diff %.3e at row %zu (st %zu eq %zu): fd %.4e J %.4e\n", c, c/3, c%3, worst, wr, wr/3, wr%3, col[wr], v->J[wr + c*N]);
+      }
+      free(R0); free(col);
+    }
+    for (size_t i = 0; i < N; i++) v->dx[i] = -v->R[i];
+    lapack_int info = LAPACKE_dgesv(LAPACK_COL_MAJOR, (lapack_int)N, 1, v->J, (lapack_int)N,
+                                    (lapack_int *)v->ipiv, v->dx, (lapack_int)N);
+    if (info != 0) {
+      v->have_solution = 0;
+      return core_fail(err, ASCR_ESING, "viscous solve at alpha %.2f deg: Newton system singular "
+                       "(order %zu, iteration %d)", alpha_rad * 180.0 / ASCR_PI, N, it);
+    }
+    double rlx;
+    rel = apply_update(v, &rlx);
+    /* backtracking on the residual norm: halve the step while it does not decrease */
+    double *saved = v->R; /* R is no longer needed: keep the current unknowns there */
+    for (size_t k = 0; k < nst; k++) {
+      saved[3 * k] = v->th[k];
+      saved[3 * k + 1] = v->mm[k];
+      saved[3 * k + 2] = v->cc[k];
+    }
+    double f0 = residual_norm2(v, cxs);
+    for (int ls = 0; ls < 8; ls++) {
+      set_trial(v, saved, rlx);
+      update_ue(v);
+      set_xi(v);
+      double f1 = residual_norm2(v, cxs);
+      if (f1 < f0 * (1.0 - 1e-4 * rlx) || ls == 7) break;
+      rlx *= 0.5;
+    }
+    if (getenv("VDBG")) fprintf(stderr, "   rel %.3e rlx %.3e itr %zu %zu\n", rel, rlx, v->itr[0], v->itr[1]);
+    update_ue(v);
+    int smoved = relocate_stagnation(v);
+    if (smoved < 0) break;
+    if (rel < v->p.tol && rlx == 1.0 && !tchange && smoved == 0) {
+      converged = 1;
+      break;
+    }
+  }
+  update_ue(v);
+  vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};
+  results(v, cxs, r);
+  r->iterations = it > v->p.max_iter ? v->p.max_iter : it;
+  r->residual = rel;
+  r->converged = converged;
+  int finite = isfinite(r->cl) && isfinite(r->cd) && isfinite(r->cm);
+  if (!finite) r->converged = converged = 0;
+  v->have_solution = converged;
+  if (!converged) {
+    return core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged "
+                     "after %d iterations (largest relative update %.2e)",
+                     alpha_rad * 180.0 / ASCR_PI, v->p.re, r->iterations, rel);
+  }
+  return ASCR_OK;
+}
+
+void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *side, double *s, double *x,
+                                    double *y, double *ue, double *dstar, double *theta,
+                                    double *h, double *cf, double *ampl, int *turbulent)
+{
+  const ascr_panel_solver *ps = v->ps;
+  for (size_t k = 0; k < v->nst; k++) {
+    int sd = v->side[k];
+    double u = v->ue[k];
+    double hh = v->mm[k] / (fmax(u, 1e-6) * v->th[k]);
+    if (side) side[k] = sd;
+    if (s) s[k] = v->xi[k];
+    if (x) x[k] = sd == 2 ? v->xw[v->node[k]] : ps->x[v->node[k]];
+    if (y) y[k] = sd == 2 ? v->yw[v->node[k]] : ps->y[v->node[k]];
+    if (ue) ue[k] = u;
+    if (dstar) dstar[k] = v->mm[k] / fmax(u, 1e-6);
+    if (theta) theta[k] = v->th[k];
+    if (h) h[k] = hh;
+    if (cf) {
+      double rth = v->p.re * fmax(u, 1e-6) * v->th[k];
+      bl_closure c;
+      if (sd == 2) c.cf = 0.0;
+      else if (v->turb[k]) bl_closure_turbulent(hh, rth, v->p.mach * u, v->cc[k] * v->cc[k], 0, &c);
+      else bl_closure_laminar(hh, rth, v->p.mach * u, &c);
+      cf[k] = c.cf;
+    }
+    if (ampl) ampl[k] = v->cc[k];
+    if (turbulent) turbulent[k] = v->turb[k];
+  }
+}
+
+void ascr_visc_solver_cp(const ascr_visc_solver *v, double *cp)
+{
+  for (size_t i = 0; i < v->n; i++) cp[i] = v->cp[i];
+}

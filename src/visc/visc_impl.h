@@ -1,0 +1,94 @@
+/* src/visc/visc_impl.h
+ * Private definitions of the viscous stage: the solver object, the station bookkeeping and
+ * the residual functions of the coupled boundary-layer system.
+ *
+ * Notation. Stations k = 0..nst-1: the upper surface from the node next to the stagnation
+ * point to the trailing edge (nu stations), the lower surface likewise (nl), then the wake
+ * (nw, the first at the trailing edge). Per station three unknowns: theta (momentum
+ * thickness), m = ue * dstar (mass defect) and c = N (laminar) or sqrt(Ctau) (turbulent).
+ * Source panels p = 0..np-1: the n-1 surface panels, then the nw-1 wake panels.
+ * ue = ue_inv + D m, D = E G: E[node][p] is the edge-velocity change at a node per unit
+ * source on panel p, G maps mass defects to panel sources (sigma = dm/ds along the flow).
+ */
+#ifndef ASCR_VISC_IMPL_H
+#define ASCR_VISC_IMPL_H
+
+#include "airscrew/ascr_visc.h"
+#include "bl/bl_impl.h"
+#include "panel/panel_impl.h"
+
+/* Local state of one station as the residuals see it. */
+typedef struct vstate {
+  double th, m, c, ue; /* unknowns and edge velocity */
+  double xi;           /* arc length from the stagnation point (surfaces) or the TE (wake) */
+  int turb;            /* 1 turbulent, 0 laminar */
+  int first;           /* 1 for the first station of a surface (next to the stagnation point) */
+} vstate;
+
+/* Residual kinds. */
+enum { VR_STAG = 0, VR_LAM = 1, VR_TRANS = 2, VR_TURB = 3, VR_WAKE = 4, VR_MERGE = 5 };
+
+typedef struct vctx {
+  double re, mach, ncrit;
+  double xi_trip; /* forced transition xi on this side (negative for none) */
+  double stag_a;  /* edge-velocity gradient at the stagnation point, d ue / d xi */
+  double xi_min;  /* least distance of a first station from the stagnation point */
+} vctx;
+
+/* Residuals R[0..2] of one station (kinds above). For VR_MERGE, a = upper TE, b = lower TE,
+ * w = first wake station; otherwise a is the previous station and b the current one.
+ * For VR_TRANS, *f_tr receives the fraction of the interval at which transition occurs. */
+void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, const vstate *w,
+                   double *R, double *f_tr);
+
+/* Station with the stagnation similarity start: the Hiemenz shape parameter of the closure. */
+double visc_hiemenz_h(void);
+
+struct ascr_visc_solver {
+  size_t n, nw, np;          /* nodes, wake nodes, source panels */
+  size_t nst;                /* stations = n + nw */
+  const ascr_panel_solver *ps; /* borrowed */
+  ascr_visc_params p;
+  int is_set, have_solution;
+  double alpha;              /* angle of the prepared wake */
+  double *snode;             /* arc length at the nodes, n */
+  double *xw, *yw, *sw;      /* wake nodes and arc length from the TE, nw */
+  double *E;                 /* (n + nw) x np, row-major: d ue(node) / d sigma_p, surface rows
+                                give d gamma_i / d sigma_p */
+  double *gam_inv;           /* inviscid gamma at the nodes, n */
+  double *qw_inv;            /* inviscid tangential speed at the wake nodes, nw */
+  double *plen;              /* source panel lengths, np */
+  /* scratch for the preparation */
+  double *work;              /* (n+1) x max(n-1, nw-1) */
+  double *cu, *cv;           /* n */
+  double *qmid;              /* (nw-1) x np */
+  double *qmid_g;            /* (nw-1) x n */
+  double *qmid_inv;          /* nw-1 */
+  /* stations */
+  size_t is;                 /* stagnation between node is (upper) and is+1 (lower) */
+  double s_stag;
+  size_t nu, nl;
+  size_t *node;              /* node index (surface) or wake index (wake), nst */
+  int *side;                 /* 0 upper, 1 lower, 2 wake */
+  double *sgn;               /* +1 upper and wake, -1 lower */
+  double *xi;                /* nst: distance from the stagnation point (surfaces), from the TE (wake) */
+  double *dfirst;            /* nst: distance from the side's first node (surfaces) */
+  double dsp;                /* length of the panel holding the stagnation point */
+  double *D;                 /* nst x nst row-major */
+  double *ue_inv;            /* nst */
+  size_t *pa, *pb;           /* stations at the ends of each source panel, np */
+  double *ga, *gb;           /* sigma_p = ga m[pa] + gb m[pb] */
+  /* unknowns */
+  double *th, *mm, *cc;
+  int *turb;
+  double *ue;
+  double f_tr[2];            /* transition fraction in the transition interval, per side */
+  size_t itr[2];             /* first turbulent station index within the side (n_side if none) */
+  int forced[2];
+  /* Newton */
+  double *J, *R, *dx;
+  int *ipiv;
+  double *cp;                /* surface Cp, n */
+};
+
+#endif
