@@ -104,10 +104,9 @@ static vstate first_view(const vctx *cx, const vstate *s)
 {
   vstate t = *s;
   if (s->first) {
-    double m_over_ue = s->m / fmax(s->ue, 1e-9);
+    /* the mass defect is kept: dstar = m / (stag_a xi) */
     t.xi = fmax(s->xi, cx->xi_min);
     t.ue = cx->stag_a * t.xi;
-    t.m = m_over_ue * t.ue;
   }
   return t;
 }
@@ -120,7 +119,8 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     /* Hiemenz state of the closure for ue = stag_a xi: theta independent of xi */
     double hh = visc_hiemenz_h(), thh, h2;
     bl_similarity_start(1.0, cx->re, cx->stag_a, 1.0, &thh, &h2);
-    double h = b_in->m / (fmax(b_in->ue, 1e-9) * fmax(b_in->th, 1e-12));
+    vstate bf = first_view(cx, b_in);
+    double h = bf.m / (bf.ue * fmax(bf.th, 1e-12));
     R[0] = log(fmax(b_in->th, 1e-12) / thh);
     R[1] = log(fmax(h, 1e-6) / hh);
     R[2] = b_in->c;

@@ -642,7 +642,7 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
       }
     }
     /* upstream move: a laminar station already past N_crit, or past the trip */
-    for (size_t k = k0 + 1; k < kt; k++) {
+    for (size_t k = k0 + 2; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip && v->xi[k - 1] < cx->xi_trip;
       if (v->cc[k] >= cx->ncrit + TR_HYST || trip) {
         for (size_t j = k; j < k1; j++) {
@@ -656,18 +656,43 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
         break;
       }
     }
-    /* downstream move: the laminar N extrapolated to the first turbulent station stays below */
-    if (!changed && kt < k1 && kt > k0 + 1) {
+    /* downstream move: the laminar N, extrapolated from the last laminar station at its own
+     * rate, stays below N_crit at the first turbulent station: that station becomes laminar
+     * (one station per iteration, with the shape parameter of the last laminar one) */
+    if (!changed && kt < k1 && kt > k0) {
       vstate a = get_state(v, kt - 1);
-      double rate = bl_amplification_rate(bl_hk(a.m / (a.ue * a.th), cx->mach * a.ue), a.th,
-                                          cx->re * a.ue * a.th);
-      double nb = a.c + rate * (v->xi[kt] - a.xi); /* as in the transition residual */
-      vstate b = get_state(v, kt);
-      int trip_here = cx->xi_trip >= 0.0 && cx->xi_trip > a.xi && cx->xi_trip <= b.xi;
-      if (nb < cx->ncrit - TR_HYST && !trip_here) {
-        v->turb[kt] = 0;
-        v->cc[kt] = nb;
+      double ha = a.m / (a.ue * a.th);
+      double rate = bl_amplification_rate(bl_hk(ha, cx->mach * a.ue), a.th, cx->re * a.ue * a.th);
+      /* march N on: each station passed is given the last laminar shape parameter and its
+       * own theta (a turbulent theta is larger, so N grows faster than in the laminar layer
+       * and the move errs short); at most 2 stations per iteration */
+      size_t knew = kt;
+      double nk = a.c, xprev = a.xi, rprev = rate;
+      while (knew < k1 && knew < kt + 2) {
+        double thj = v->th[knew], uej = fmax(v->ue[knew], 1e-6);
+        double rj = bl_amplification_rate(bl_hk(ha, cx->mach * uej), thj, cx->re * uej * thj);
+        double nj = nk + bl_interval_integral(rprev, rj, xprev, v->xi[knew]);
+        int trip_here = cx->xi_trip >= 0.0 && cx->xi_trip > xprev && cx->xi_trip <= v->xi[knew];
+        if (nj >= cx->ncrit - TR_HYST || trip_here) break;
+        nk = nj;
+        xprev = v->xi[knew];
+        rprev = rj;
+        knew++;
+      }
+      if (knew > kt) {
+        double nj = a.c, xp = a.xi, rp = rate;
+        for (size_t j = kt; j < knew; j++) {
+          double thj = v->th[j], uej = fmax(v->ue[j], 1e-6);
+          double rj = bl_amplification_rate(bl_hk(ha, cx->mach * uej), thj, cx->re * uej * thj);
+          nj += bl_interval_integral(rp, rj, xp, v->xi[j]);
+          xp = v->xi[j];
+          rp = rj;
+          v->turb[j] = 0;
+          v->cc[j] = nj;
+          v->mm[j] = ha * v->th[j] * v->ue[j];
+        }
         changed = 1;
+        kt = knew;
       }
     }
     v->itr[side] = kt;
@@ -680,6 +705,9 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
 {
   (void)err;
   const size_t nst = v->nst;
+  /* three passes: march on the inviscid ue, then twice on ue_inv + D m of the previous pass */
+  for (int pass = 0; pass < 3; pass++) {
+  if (pass > 0) update_ue(v);
   for (int side = 0; side < 2; side++) {
     size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
     double *s = core_calloc(cnt, sizeof *s), *ue = core_calloc(cnt, sizeof *ue);
@@ -690,7 +718,8 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
     }
     for (size_t j = 0; j < cnt; j++) {
       s[j] = v->xi[k0 + j];
-      ue[j] = fmax(v->ue_inv[k0 + j], 1e-3);
+      ue[j] = fmax(pass == 0 ? v->ue_inv[k0 + j] : v->ue[k0 + j], 1e-3);
+      if (j > 0 && ue[j] < 0.5 * ue[j - 1] && pass > 0) ue[j] = fmax(v->ue_inv[k0 + j], 1e-3);
     }
     ascr_bl_params bp = ascr_bl_params_defaults();
     bp.re = v->p.re;
@@ -741,51 +770,48 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
     v->turb[k] = 1;
     v->cc[k] = 0.05;
   }
+  }
   (void)nst;
   return ASCR_OK;
 }
 
-/* Set the unknowns to saved + rlx * dx, with the positivity floors. */
+/* Set the unknowns from saved values and rlx * dx: theta and m (and sqrt(Ctau)) change by
+ * factors exp(rlx dx), N additively. */
 static void set_trial(ascr_visc_solver *v, const double *saved, double rlx)
 {
   const size_t nst = v->nst;
   for (size_t k = 0; k < nst; k++) {
-    v->th[k] = saved[3 * k] + rlx * v->dx[3 * k];
-    v->mm[k] = saved[3 * k + 1] + rlx * v->dx[3 * k + 1];
-    v->cc[k] = saved[3 * k + 2] + rlx * v->dx[3 * k + 2];
-    if (v->th[k] < 1e-10) v->th[k] = 1e-10;
-    if (v->mm[k] < 1e-12) v->mm[k] = 1e-12;
+    v->th[k] = saved[3 * k] * exp(rlx * v->dx[3 * k]);
+    v->mm[k] = saved[3 * k + 1] * exp(rlx * v->dx[3 * k + 1]);
     if (v->turb[k]) {
+      v->cc[k] = saved[3 * k + 2] * exp(rlx * v->dx[3 * k + 2]);
       if (v->cc[k] < 1e-4) v->cc[k] = 1e-4;
       if (v->cc[k] > 0.5) v->cc[k] = 0.5;
-    } else if (v->cc[k] < 0.0) {
-      v->cc[k] = 0.0;
+    } else {
+      v->cc[k] = saved[3 * k + 2] + rlx * v->dx[3 * k + 2];
+      if (v->cc[k] < 0.0) v->cc[k] = 0.0;
     }
   }
 }
 
-/* Relaxed Newton update. Returns the largest relative change applied (before relaxation). */
-static double apply_update(ascr_visc_solver *v, double *rlx_out)
+/* Relaxation of the Newton step (in log theta, log m, N or log sqrt(Ctau)): no factor above
+ * e^1 in theta, m or sqrt(Ctau), no change above 2 in N. Returns the largest |dx| of theta, m. */
+static double step_limit(ascr_visc_solver *v, double *rlx_out)
 {
   const size_t nst = v->nst;
   double rlx = 1.0, dmax = 0.0;
   for (size_t k = 0; k < nst; k++) {
-    double dth = v->dx[3 * k] / v->th[k], dm = v->dx[3 * k + 1] / fmax(v->mm[k], 1e-12);
-    double dc = v->dx[3 * k + 2];
-    dmax = fmax(dmax, fmax(fabs(dth), fabs(dm)));
-    if (fabs(dth) * rlx > 0.5) rlx = 0.5 / fabs(dth);
-    if (fabs(dm) * rlx > 0.5) rlx = 0.5 / fabs(dm);
-    if (!v->turb[k]) {
-      if (fabs(dc) * rlx > 2.0) rlx = 2.0 / fabs(dc);
-    } else {
-      double lim = 0.5 * fmax(v->cc[k], 0.01);
-      if (fabs(dc) * rlx > lim) rlx = lim / fabs(dc);
-    }
+    double a = fabs(v->dx[3 * k]), b = fabs(v->dx[3 * k + 1]), c = fabs(v->dx[3 * k + 2]);
+    dmax = fmax(dmax, fmax(a, b));
+    if (a * rlx > 1.0) rlx = 1.0 / a;
+    if (b * rlx > 1.0) rlx = 1.0 / b;
+    double lim = v->turb[k] ? 1.0 : 2.0;
+    if (c * rlx > lim) rlx = lim / c;
   }
   if (getenv("VDBG")) {
     size_t kw = 0; double w = 0;
-    for (size_t k = 0; k < nst; k++) { double a = fmax(fabs(v->dx[3*k]/v->th[k]), fabs(v->dx[3*k+1]/fmax(v->mm[k],1e-12))); if (a > w) { w = a; kw = k; } }
-    fprintf(stderr, "   worst station %zu side %d node %zu dth/th %.2e dm/m %.2e dc %.2e th %.2e m %.2e ue %.3e turb %d\n", kw, v->side[kw], v->node[kw], v->dx[3*kw]/v->th[kw], v->dx[3*kw+1]/v->mm[kw], v->dx[3*kw+2], v->th[kw], v->mm[kw], v->ue[kw], v->turb[kw]);
+    for (size_t k = 0; k < nst; k++) { double a = fmax(fabs(v->dx[3*k]), fabs(v->dx[3*k+1])); if (a > w) { w = a; kw = k; } }
+    fprintf(stderr, "   worst station %zu side %d node %zu dlnth %.2e dlnm %.2e dc %.2e th %.2e m %.2e ue %.3e turb %d xi %.4f\n", kw, v->side[kw], v->node[kw], v->dx[3*kw], v->dx[3*kw+1], v->dx[3*kw+2], v->th[kw], v->mm[kw], v->ue[kw], v->turb[kw], v->xi[kw]);
   }
   *rlx_out = rlx;
   return dmax;
@@ -840,9 +866,28 @@ static int relocate_stagnation(ascr_visc_solver *v)
     size_t i = v->node[k];
     v->th[k] = nth[i]; v->mm[k] = nmm[i]; v->cc[k] = ncc[i]; v->turb[k] = ntb[i];
   }
-  /* the first station of each side is laminar at the stagnation point */
-  v->turb[0] = 0; v->cc[0] = 0.0;
-  v->turb[v->nu] = 0; v->cc[v->nu] = 0.0;
+  /* Stations whose node changed sides, and the first station of each side, lie within a few
+   * panels of the stagnation point: they restart from its Hiemenz state (constant theta,
+   * H = H_hiemenz, N = 0), which is what the layer there is. */
+  {
+    update_ue(v);
+    set_xi(v);
+    vctx c0 = context(v, 0);
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, v->p.re, c0.stag_a, 1.0, &thh, &h2);
+    for (size_t k = 0; k < v->nu + v->nl; k++) {
+      size_t i = v->node[k];
+      int upper = k < v->nu;
+      int moved = upper ? (i > old_is) : (i <= old_is);
+      if (moved || k == 0 || k == v->nu) {
+        double ue = (k == 0 || k == v->nu) ? c0.stag_a * fmax(v->xi[k], c0.xi_min) : fmax(v->ue[k], 1e-6);
+        v->th[k] = thh;
+        v->mm[k] = hh * thh * ue;
+        v->cc[k] = 0.0;
+        v->turb[k] = 0;
+      }
+    }
+  }
   size_t w0 = v->nu + v->nl;
   for (size_t j = 0; j < v->nw; j++) {
     v->th[w0 + j] = wth[3 * j]; v->mm[w0 + j] = wth[3 * j + 1]; v->cc[w0 + j] = wth[3 * j + 2];
@@ -974,6 +1019,22 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
   double rel = INFINITY;
   update_ue(v);
   relocate_stagnation(v);
+  if (!use_warm) {
+    /* first stations: the Hiemenz state the stagnation residual asks for */
+    update_ue(v);
+    set_xi(v);
+    vctx c0 = context(v, 0);
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, v->p.re, c0.stag_a, 1.0, &thh, &h2);
+    size_t firsts[2] = {0, v->nu};
+    for (int q = 0; q < 2; q++) {
+      size_t k = firsts[q];
+      v->th[k] = thh;
+      v->mm[k] = hh * thh * c0.stag_a * fmax(v->xi[k], c0.xi_min);
+      v->cc[k] = 0.0;
+      v->turb[k] = 0;
+    }
+  }
   for (it = 1; it <= v->p.max_iter; it++) {
     update_ue(v);
     set_xi(v);
@@ -1016,6 +1077,16 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
       }
       free(R0); free(col);
     }
+    /* unknowns in log form: theta, m, and sqrt(Ctau) where turbulent */
+    for (size_t k = 0; k < nst; k++) {
+      double sc0 = v->th[k], sc1 = v->mm[k], sc2 = v->turb[k] ? v->cc[k] : 1.0;
+      double *c0 = v->J + (3 * k) * N, *c1 = v->J + (3 * k + 1) * N, *c2 = v->J + (3 * k + 2) * N;
+      for (size_t r = 0; r < N; r++) {
+        c0[r] *= sc0;
+        c1[r] *= sc1;
+        c2[r] *= sc2;
+      }
+    }
     for (size_t i = 0; i < N; i++) v->dx[i] = -v->R[i];
     lapack_int info = LAPACKE_dgesv(LAPACK_COL_MAJOR, (lapack_int)N, 1, v->J, (lapack_int)N,
                                     (lapack_int *)v->ipiv, v->dx, (lapack_int)N);
@@ -1025,7 +1096,7 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
                        "(order %zu, iteration %d)", alpha_rad * 180.0 / ASCR_PI, N, it);
     }
     double rlx;
-    rel = apply_update(v, &rlx);
+    rel = step_limit(v, &rlx);
     /* backtracking on the residual norm: halve the step while it does not decrease */
     double *saved = v->R; /* R is no longer needed: keep the current unknowns there */
     for (size_t k = 0; k < nst; k++) {
@@ -1034,7 +1105,7 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
       saved[3 * k + 2] = v->cc[k];
     }
     double f0 = residual_norm2(v, cxs);
-    for (int ls = 0; ls < 8; ls++) {
+    for (int ls = 0; ls < 8 && f0 > 1e-16; ls++) {
       set_trial(v, saved, rlx);
       update_ue(v);
       set_xi(v);
@@ -1046,7 +1117,7 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
     update_ue(v);
     int smoved = relocate_stagnation(v);
     if (smoved < 0) break;
-    if (rel < v->p.tol && rlx == 1.0 && !tchange && smoved == 0) {
+    if (rel < v->p.tol && !tchange && smoved == 0) {
       converged = 1;
       break;
     }
