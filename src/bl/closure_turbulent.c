@@ -16,7 +16,7 @@
  *   Layer thickness for the lag equation: delta = theta (3.15 + 1.72/(Hk - 1)) + dstar.
  *   Lag equation (G. E. Green, D. J. Weeks and J. M. Brooman, "Prediction of turbulent boundary
  *       layers and wakes in compressible flow by a lag-entrainment method", ARC R&M 3791, 1977),
- *       in the form (delta/sqrt(Ctau)) d sqrt(Ctau)/dxi = K (sqrt(Ctau_EQ) - sqrt(Ctau)), K = 5.6,
+ *       in the form (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. K = 2.8 for sqrt(Ctau),
  *       is applied in march.c.
  * In a wake (wake = 1) the wall terms vanish (Cf = 0) and the outer-layer dissipation is
  * doubled, the two halves of the wake each carrying a shear layer (Drela & Giles 1987).

@@ -7,7 +7,7 @@
  *     amplification:   dN/dxi = rate(Hk, theta, Re_theta)                         (laminar)
  *     lag:             d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta  (turbulent)
  * (Drela & Giles 1987, eqs. for the momentum and shape-parameter equations; lag equation after
- * Green, Weeks & Brooman 1977, K = 5.6) are integrated in logarithmic form: the logarithmic
+ * Green, Weeks & Brooman 1977; K = 2.8 in the sqrt(Ctau) form) are integrated in logarithmic form: the logarithmic
  * terms exactly, the coefficient (2 + H - Me^2), (1 - H) as interval means, and the right-hand
  * sides by the trapezoidal rule in ln(xi) (bl_interval_integral); the stiff lag equation by the
  * implicit Euler rule (station 2 value), which cannot overshoot. The unknowns at station 2,
@@ -33,7 +33,7 @@
 #include <math.h>
 #include <string.h>
 
-#define LAG_K 5.6
+#define LAG_K 2.8 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 #define LAM_SEP_HK 3.8
 #define TURB_SEP_HK 2.8
 #define NEWTON_MAX 40

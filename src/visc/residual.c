@@ -22,7 +22,7 @@
 
 #include <math.h>
 
-#define LAG_K 5.6
+#define LAG_K 2.8 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 
 typedef struct vev {
   double h, rth, me;

@@ -821,7 +821,8 @@ static double step_limit(ascr_visc_solver *v, double *rlx_out)
 static void clamp_shape(ascr_visc_solver *v)
 {
   for (size_t k = 0; k < v->nst; k++) {
-    double hmin = v->side[k] == 2 ? 1.0001 : 1.05;
+    /* floors: wake 1.0001, turbulent wall layer 1.05, laminar 1.8 (below the fits' range) */
+    double hmin = v->side[k] == 2 ? 1.0001 : (v->turb[k] ? 1.05 : 1.8);
     double ue = fmax(v->ue[k], 1e-6);
     if (v->mm[k] < hmin * ue * v->th[k]) v->mm[k] = hmin * ue * v->th[k];
   }
@@ -983,8 +984,8 @@ static void results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
   (void)n;
 }
 
-ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int warm,
-                                   ascr_visc_result *r, ascr_errbuf *err)
+static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
+                              ascr_visc_result *r, ascr_errbuf *err)
 {
   if (v == NULL || r == NULL) return core_fail(err, ASCR_EINVAL, "viscous solve: NULL argument");
   if (!v->is_set) return core_fail(err, ASCR_EINVAL, "viscous solve: solver not set");
@@ -1137,6 +1138,19 @@ ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int wa
                      alpha_rad * 180.0 / ASCR_PI, v->p.re, r->iterations, rel);
   }
   return ASCR_OK;
+}
+
+ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int warm,
+                                   ascr_visc_result *r, ascr_errbuf *err)
+{
+  ascr_status st = solve_once(v, alpha_rad, warm, r, err);
+  if ((st == ASCR_EMAXITER || st == ASCR_ESING) && warm) {
+    /* the continuation start did not lead anywhere: start afresh from a march */
+    int its = r->iterations;
+    st = solve_once(v, alpha_rad, 0, r, err);
+    r->iterations += its;
+  }
+  return st;
 }
 
 void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *side, double *s, double *x,
