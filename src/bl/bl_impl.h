@@ -52,4 +52,13 @@ int bl_similarity_start(double m, double re, double ue, double xi, double *theta
  * xa <= 0 (wake from the trailing edge) the ordinary trapezoidal rule. */
 double bl_interval_integral(double fa, double fb, double xa, double xb);
 
+/* Laminar march from a given state (theta0, h0, N0 at s[0]) over stations s[1..n-1] with edge
+ * velocities ue[0..n-1]. Stops at the first station where N reaches ncrit, where Hk passes
+ * the laminar separation limit, or where Newton fails. Fills theta, h, nn for the stations
+ * reached (index 0 = the start). Returns the index of the stopping station (n if it ran
+ * through); *why: 0 ran through, 1 N_crit reached, 2 separation or failure. */
+size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *s,
+                             const double *ue, size_t n, double re, double mach, double ncrit,
+                             double *theta, double *h, double *nn, int *why);
+
 #endif

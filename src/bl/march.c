@@ -411,3 +411,49 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
   }
   return ASCR_OK;
 }
+
+size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *s,
+                             const double *ue, size_t n, double re, double mach, double ncrit,
+                             double *theta, double *h, double *nn, int *why)
+{
+  st_state a;
+  a.xi = s[0];
+  a.ue = ue[0];
+  a.theta = theta0;
+  a.h = h0;
+  a.sc = 0.0;
+  a.turb = 0;
+  double namp = n0;
+  theta[0] = theta0;
+  h[0] = h0;
+  nn[0] = n0;
+  *why = 0;
+  for (size_t i = 1; i < n; i++) {
+    st_state b = a;
+    b.xi = s[i];
+    b.ue = ue[i];
+    double resid;
+    int its = solve_interval(&a, &b, re, mach, &resid);
+    st_eval ea, eb;
+    if (its < 0) {
+      *why = 2;
+      return i;
+    }
+    evaluate(&a, re, mach, &ea);
+    evaluate(&b, re, mach, &eb);
+    namp += bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
+    theta[i] = b.theta;
+    h[i] = b.h;
+    nn[i] = namp;
+    if (namp >= ncrit) {
+      *why = 1;
+      return i;
+    }
+    if (eb.c.hk > LAM_SEP_HK) {
+      *why = 2;
+      return i;
+    }
+    a = b;
+  }
+  return n;
+}

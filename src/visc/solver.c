@@ -656,40 +656,42 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
         break;
       }
     }
-    /* downstream move: the laminar N, extrapolated from the last laminar station at its own
-     * rate, stays below N_crit at the first turbulent station: that station becomes laminar
-     * (one station per iteration, with the shape parameter of the last laminar one) */
+    /* downstream move: a laminar march from the last laminar station on the current edge
+     * velocity over the next stations (at most 12) says where N reaches N_crit (or where the
+     * laminar layer separates: transition is then taken there, as in a separation bubble);
+     * the stations passed become laminar with the marched state */
     if (!changed && kt < k1 && kt > k0) {
+      enum { LOOK = 13 };
+      double ss[LOOK], uu[LOOK], tt[LOOK], hh[LOOK], nn[LOOK];
+      size_t cnt = 0;
+      for (size_t j = kt - 1; j < k1 && cnt < LOOK; j++, cnt++) {
+        ss[cnt] = v->xi[j];
+        uu[cnt] = fmax(v->ue[j], 1e-4);
+      }
       vstate a = get_state(v, kt - 1);
-      double ha = a.m / (a.ue * a.th);
-      double rate = bl_amplification_rate(bl_hk(ha, cx->mach * a.ue), a.th, cx->re * a.ue * a.th);
-      /* march N on: each station passed is given the last laminar shape parameter and its
-       * own theta (a turbulent theta is larger, so N grows faster than in the laminar layer
-       * and the move errs short); at most 2 stations per iteration */
-      size_t knew = kt;
-      double nk = a.c, xprev = a.xi, rprev = rate;
-      while (knew < k1 && knew < kt + 2) {
-        double thj = v->th[knew], uej = fmax(v->ue[knew], 1e-6);
-        double rj = bl_amplification_rate(bl_hk(ha, cx->mach * uej), thj, cx->re * uej * thj);
-        double nj = nk + bl_interval_integral(rprev, rj, xprev, v->xi[knew]);
-        int trip_here = cx->xi_trip >= 0.0 && cx->xi_trip > xprev && cx->xi_trip <= v->xi[knew];
-        if (nj >= cx->ncrit - TR_HYST || trip_here) break;
-        nk = nj;
-        xprev = v->xi[knew];
-        rprev = rj;
-        knew++;
+      double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
+      int why = 0;
+      size_t stop = bl_march_laminar_from(a.th, ha, a.c, ss, uu, cnt, cx->re, cx->mach,
+                                          cx->ncrit - TR_HYST, tt, hh, nn, &why);
+      /* stop: index (in the look-ahead) of the station where the march stopped; stations
+       * 1..stop-1 become laminar */
+      size_t knew = kt + (stop > 0 ? stop - 1 : 0);
+      if (why == 0) knew = kt + cnt - 1;
+      if (cx->xi_trip >= 0.0) {
+        for (size_t j = kt; j < knew; j++) {
+          if (v->xi[j] >= cx->xi_trip) {
+            knew = j;
+            break;
+          }
+        }
       }
       if (knew > kt) {
-        double nj = a.c, xp = a.xi, rp = rate;
         for (size_t j = kt; j < knew; j++) {
-          double thj = v->th[j], uej = fmax(v->ue[j], 1e-6);
-          double rj = bl_amplification_rate(bl_hk(ha, cx->mach * uej), thj, cx->re * uej * thj);
-          nj += bl_interval_integral(rp, rj, xp, v->xi[j]);
-          xp = v->xi[j];
-          rp = rj;
+          size_t q = j - (kt - 1);
           v->turb[j] = 0;
-          v->cc[j] = nj;
-          v->mm[j] = ha * v->th[j] * v->ue[j];
+          v->th[j] = tt[q];
+          v->cc[j] = nn[q];
+          v->mm[j] = hh[q] * tt[q] * fmax(v->ue[j], 1e-6);
         }
         changed = 1;
         kt = knew;
@@ -730,10 +732,17 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
     ascr_errbuf merr;
     ascr_status st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
     if (st && getenv("VDBG")) fprintf(stderr, "%s\n", merr.msg);
-    if (st == ASCR_OK && br.n_done < cnt && br.n_done > 0 && !out[br.n_done - 1].turbulent) {
-      /* laminar separation: restart with transition forced there (a bubble closes turbulent) */
-      bp.s_trip = br.s_separation;
-      st = ascr_bl_march(s, ue, cnt, &bp, out, &br, NULL);
+    /* a laminar layer that separates (or fails near separation) is restarted with transition
+     * forced two stations upstream of where it stopped: a separation bubble closes turbulent */
+    int lam_stop = (st == ASCR_OK && br.n_done < cnt && br.n_done > 0 &&
+                    !out[br.n_done - 1].turbulent) ||
+                   (st == ASCR_EMAXITER && br.n_done > 0 && !out[br.n_done - 1].turbulent);
+    if (lam_stop && br.n_done >= 3) {
+      bp.s_trip = s[br.n_done - 2];
+      st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
+      if (st != ASCR_OK && br.n_done > 0) st = ASCR_OK; /* keep what was marched */
+    } else if (st != ASCR_OK && br.n_done > 0) {
+      st = ASCR_OK;
     }
     size_t done = (st == ASCR_OK) ? br.n_done : 0;
     if (getenv("VDBG")) fprintf(stderr, "march side %d: status %d done %zu of %zu sep %g tr %g\n", side, st, br.n_done, cnt, br.s_separation, br.s_transition);
@@ -837,6 +846,14 @@ static int relocate_stagnation(ascr_visc_solver *v)
   size_t is;
   double ss;
   if (find_stagnation(v, g, &is, &ss) != 0) return -1;
+  /* at most one node per iteration: a far jump comes from a poor intermediate state */
+  if (is > v->is + 1) is = v->is + 1;
+  if (is + 1 < v->is) is = v->is - 1;
+  if (is != v->is) {
+    double f = g[is] / (g[is] - g[is + 1]);
+    if (!(f >= 0.0 && f <= 1.0)) f = g[is] > 0.0 ? 1.0 : 0.0;
+    ss = v->snode[is] + f * (v->snode[is + 1] - v->snode[is]);
+  }
   if (is == v->is) {
     set_xi(v);
     return 0;
@@ -1041,7 +1058,12 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     set_xi(v);
     clamp_shape(v);
     vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};
-    int tchange = update_transition(v, cxs);
+    /* transition moves only once the iteration has settled with the present intervals:
+     * moving it while far from a solution makes the Newton iteration chase a moving target */
+    int tchange = 0;
+    if (rel < 0.05 || it == 1) {
+      tchange = update_transition(v, cxs);
+    }
     double rmx = assemble(v, cxs);
     if (getenv("VDBG") && (it <= 2 || getenv("VDBG")[0] == '2')) {
       for (size_t k = 0; k < 3; k++) fprintf(stderr, "  st %zu node %zu xi %.5f ue_inv %.5f ue %.5f th %.3e m %.3e H %.3f c %.3f turb %d R %.2e %.2e %.2e\n", k, v->node[k], v->xi[k], v->ue_inv[k], v->ue[k], v->th[k], v->mm[k], v->mm[k]/(v->ue[k]*v->th[k]), v->cc[k], v->turb[k], v->R[3*k], v->R[3*k+1], v->R[3*k+2]);
