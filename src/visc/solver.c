@@ -480,6 +480,12 @@ static int station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *
   return v->turb[k - 1] ? VR_TURB : VR_TRANS;
 }
 
+/* Distance along the surface between the second stations of the two sides. */
+static double stag_span(const ascr_visc_solver *v)
+{
+  return v->snode[v->node[v->nu + 1]] - v->snode[v->node[1]];
+}
+
 static vctx context(const ascr_visc_solver *v, int side)
 {
   vctx c;
@@ -487,7 +493,10 @@ static vctx context(const ascr_visc_solver *v, int side)
   c.mach = v->p.mach;
   c.ncrit = v->p.ncrit;
   c.xi_trip = -1.0;
-  c.stag_a = (fmax(v->ue[0], 0.0) + fmax(v->ue[v->nu], 0.0)) / v->dsp;
+  /* the stagnation-flow gradient from the second stations of the two sides: their edge
+   * velocities are well away from zero, while the first stations' can be dominated by the
+   * displacement effect when the stagnation point sits near a node */
+  c.stag_a = (fmax(v->ue[1], 0.0) + fmax(v->ue[v->nu + 1], 0.0)) / stag_span(v);
   if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
   c.xi_min = 0.25 * v->dsp;
   double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
@@ -576,7 +585,7 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
         for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * (du * du_row[kk] + dl * dl_row[kk]);
       }
     }
-    /* derivative with respect to the stagnation-flow gradient a = (ue_u0 + ue_l0)/dsp */
+    /* derivative with respect to the stagnation-flow gradient a = (ue_u1 + ue_l1)/span */
     if (v->side[k] < 2 && kind != VR_MERGE) {
       vctx cp2 = *cx;
       double h = 1e-7 * cx->stag_a;
@@ -584,9 +593,9 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
       double R1[3];
       if (kind == VR_STAG) visc_residual(kind, &cp2, NULL, &s[0], NULL, R1, NULL);
       else visc_residual(kind, &cp2, &s[0], &s[1], NULL, R1, NULL);
-      const double *du_row = v->D + 0 * nst, *dl_row = v->D + v->nu * nst;
+      const double *du_row = v->D + 1 * nst, *dl_row = v->D + (v->nu + 1) * nst;
       for (int e = 0; e < 3; e++) {
-        double d = (R1[e] - R0[e]) / h / v->dsp;
+        double d = (R1[e] - R0[e]) / h / stag_span(v);
         if (d == 0.0) continue;
         double *jr = v->J + (3 * k + e);
         for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * (du_row[kk] + dl_row[kk]);
