@@ -636,6 +636,11 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
  * crossing point moves inside it (clamped to its ends), which stops the interval from
  * hopping back and forth between iterations. */
 #define TR_HYST 0.3
+/* After this many moves the transition intervals stay where they are and the crossing point
+ * is found within them (clamped to their ends): in separation bubbles the transition point
+ * and the edge velocity feed back on each other and the interval can cycle between two
+ * neighbours; the clamped result is then off by at most one panel. */
+#define TR_MAX_MOVES 8
 static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
 {
   int changed = 0;
@@ -1042,7 +1047,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
-  int converged = 0, it;
+  int converged = 0, it, n_moves = 0;
   double rel = INFINITY;
   update_ue(v);
   relocate_stagnation(v);
@@ -1070,8 +1075,9 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     /* transition moves only once the iteration has settled with the present intervals:
      * moving it while far from a solution makes the Newton iteration chase a moving target */
     int tchange = 0;
-    if (rel < 0.05 || it == 1) {
+    if ((rel < 0.05 || it == 1) && n_moves < TR_MAX_MOVES) {
       tchange = update_transition(v, cxs);
+      n_moves += tchange;
     }
     double rmx = assemble(v, cxs);
     if (getenv("VDBG") && (it <= 2 || getenv("VDBG")[0] == '2')) {
