@@ -30,7 +30,6 @@
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
-#include <stdio.h>
 
 #define FD_STEP 1e-7
 
@@ -101,6 +100,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->R, 3 * nst);
   ALLOC(v->dx, 3 * nst);
   ALLOC(v->ipiv, 3 * nst);
+  ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
 #undef ALLOC
   if (!ok) {
@@ -118,7 +118,7 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->qmid_g); free(v->qmid_inv); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
-  free(v->ipiv); free(v->cp);
+  free(v->ipiv); free(v->iscratch); free(v->cp);
   free(v);
 }
 
@@ -745,7 +745,6 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
     ascr_bl_result br;
     ascr_errbuf merr;
     ascr_status st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
-    if (st && getenv("VDBG")) fprintf(stderr, "%s\n", merr.msg);
     /* a laminar layer that separates (or fails near separation) is restarted with transition
      * forced two stations upstream of where it stopped: a separation bubble closes turbulent */
     int lam_stop = (st == ASCR_OK && br.n_done < cnt && br.n_done > 0 &&
@@ -759,7 +758,6 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
       st = ASCR_OK;
     }
     size_t done = (st == ASCR_OK) ? br.n_done : 0;
-    if (getenv("VDBG")) fprintf(stderr, "march side %d: status %d done %zu of %zu sep %g tr %g\n", side, st, br.n_done, cnt, br.s_separation, br.s_transition);
     for (size_t j = 0; j < cnt; j++) {
       size_t k = k0 + j;
       if (j < done) {
@@ -831,11 +829,6 @@ static double step_limit(ascr_visc_solver *v, double *rlx_out)
     double lim = v->turb[k] ? 1.0 : 2.0;
     if (c * rlx > lim) rlx = lim / c;
   }
-  if (getenv("VDBG")) {
-    size_t kw = 0; double w = 0;
-    for (size_t k = 0; k < nst; k++) { double a = fmax(fabs(v->dx[3*k]), fabs(v->dx[3*k+1])); if (a > w) { w = a; kw = k; } }
-    fprintf(stderr, "   worst station %zu side %d node %zu dlnth %.2e dlnm %.2e dc %.2e th %.2e m %.2e ue %.3e turb %d xi %.4f\n", kw, v->side[kw], v->node[kw], v->dx[3*kw], v->dx[3*kw+1], v->dx[3*kw+2], v->th[kw], v->mm[kw], v->ue[kw], v->turb[kw], v->xi[kw]);
-  }
   *rlx_out = rlx;
   return dmax;
 }
@@ -875,9 +868,9 @@ static int relocate_stagnation(ascr_visc_solver *v)
   /* carry the state by node: save, restage, restore */
   size_t nst = v->nst;
   double *th = v->J, *mm = v->J + nst, *cc = v->J + 2 * nst; /* J is rebuilt anyway */
-  int *tb = v->ipiv;
+  int *tb = v->iscratch;
   double *nth = v->J + 3 * nst, *nmm = v->J + 4 * nst, *ncc = v->J + 5 * nst;
-  int *ntb = v->ipiv + nst;
+  int *ntb = v->iscratch + nst;
   for (size_t k = 0; k < nst; k++) {
     th[k] = v->th[k]; mm[k] = v->mm[k]; cc[k] = v->cc[k]; tb[k] = v->turb[k];
   }
@@ -1079,55 +1072,20 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       tchange = update_transition(v, cxs);
       n_moves += tchange;
     }
-    double rmx = assemble(v, cxs);
-    if (getenv("VDBG") && (it <= 2 || getenv("VDBG")[0] == '2')) {
-      for (size_t k = 0; k < 3; k++) fprintf(stderr, "  st %zu node %zu xi %.5f ue_inv %.5f ue %.5f th %.3e m %.3e H %.3f c %.3f turb %d R %.2e %.2e %.2e\n", k, v->node[k], v->xi[k], v->ue_inv[k], v->ue[k], v->th[k], v->mm[k], v->mm[k]/(v->ue[k]*v->th[k]), v->cc[k], v->turb[k], v->R[3*k], v->R[3*k+1], v->R[3*k+2]);
-    }
-    if (getenv("VDBG")) {
-      size_t k1 = v->itr[0];
-      if (k1 < v->nu) fprintf(stderr, "   trans up: f %.6f Na %.4f Hа %.4f Hb %.4f ue_a %.4f ue_b %.4f c_b %.4f\n", v->f_tr[0], v->cc[k1-1], v->mm[k1-1]/(v->ue[k1-1]*v->th[k1-1]), v->mm[k1]/(v->ue[k1]*v->th[k1]), v->ue[k1-1], v->ue[k1], v->cc[k1]);
-      size_t km = 0; for (size_t i = 0; i < N; i++) if (fabs(v->R[i]) > fabs(v->R[km])) km = i;
-      fprintf(stderr, "it %d rmax %.3e at station %zu eq %zu (side %d node %zu xi %.4f) tchange %d is %zu nu %zu\n", it, rmx, km/3, km%3, v->side[km/3], v->node[km/3], v->xi[km/3], tchange, v->is, v->nu);
-    }
-    if (getenv("VJAC") && it == atoi(getenv("VJAC"))) {
-      /* compare Jacobian columns with full finite differences */
-      double *R0 = malloc(N * sizeof(double)), *col = malloc(N * sizeof(double));
-      memcpy(R0, v->R, N * sizeof(double));
-      size_t cols[] = {3*0+1, 3*1+0, 3*1+1, 3*30+0, 3*30+1, 3*30+2, 3*31+0, 3*31+1, 3*31+2, 3*32+1, 3*100+1, 3*200+1};
-      for (size_t ci = 0; ci < sizeof cols / sizeof cols[0]; ci++) {
-        size_t c = cols[ci]; if (c >= N) continue;
-        double *var = (c % 3 == 0) ? &v->th[c/3] : (c % 3 == 1) ? &v->mm[c/3] : &v->cc[c/3];
-        double save = *var, h = 1e-6 * fmax(fabs(save), 1e-8);
-        *var += h; update_ue(v); set_xi(v);
-        for (size_t k = 0; k < v->nst; k++) {
-          size_t a, b, w; int kind = station_kind(v, k, &a, &b, &w);
-          vstate sa = get_state(v, a), sb = get_state(v, b), sw = get_state(v, w); double R[3];
-          const vctx *cx = &cxs[v->side[k]];
-          if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
-          else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
-          else visc_residual(kind, cx, &sa, &sb, NULL, R, NULL);
-          for (int e = 0; e < 3; e++) col[3*k+e] = (R[e] - R0[3*k+e]) / h;
-        }
-        *var = save; update_ue(v); set_xi(v);
-        double worst = 0; size_t wr = 0;
-        for (size_t r = 0; r < N; r++) { double d = fabs(col[r] - v->J[r + c*N]); double sc = fmax(fabs(col[r]), 1.0) ; if (d/sc > worst) { worst = d/sc; wr = r; } }
-        fprintf(stderr, "  col %zu (st %zu var %zu): worst rel diff %.3e at row %zu (st %zu eq %zu): fd %.4e J %.4e\n", c, c/3, c%3, worst, wr, wr/3, wr%3, col[wr], v->J[wr + c*N]);
-      }
-      free(R0); free(col);
-    }
+    assemble(v, cxs);
     /* unknowns in log form: theta, m, and sqrt(Ctau) where turbulent */
     for (size_t k = 0; k < nst; k++) {
       double sc0 = v->th[k], sc1 = v->mm[k], sc2 = v->turb[k] ? v->cc[k] : 1.0;
       double *c0 = v->J + (3 * k) * N, *c1 = v->J + (3 * k + 1) * N, *c2 = v->J + (3 * k + 2) * N;
-      for (size_t r = 0; r < N; r++) {
-        c0[r] *= sc0;
-        c1[r] *= sc1;
-        c2[r] *= sc2;
+      for (size_t row = 0; row < N; row++) {
+        c0[row] *= sc0;
+        c1[row] *= sc1;
+        c2[row] *= sc2;
       }
     }
     for (size_t i = 0; i < N; i++) v->dx[i] = -v->R[i];
     lapack_int info = LAPACKE_dgesv(LAPACK_COL_MAJOR, (lapack_int)N, 1, v->J, (lapack_int)N,
-                                    (lapack_int *)v->ipiv, v->dx, (lapack_int)N);
+                                    v->ipiv, v->dx, (lapack_int)N);
     if (info != 0) {
       v->have_solution = 0;
       return core_fail(err, ASCR_ESING, "viscous solve at alpha %.2f deg: Newton system singular "
@@ -1151,7 +1109,6 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       if (f1 < f0 * (1.0 - 1e-4 * rlx) || ls == 7) break;
       rlx *= 0.5;
     }
-    if (getenv("VDBG")) fprintf(stderr, "   rel %.3e rlx %.3e itr %zu %zu\n", rel, rlx, v->itr[0], v->itr[1]);
     update_ue(v);
     int smoved = relocate_stagnation(v);
     if (smoved < 0) break;

@@ -87,7 +87,8 @@ struct ascr_visc_solver {
   int forced[2];
   /* Newton */
   double *J, *R, *dx;
-  int *ipiv;
+  lapack_int *ipiv;
+  int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
 };
 
