@@ -13,5 +13,6 @@
 #include "airscrew/ascr_panel.h"
 #include "airscrew/ascr_bl.h"
 #include "airscrew/ascr_visc.h"
+#include "airscrew/ascr_polar.h"
 
 #endif /* AIRSCREW_H */

@@ -102,6 +102,10 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
+  ALLOC(v->sv_th, nst);
+  ALLOC(v->sv_mm, nst);
+  ALLOC(v->sv_cc, nst);
+  ALLOC(v->sv_turb, nst);
 #undef ALLOC
   if (!ok) {
     ascr_visc_solver_free(v);
@@ -119,10 +123,35 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp);
+  free(v->sv_th); free(v->sv_mm); free(v->sv_cc); free(v->sv_turb);
   free(v);
 }
 
 size_t ascr_visc_solver_stations(const ascr_visc_solver *v) { return v ? v->nst : 0; }
+
+void visc_snapshot(ascr_visc_solver *v)
+{
+  v->sv_have = v->have_solution;
+  if (!v->sv_have) return;
+  memcpy(v->sv_th, v->th, v->nst * sizeof *v->th);
+  memcpy(v->sv_mm, v->mm, v->nst * sizeof *v->mm);
+  memcpy(v->sv_cc, v->cc, v->nst * sizeof *v->cc);
+  memcpy(v->sv_turb, v->turb, v->nst * sizeof *v->turb);
+  v->sv_is = v->is;
+  v->sv_s_stag = v->s_stag;
+}
+
+void visc_restore(ascr_visc_solver *v)
+{
+  if (!v->sv_have) return;
+  memcpy(v->th, v->sv_th, v->nst * sizeof *v->th);
+  memcpy(v->mm, v->sv_mm, v->nst * sizeof *v->mm);
+  memcpy(v->cc, v->sv_cc, v->nst * sizeof *v->cc);
+  memcpy(v->turb, v->sv_turb, v->nst * sizeof *v->turb);
+  v->is = v->sv_is;
+  v->s_stag = v->sv_s_stag;
+  v->have_solution = 1;
+}
 
 ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *ps,
                                  const ascr_visc_params *p, ascr_errbuf *err)

@@ -90,6 +90,16 @@ struct ascr_visc_solver {
   lapack_int *ipiv;
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
+  /* a saved converged state (visc_snapshot / visc_restore) */
+  double *sv_th, *sv_mm, *sv_cc;
+  int *sv_turb;
+  size_t sv_is;
+  double sv_s_stag;
+  int sv_have;
 };
+
+/* Save the current converged state / bring it back (for continuation after a failed point). */
+void visc_snapshot(ascr_visc_solver *v);
+void visc_restore(ascr_visc_solver *v);
 
 #endif

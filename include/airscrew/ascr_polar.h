@@ -1,0 +1,66 @@
+/* include/airscrew/ascr_polar.h
+ * Polars: sweeps of the viscous section analysis over angle of attack, continuing from each
+ * converged point to the next, with automatic step refinement where a point fails, and cl_max
+ * and stall detection.
+ *
+ * The sweep starts at the grid angle nearest the inviscid zero-lift angle and runs outward in
+ * both directions, because the flow is easiest to converge near zero lift and each next point
+ * starts from its neighbour's solution. Thread safety: one solver per thread.
+ */
+#ifndef ASCR_POLAR_H
+#define ASCR_POLAR_H
+
+#include <stddef.h>
+#include "airscrew/ascr_errno.h"
+#include "airscrew/ascr_visc.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/** One point of a polar. Numbers of an unconverged point are the last iterate and must be
+ *  reported as such (converged = 0). */
+typedef struct ascr_polar_point {
+  double alpha_deg;
+  double cl, cd, cdf, cdp, cm;
+  double x_transition_upper, x_transition_lower; /* NaN where laminar to the TE */
+  double x_separation_upper, x_reattach_upper;   /* NaN where none */
+  double x_separation_lower, x_reattach_lower;
+  int converged;
+  int iterations;
+  double residual;
+} ascr_polar_point;
+
+/** Summary of a sweep. */
+typedef struct ascr_polar_summary {
+  size_t n_points;      /* points on the requested grid */
+  size_t n_converged;   /* of which converged */
+  double cl_max;        /* largest converged cl (NaN if none converged) */
+  double alpha_cl_max_deg;
+  int stall;            /* 1 if cl falls after cl_max within the sweep (stall seen) */
+  double cl_min;        /* smallest converged cl */
+  double alpha_cl_min_deg;
+} ascr_polar_summary;
+
+/** Progress callback: done of total grid points finished. May be NULL. */
+typedef void (*ascr_polar_progress_fn)(void *ctx, size_t done, size_t total);
+
+/** Number of grid points of a sweep from a0 to a1 by step (> 0), both ends included when on
+ *  the grid; 0 for invalid input. */
+ASCR_EXPORT size_t ascr_polar_grid_size(double a0_deg, double a1_deg, double step_deg);
+
+/** Sweep the set viscous solver v over the grid a0..a1 by step (degrees). pts must hold
+ *  ascr_polar_grid_size() entries (caller owned), filled in ascending alpha. A point that does
+ *  not converge after step refinement (halving the step from the last converged point up to
+ *  three times) is kept, flagged unconverged, and the sweep goes on.
+ *  @return ASCR_OK (even if some points did not converge: see the flags and summary);
+ *          ASCR_EINVAL for a bad grid. */
+ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, double a1_deg,
+                                         double step_deg, ascr_polar_point *pts,
+                                         ascr_polar_summary *sum, ascr_polar_progress_fn progress,
+                                         void *progress_ctx, ascr_errbuf *err);
+
+#ifdef __cplusplus
+}
+#endif
+#endif /* ASCR_POLAR_H */

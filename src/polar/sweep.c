@@ -1,0 +1,186 @@
+/* src/polar/sweep.c
+ * Angle-of-attack sweep with continuation and step refinement.
+ *
+ * Method. Grid angles a_i = a0 + i step. The sweep starts at the grid point nearest the
+ * inviscid zero-lift angle (from the panel solver's two unit solutions: the circulation
+ * vanishes at atan2(-G0, G90)), solving it from a fresh start, then walks up the grid and
+ * afterwards down from the start point, each point warm-started from the last converged one.
+ * When a point fails, intermediate angles between the last converged angle and the target are
+ * solved first (halving the gap, up to three levels), and the target is retried from there.
+ * A point that still fails is recorded unconverged and the walk continues from the last
+ * converged solution. cl_max is the largest converged cl; stall is reported when a converged
+ * point beyond it has a lower cl.
+ */
+#include "airscrew/ascr_polar.h"
+#include "visc/visc_impl.h"
+#include "core/core_impl.h"
+
+#include <math.h>
+#include <string.h>
+
+#define DEG (ASCR_PI / 180.0)
+
+size_t ascr_polar_grid_size(double a0, double a1, double step)
+{
+  if (!isfinite(a0) || !isfinite(a1) || !(step > 0.0) || a1 < a0) return 0;
+  double n = floor((a1 - a0) / step + 1e-9) + 1.0;
+  if (n > 100000.0) return 0;
+  return (size_t)n;
+}
+
+static void fill(ascr_polar_point *p, double alpha_deg, const ascr_visc_result *r)
+{
+  p->alpha_deg = alpha_deg;
+  p->cl = r->cl;
+  p->cd = r->cd;
+  p->cdf = r->cdf;
+  p->cdp = r->cdp;
+  p->cm = r->cm;
+  p->x_transition_upper = r->x_transition_upper;
+  p->x_transition_lower = r->x_transition_lower;
+  p->x_separation_upper = r->x_separation_upper;
+  p->x_reattach_upper = r->x_reattach_upper;
+  p->x_separation_lower = r->x_separation_lower;
+  p->x_reattach_lower = r->x_reattach_lower;
+  p->converged = r->converged;
+  p->iterations = r->iterations;
+  p->residual = r->residual;
+}
+
+/* Solve target alpha continuing from the last converged state (saved in the solver's snapshot;
+ * have_last = 0 for a fresh start). On success the snapshot holds the new state. */
+static int solve_point(ascr_visc_solver *v, int have_last, double alast, double target,
+                       ascr_visc_result *r)
+{
+  if (have_last) visc_restore(v);
+  ascr_status st = ascr_visc_solver_solve(v, target * DEG, have_last, r, NULL);
+  if (st == ASCR_OK) {
+    visc_snapshot(v);
+    return 1;
+  }
+  if (!have_last) return 0;
+  int total_its = r->iterations;
+  /* refine: approach the target in halving steps from the last converged angle */
+  for (int level = 1; level <= 3; level++) {
+    int parts = 1 << level, ok = 1;
+    visc_restore(v);
+    for (int k = 1; k < parts && ok; k++) {
+      double mid = alast + (target - alast) * (double)k / (double)parts;
+      ascr_visc_result rm;
+      ok = ascr_visc_solver_solve(v, mid * DEG, 1, &rm, NULL) == ASCR_OK;
+      total_its += rm.iterations;
+    }
+    if (!ok) continue;
+    st = ascr_visc_solver_solve(v, target * DEG, 1, r, NULL);
+    total_its += r->iterations;
+    if (st == ASCR_OK) {
+      r->iterations = total_its;
+      visc_snapshot(v);
+      return 1;
+    }
+  }
+  r->iterations = total_its;
+  visc_restore(v);
+  return 0;
+}
+
+ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double step,
+                             ascr_polar_point *pts, ascr_polar_summary *sum,
+                             ascr_polar_progress_fn progress, void *progress_ctx,
+                             ascr_errbuf *err)
+{
+  size_t n = ascr_polar_grid_size(a0, a1, step);
+  if (v == NULL || pts == NULL || sum == NULL) {
+    return core_fail(err, ASCR_EINVAL, "polar sweep: NULL argument");
+  }
+  if (n == 0) {
+    return core_fail(err, ASCR_EINVAL, "polar sweep: alpha range %g .. %g by %g is empty or "
+                     "too long", a0, a1, step);
+  }
+  if (!v->is_set) return core_fail(err, ASCR_EINVAL, "polar sweep: viscous solver not set");
+  if (fabs(a0) > 60.0 || fabs(a1) > 60.0) {
+    return core_fail(err, ASCR_EINVAL, "polar sweep: alpha beyond +-60 deg");
+  }
+  memset(sum, 0, sizeof *sum);
+  sum->n_points = n;
+  /* start near zero lift */
+  const ascr_panel_solver *ps = v->ps;
+  double g0 = 0.0, g90 = 0.0;
+  for (size_t j = 0; j + 1 < ps->n; j++) {
+    double L = hypot(ps->x[j + 1] - ps->x[j], ps->y[j + 1] - ps->y[j]);
+    g0 += 0.5 * (ps->g0[j] + ps->g0[j + 1]) * L;
+    g90 += 0.5 * (ps->g90[j] + ps->g90[j + 1]) * L;
+  }
+  double azl = atan2(-g0, g90) / DEG;
+  size_t i0 = 0;
+  double best = INFINITY;
+  for (size_t i = 0; i < n; i++) {
+    double a = a0 + step * (double)i;
+    if (fabs(a - azl) < best) {
+      best = fabs(a - azl);
+      i0 = i;
+    }
+  }
+  size_t done = 0;
+  ascr_visc_result r;
+  /* upward from i0 */
+  int have = 0, have_start = 0;
+  double alast = NAN;
+  for (size_t i = i0; i < n; i++) {
+    double a = a0 + step * (double)i;
+    int ok = solve_point(v, have, alast, a, &r);
+    fill(&pts[i], a, &r);
+    if (ok) {
+      if (i == i0) have_start = 1;
+      have = 1;
+      alast = a;
+    }
+    if (progress) progress(progress_ctx, ++done, n);
+  }
+  /* downward from i0 - 1, continuing from the start point (solved again from a fresh start,
+   * which reproduces its state) */
+  have = 0;
+  alast = NAN;
+  if (have_start && i0 > 0) {
+    double a = a0 + step * (double)i0;
+    ascr_visc_result rb;
+    if (ascr_visc_solver_solve(v, a * DEG, 0, &rb, NULL) == ASCR_OK) {
+      visc_snapshot(v);
+      have = 1;
+      alast = a;
+    }
+  }
+  for (size_t i = i0; i-- > 0;) {
+    double a = a0 + step * (double)i;
+    int ok = solve_point(v, have, alast, a, &r);
+    fill(&pts[i], a, &r);
+    if (ok) {
+      have = 1;
+      alast = a;
+    }
+    if (progress) progress(progress_ctx, ++done, n);
+  }
+  /* summary */
+  sum->cl_max = NAN;
+  sum->cl_min = NAN;
+  size_t imax = n, imin = n;
+  for (size_t i = 0; i < n; i++) {
+    if (!pts[i].converged) continue;
+    sum->n_converged++;
+    if (imax == n || pts[i].cl > pts[imax].cl) imax = i;
+    if (imin == n || pts[i].cl < pts[imin].cl) imin = i;
+  }
+  if (imax < n) {
+    sum->cl_max = pts[imax].cl;
+    sum->alpha_cl_max_deg = pts[imax].alpha_deg;
+    sum->cl_min = pts[imin].cl;
+    sum->alpha_cl_min_deg = pts[imin].alpha_deg;
+    for (size_t i = imax + 1; i < n; i++) {
+      if (pts[i].converged && pts[i].cl < sum->cl_max) {
+        sum->stall = 1;
+        break;
+      }
+    }
+  }
+  return ASCR_OK;
+}
