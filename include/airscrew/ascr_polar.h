@@ -60,6 +60,12 @@ ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, dou
                                          ascr_polar_summary *sum, ascr_polar_progress_fn progress,
                                          void *progress_ctx, ascr_errbuf *err);
 
+/** Solve one angle robustly: a fresh start first; if that fails, a continuation from the
+ *  zero-lift angle to alpha_deg in steps of at most 1 deg (with the sweep's refinement).
+ *  Returns as ascr_visc_solver_solve() for the final point. */
+ASCR_EXPORT ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg,
+                                               ascr_visc_result *r, ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

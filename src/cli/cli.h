@@ -67,4 +67,40 @@ void cli_output_discard(cli_output *o);
 /* 1 if the stream is a terminal. */
 int cli_isatty(FILE *fp);
 
+/* Longest comma-separated list an option takes. */
+#define CLI_MAX_LIST 32
+
+/* Printed with every aerodynamic result. */
+#define CLI_ESTIMATE_NOTE \
+  "estimates from an integral boundary-layer method; check against tests before relying on them"
+
+/* Comma-separated numbers within [lo, hi]; at most CLI_MAX_LIST. */
+int cli_parse_list(const char *opt, const char *text, double lo, double hi, double *out,
+                   size_t *n);
+/* START:END:STEP with START <= END, STEP > 0, all within [lo, hi]. */
+int cli_parse_range(const char *opt, const char *text, double lo, double hi, double *a0,
+                    double *a1, double *step);
+
+/* Viscous options shared by flow and polar. */
+typedef struct cli_visc_opts {
+  double ncrit;       /* NaN: default or from turbulence */
+  double turbulence;  /* percent; NaN: not given */
+  double trip_upper;  /* x/c; NaN: none */
+  double trip_lower;
+} cli_visc_opts;
+void cli_visc_opts_init(cli_visc_opts *o);
+/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower. */
+int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg);
+ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach);
+
+/* A section ready for analysis: loaded, repanelled, inviscid solver set, viscous solver
+ * allocated. */
+typedef struct cli_analysis {
+  ascr_geom_section *raw, *section;
+  ascr_panel_solver *panel;
+  ascr_visc_solver *visc;
+} cli_analysis;
+int cli_analysis_open(cli_analysis *a, const char *arg, size_t panels);
+void cli_analysis_close(cli_analysis *a);
+
 #endif

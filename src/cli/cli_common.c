@@ -224,3 +224,146 @@ int cli_output_commit(cli_output *o)
 }
 
 int cli_isatty(FILE *fp) { return isatty(fileno(fp)); }
+
+int cli_parse_list(const char *opt, const char *text, double lo, double hi, double *out,
+                   size_t *n)
+{
+  char buf[512];
+  if (strlen(text) >= sizeof buf) {
+    cli_error("%s: list too long", opt);
+    return 1;
+  }
+  strcpy(buf, text);
+  size_t k = 0;
+  char *save = NULL;
+  for (char *tok = strtok_r(buf, ",", &save); tok != NULL; tok = strtok_r(NULL, ",", &save)) {
+    if (k == CLI_MAX_LIST) {
+      cli_error("%s: more than %d values", opt, CLI_MAX_LIST);
+      return 1;
+    }
+    if (cli_parse_double(opt, tok, lo, hi, &out[k])) return 1;
+    k++;
+  }
+  if (k == 0) {
+    cli_error("%s: no values in '%s'", opt, text);
+    return 1;
+  }
+  *n = k;
+  return 0;
+}
+
+int cli_parse_range(const char *opt, const char *text, double lo, double hi, double *a0,
+                    double *a1, double *step)
+{
+  char buf[128];
+  if (strlen(text) >= sizeof buf) {
+    cli_error("%s: '%s' is too long", opt, text);
+    return 1;
+  }
+  strcpy(buf, text);
+  char *p1 = strchr(buf, ':');
+  char *p2 = p1 ? strchr(p1 + 1, ':') : NULL;
+  if (p1 == NULL || p2 == NULL || strchr(p2 + 1, ':') != NULL) {
+    cli_error("%s: '%s' is not START:END:STEP", opt, text);
+    return 1;
+  }
+  *p1 = '\0';
+  *p2 = '\0';
+  if (cli_parse_double(opt, buf, lo, hi, a0) || cli_parse_double(opt, p1 + 1, lo, hi, a1) ||
+      cli_parse_double(opt, p2 + 1, 1e-3, hi - lo, step)) {
+    return 1;
+  }
+  if (*a1 < *a0) {
+    cli_error("%s: END %g is below START %g", opt, *a1, *a0);
+    return 1;
+  }
+  if ((*a1 - *a0) / *step > 2000.0) {
+    cli_error("%s: more than 2000 angles", opt);
+    return 1;
+  }
+  return 0;
+}
+
+void cli_visc_opts_init(cli_visc_opts *o)
+{
+  o->ncrit = NAN;
+  o->turbulence = NAN;
+  o->trip_upper = NAN;
+  o->trip_lower = NAN;
+}
+
+int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
+{
+  switch (code) {
+  case 'N':
+    if (!isnan(o->turbulence)) {
+      cli_error("--ncrit and --turbulence exclude each other");
+      return 1;
+    }
+    return cli_parse_double("--ncrit", arg, 0.5, 20.0, &o->ncrit);
+  case 'T':
+    if (!isnan(o->ncrit)) {
+      cli_error("--ncrit and --turbulence exclude each other");
+      return 1;
+    }
+    return cli_parse_double("--turbulence", arg, 0.0001, 5.0, &o->turbulence);
+  case 'U':
+    return cli_parse_double("--trip-upper", arg, 0.0, 1.0, &o->trip_upper);
+  case 'L':
+    return cli_parse_double("--trip-lower", arg, 0.0, 1.0, &o->trip_lower);
+  }
+  return 1;
+}
+
+ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach)
+{
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = re;
+  p.mach = mach;
+  if (!isnan(o->ncrit)) p.ncrit = o->ncrit;
+  if (!isnan(o->turbulence)) {
+    double nc = ascr_bl_ncrit_from_turbulence(o->turbulence);
+    p.ncrit = nc < 0.5 ? 0.5 : nc;
+  }
+  if (!isnan(o->trip_upper)) p.trip_upper = o->trip_upper;
+  if (!isnan(o->trip_lower)) p.trip_lower = o->trip_lower;
+  return p;
+}
+
+int cli_analysis_open(cli_analysis *a, const char *arg, size_t panels)
+{
+  memset(a, 0, sizeof *a);
+  int from_file;
+  int rc = cli_load_section(arg, &a->raw, NULL, &from_file);
+  if (rc) return rc;
+  ascr_errbuf err;
+  ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
+  rp.n_panels = panels;
+  ascr_status st = ascr_geom_section_repanel(a->raw, &rp, &a->section, &err);
+  if (st == ASCR_OK) {
+    size_t n = ascr_geom_section_size(a->section);
+    a->panel = ascr_panel_solver_alloc(n);
+    a->visc = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
+    if (a->panel == NULL || a->visc == NULL) {
+      cli_analysis_close(a);
+      cli_error("out of memory");
+      return CLI_EXIT_INTERNAL;
+    }
+    st = ascr_panel_solver_set(a->panel, a->section, &err);
+  }
+  if (st != ASCR_OK) {
+    cli_error("%s", err.msg);
+    cli_analysis_close(a);
+    return cli_exit_for(st);
+  }
+  return 0;
+}
+
+void cli_analysis_close(cli_analysis *a)
+{
+  ascr_visc_solver_free(a->visc);
+  ascr_panel_solver_free(a->panel);
+  ascr_geom_section_free(a->section);
+  ascr_geom_section_free(a->raw);
+  memset(a, 0, sizeof *a);
+}

@@ -1,7 +1,6 @@
 /* src/cli/cmd_flow.c
- * "airscrew flow": one section at one condition. This version offers the inviscid analysis
- * (linear-vorticity panels, optional Karman-Tsien correction); the viscous analysis is not
- * built yet and is refused with a clear message rather than imitated.
+ * "airscrew flow": one section at one condition: viscous (--re; integral boundary layer coupled
+ * to the panel solution) or inviscid (--inviscid; panels with optional Karman-Tsien).
  */
 #define _GNU_SOURCE
 #include "cli.h"
@@ -17,18 +16,21 @@
 
 static void flow_help(FILE *fp)
 {
-  fputs("usage: airscrew flow SECTION --alpha DEG --inviscid [options]\n"
+  fputs("usage: airscrew flow SECTION --alpha DEG (--re RE | --inviscid) [options]\n"
         "\n"
         "Analyse one section at one angle of attack.\n"
         "SECTION is a coordinate file or a generator spec (see airscrew section --help).\n"
         "\n"
         "options:\n"
-        "  -a, --alpha DEG    angle of attack, degrees (-90 .. 90)\n"
-        "      --inviscid     potential flow only (required in this version: the viscous\n"
-        "                     analysis is not available yet)\n"
-        "  -m, --mach M       free-stream Mach number for the Karman-Tsien correction\n"
-        "                     (0 .. 0.95, default 0)\n"
-        "  -p, --panels N     panels on the contour (20 .. 2000, default 160)\n"
+        "  -a, --alpha DEG       angle of attack, degrees (-90 .. 90; viscous -60 .. 60)\n"
+        "  -r, --re RE           chord Reynolds number: viscous analysis (1e3 .. 1e8)\n"
+        "      --inviscid        potential flow only\n"
+        "  -m, --mach M          free-stream Mach number (inviscid 0 .. 0.95, viscous 0 .. 0.7)\n"
+        "      --ncrit N         critical amplification exponent (default 9)\n"
+        "      --turbulence PCT  free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
+        "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
+        "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
+        "  -p, --panels N        panels on the contour (default 160)\n"
         "      --json         JSON output\n"
         "      --csv          CSV output (surface table; summary in '#' lines)\n"
         "  -o, --output FILE  write to FILE (whole or not at all) instead of standard output\n"
@@ -127,6 +129,160 @@ static void write_table(FILE *fp, const flow_out *f)
   }
 }
 
+
+static json_t *num_or_null(int ok, double v)
+{
+  return ok && isfinite(v) ? json_real(v) : json_null();
+}
+
+static json_t *darray(const double *v, size_t n)
+{
+  json_t *a = json_array();
+  for (size_t i = 0; i < n; i++) json_array_append_new(a, isfinite(v[i]) ? json_real(v[i]) : json_null());
+  return a;
+}
+
+/* Viscous analysis of one point; output to fp. Returns an exit code. */
+static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_visc_params *vp,
+                        size_t panels, int json, int csv)
+{
+  cli_analysis an;
+  int rc = cli_analysis_open(&an, arg, panels);
+  if (rc) return rc;
+  ascr_errbuf err;
+  ascr_status st = ascr_visc_solver_set(an.visc, an.panel, vp, &err);
+  ascr_visc_result r;
+  memset(&r, 0, sizeof r);
+  if (st == ASCR_OK) st = ascr_polar_solve_point(an.visc, alpha_deg, &r, &err);
+  if (st != ASCR_OK && st != ASCR_EMAXITER) {
+    cli_error("%s", err.msg);
+    cli_analysis_close(&an);
+    return cli_exit_for(st);
+  }
+  int ok = r.converged;
+  size_t ns = ascr_visc_solver_stations(an.visc), n = ascr_geom_section_size(an.section);
+  int *side = calloc(ns, sizeof *side), *turb = calloc(ns, sizeof *turb);
+  double *buf = calloc(10 * ns + n, sizeof *buf);
+  if (side == NULL || turb == NULL || buf == NULL) {
+    free(side); free(turb); free(buf);
+    cli_analysis_close(&an);
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  double *ss = buf, *x = buf + ns, *y = buf + 2 * ns, *ue = buf + 3 * ns, *ds = buf + 4 * ns;
+  double *th = buf + 5 * ns, *h = buf + 6 * ns, *cf = buf + 7 * ns, *am = buf + 8 * ns;
+  double *cps = buf + 9 * ns, *cp = buf + 10 * ns;
+  ascr_visc_solver_distributions(an.visc, side, ss, x, y, ue, ds, th, h, cf, am, turb);
+  ascr_visc_solver_cp(an.visc, cp);
+  for (size_t k = 0; k < ns; k++) cps[k] = 1.0 - ue[k] * ue[k];
+  const char *name = ascr_geom_section_name(an.section);
+  if (!ok) {
+    cli_error("flow: %s at alpha %.2f deg, Re %.4g did not converge after %d iterations "
+              "(largest relative update %.2e); no result is reported", name, alpha_deg, vp->re,
+              r.iterations, r.residual);
+    rc = CLI_EXIT_ANALYSIS;
+  }
+  if (json) {
+    json_t *o = json_object();
+    json_object_set_new(o, "section", json_string(name));
+    json_object_set_new(o, "analysis", json_string("viscous"));
+    json_object_set_new(o, "alpha_deg", json_real(alpha_deg));
+    json_object_set_new(o, "re", json_real(vp->re));
+    json_object_set_new(o, "mach", json_real(vp->mach));
+    json_object_set_new(o, "ncrit", json_real(vp->ncrit));
+    json_object_set_new(o, "trip_upper", vp->trip_upper <= 1.0 ? json_real(vp->trip_upper) : json_null());
+    json_object_set_new(o, "trip_lower", vp->trip_lower <= 1.0 ? json_real(vp->trip_lower) : json_null());
+    json_object_set_new(o, "n_panels", json_integer((json_int_t)panels));
+    json_object_set_new(o, "converged", json_boolean(ok));
+    json_object_set_new(o, "iterations", json_integer(r.iterations));
+    json_object_set_new(o, "residual", json_real(r.residual));
+    json_object_set_new(o, "cl", num_or_null(ok, r.cl));
+    json_object_set_new(o, "cm", num_or_null(ok, r.cm));
+    json_object_set_new(o, "cd", num_or_null(ok, r.cd));
+    json_object_set_new(o, "cdf", num_or_null(ok, r.cdf));
+    json_object_set_new(o, "cdp", num_or_null(ok, r.cdp));
+    json_object_set_new(o, "x_transition_upper", num_or_null(ok, r.x_transition_upper));
+    json_object_set_new(o, "x_transition_lower", num_or_null(ok, r.x_transition_lower));
+    json_object_set_new(o, "x_separation_upper", num_or_null(ok, r.x_separation_upper));
+    json_object_set_new(o, "x_reattachment_upper", num_or_null(ok, r.x_reattach_upper));
+    json_object_set_new(o, "x_separation_lower", num_or_null(ok, r.x_separation_lower));
+    json_object_set_new(o, "x_reattachment_lower", num_or_null(ok, r.x_reattach_lower));
+    if (ok) {
+      json_t *sf = json_object();
+      json_object_set_new(sf, "x", darray(ascr_geom_section_x(an.section), n));
+      json_object_set_new(sf, "y", darray(ascr_geom_section_y(an.section), n));
+      json_object_set_new(sf, "cp", darray(cp, n));
+      json_object_set_new(o, "surface", sf);
+      json_t *bl = json_object(), *sa = json_array(), *ta = json_array();
+      for (size_t k = 0; k < ns; k++) {
+        json_array_append_new(sa, json_string(side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake"));
+        json_array_append_new(ta, json_boolean(turb[k]));
+      }
+      json_object_set_new(bl, "side", sa);
+      json_object_set_new(bl, "s", darray(ss, ns));
+      json_object_set_new(bl, "x", darray(x, ns));
+      json_object_set_new(bl, "y", darray(y, ns));
+      json_object_set_new(bl, "ue", darray(ue, ns));
+      json_object_set_new(bl, "dstar", darray(ds, ns));
+      json_object_set_new(bl, "theta", darray(th, ns));
+      json_object_set_new(bl, "shape_factor", darray(h, ns));
+      json_object_set_new(bl, "cf", darray(cf, ns));
+      json_object_set_new(bl, "n_or_sqrt_ctau", darray(am, ns));
+      json_object_set_new(bl, "turbulent", ta);
+      json_object_set_new(o, "boundary_layer", bl);
+    }
+    json_object_set_new(o, "note", json_string(CLI_ESTIMATE_NOTE));
+    json_dumpf(o, fp, JSON_REAL_PRECISION(10) | JSON_COMPACT);
+    fputc('\n', fp);
+    json_decref(o);
+  } else if (ok && csv) {
+    fprintf(fp, "# section: %s\n# analysis: viscous\n# alpha_deg: %.6f\n# re: %.6g\n# mach: %.4f\n"
+            "# ncrit: %.4g\n# cl: %.6f\n# cd: %.6f\n# cdf: %.6f\n# cdp: %.6f\n# cm: %.6f\n",
+            name, alpha_deg, vp->re, vp->mach, vp->ncrit, r.cl, r.cd, r.cdf, r.cdp, r.cm);
+    fputs("side,s,x,y,ue,cp,dstar,theta,shape_factor,cf,n_or_sqrt_ctau,turbulent\n", fp);
+    for (size_t k = 0; k < ns; k++) {
+      fprintf(fp, "%s,%.6f,%.6f,%.6f,%.6f,%.6f,%.6e,%.6e,%.5f,%.6e,%.5f,%d\n",
+              side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], y[k], ue[k],
+              cps[k], ds[k], th[k], h[k], cf[k], am[k], turb[k]);
+    }
+  } else if (ok) {
+    char tu[16], tl[16];
+    snprintf(tu, sizeof tu, isfinite(r.x_transition_upper) ? "%.4f" : "none", r.x_transition_upper);
+    snprintf(tl, sizeof tl, isfinite(r.x_transition_lower) ? "%.4f" : "none", r.x_transition_lower);
+    fprintf(fp, "section   %s  (%zu panels)\n", name, panels);
+    fprintf(fp, "alpha     %.3f deg   Re %.4g   Mach %.3f   N_crit %.3g\n", alpha_deg, vp->re,
+            vp->mach, vp->ncrit);
+    fprintf(fp, "cl        %.5f\ncd        %.6f  (friction %.6f, pressure %.6f)\n", r.cl, r.cd,
+            r.cdf, r.cdp);
+    fprintf(fp, "cm        %.5f  (about x/c = 0.25, nose up positive)\n", r.cm);
+    fprintf(fp, "L/D       %.2f\n", r.cl / r.cd);
+    fprintf(fp, "transition x/c   upper %s   lower %s\n", tu, tl);
+    if (isfinite(r.x_separation_upper)) {
+      fprintf(fp, "separation upper surface at x/c %.4f", r.x_separation_upper);
+      if (isfinite(r.x_reattach_upper)) fprintf(fp, ", reattachment at %.4f", r.x_reattach_upper);
+      fputc('\n', fp);
+    }
+    if (isfinite(r.x_separation_lower)) {
+      fprintf(fp, "separation lower surface at x/c %.4f", r.x_separation_lower);
+      if (isfinite(r.x_reattach_lower)) fprintf(fp, ", reattachment at %.4f", r.x_reattach_lower);
+      fputc('\n', fp);
+    }
+    fprintf(fp, "converged in %d iterations\nnote      %s\n\n", r.iterations, CLI_ESTIMATE_NOTE);
+    fprintf(fp, "%6s %9s %9s %8s %10s %10s %7s %9s %7s %s\n", "side", "s", "x/c", "ue/V",
+            "dstar/c", "theta/c", "H", "cf", "N|Ct^.5", "state");
+    for (size_t k = 0; k < ns; k++) {
+      fprintf(fp, "%6s %9.5f %9.5f %8.4f %10.3e %10.3e %7.3f %9.5f %7.3f %s\n",
+              side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], ue[k], ds[k],
+              th[k], h[k], cf[k], am[k], turb[k] ? "turbulent" : "laminar");
+    }
+  }
+  free(side);
+  free(turb);
+  free(buf);
+  cli_analysis_close(&an);
+  return rc;
+}
+
 int cmd_flow(int argc, char **argv)
 {
   static const struct option opts[] = {
@@ -135,7 +291,13 @@ int cmd_flow(int argc, char **argv)
     {"json", no_argument, NULL, 'J'},         {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'}, {"force", no_argument, NULL, 'F'},
     {"re", required_argument, NULL, 'R'},     {"help", no_argument, NULL, 'h'},
+    {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
+    {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
     {NULL, 0, NULL, 0}};
+  cli_visc_opts vo;
+  cli_visc_opts_init(&vo);
+  double re = NAN;
+  int have_visc_opt = 0;
   double alpha_deg = NAN, mach = 0.0;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int inviscid = 0, json = 0, csv = 0, force = 0, have_re = 0;
@@ -143,7 +305,7 @@ int cmd_flow(int argc, char **argv)
   int c;
   opterr = 0;
   optind = 1;
-  while ((c = getopt_long(argc, argv, ":a:m:p:o:h", opts, NULL)) != -1) {
+  while ((c = getopt_long(argc, argv, ":a:m:p:o:r:h", opts, NULL)) != -1) {
     switch (c) {
     case 'a':
       if (cli_parse_double("--alpha", optarg, -90.0, 90.0, &alpha_deg)) return CLI_EXIT_USAGE;
@@ -155,7 +317,15 @@ int cmd_flow(int argc, char **argv)
       if (cli_parse_size("--panels", optarg, 20, 2000, &panels)) return CLI_EXIT_USAGE;
       break;
     case 'I': inviscid = 1; break;
-    case 'R': have_re = 1; break;
+    case 'r':
+    case 'R':
+      if (cli_parse_double("--re", optarg, 1e3, 1e8, &re)) return CLI_EXIT_USAGE;
+      have_re = 1;
+      break;
+    case 'N': case 'T': case 'U': case 'L':
+      if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
+      have_visc_opt = 1;
+      break;
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
@@ -173,14 +343,42 @@ int cmd_flow(int argc, char **argv)
     cli_error("flow: --alpha DEG is required");
     return CLI_EXIT_USAGE;
   }
-  if (!inviscid || have_re) {
-    cli_error("flow: the viscous analysis (--re) is not available in this version; "
-              "use --inviscid for the potential-flow solution");
+  if (inviscid && (have_re || have_visc_opt)) {
+    cli_error("flow: --inviscid excludes --re and the transition options");
+    return CLI_EXIT_USAGE;
+  }
+  if (!inviscid && !have_re) {
+    cli_error("flow: give --re RE for the viscous analysis, or --inviscid for potential flow");
     return CLI_EXIT_USAGE;
   }
   if (json && csv) {
     cli_error("flow: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
+  }
+  if (!inviscid) {
+    if (mach > 0.7) {
+      cli_error("flow: --mach %g is outside the viscous range 0 .. 0.7", mach);
+      return CLI_EXIT_USAGE;
+    }
+    if (fabs(alpha_deg) > 60.0) {
+      cli_error("flow: --alpha %g is outside the viscous range -60 .. 60", alpha_deg);
+      return CLI_EXIT_USAGE;
+    }
+    if (panels < 40 || panels > 400) {
+      cli_error("flow: --panels %zu is outside the viscous range 40 .. 400", panels);
+      return CLI_EXIT_USAGE;
+    }
+    cli_output vout;
+    int vrc = cli_output_open(&vout, outpath, force);
+    if (vrc) return vrc;
+    ascr_visc_params vp = cli_visc_params(&vo, re, mach);
+    vrc = flow_viscous(vout.fp, argv[optind], alpha_deg, &vp, panels, json, csv);
+    if (vrc != 0 && !(vrc == CLI_EXIT_ANALYSIS && json)) {
+      cli_output_discard(&vout);
+      return vrc;
+    }
+    int wrc = cli_output_commit(&vout);
+    return vrc ? vrc : wrc;
   }
   cli_output out;
   int rc = cli_output_open(&out, outpath, force);

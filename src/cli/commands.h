@@ -8,5 +8,6 @@
 int cmd_section(int argc, char **argv);
 int cmd_flow(int argc, char **argv);
 int cmd_demo(int argc, char **argv);
+int cmd_polar(int argc, char **argv);
 
 #endif

@@ -15,7 +15,8 @@ static void main_help(FILE *fp)
         "\n"
         "commands:\n"
         "  section   read or generate a section, repanel it, report its shape, write coordinates\n"
-        "  flow      analyse one section at one angle of attack (inviscid in this version)\n"
+        "  flow      analyse one section at one angle of attack (viscous with --re, or --inviscid)\n"
+        "  polar     viscous polars over angle of attack for several Reynolds numbers\n"
         "  demo      built-in demonstration on sample sections\n"
         "\n"
         "  airscrew COMMAND --help    options of a command\n"
@@ -52,10 +53,11 @@ int main(int argc, char **argv)
   if (strcmp(cmd, "section") == 0) return cmd_section(argc - 1, argv + 1);
   if (strcmp(cmd, "flow") == 0) return cmd_flow(argc - 1, argv + 1);
   if (strcmp(cmd, "demo") == 0) return cmd_demo(argc - 1, argv + 1);
+  if (strcmp(cmd, "polar") == 0) return cmd_polar(argc - 1, argv + 1);
   if (cmd[0] == '-') {
     cli_error("unknown option '%s' (see airscrew --help)", cmd);
   } else {
-    cli_error("unknown command '%s' (commands: section, flow, demo; see airscrew --help)", cmd);
+    cli_error("unknown command '%s' (commands: section, flow, polar, demo; see airscrew --help)", cmd);
   }
   return CLI_EXIT_USAGE;
 }

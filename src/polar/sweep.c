@@ -84,6 +84,57 @@ static int solve_point(ascr_visc_solver *v, int have_last, double alast, double 
   return 0;
 }
 
+/* Zero-lift angle of the inviscid solution, degrees. */
+static double zero_lift_deg(const ascr_visc_solver *v)
+{
+  const ascr_panel_solver *ps = v->ps;
+  double g0 = 0.0, g90 = 0.0;
+  for (size_t j = 0; j + 1 < ps->n; j++) {
+    double L = hypot(ps->x[j + 1] - ps->x[j], ps->y[j + 1] - ps->y[j]);
+    g0 += 0.5 * (ps->g0[j] + ps->g0[j + 1]) * L;
+    g90 += 0.5 * (ps->g90[j] + ps->g90[j + 1]) * L;
+  }
+  return atan2(-g0, g90) / DEG;
+}
+
+ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_visc_result *r,
+                                   ascr_errbuf *err)
+{
+  if (v == NULL || r == NULL) return core_fail(err, ASCR_EINVAL, "solve point: NULL argument");
+  if (!v->is_set) return core_fail(err, ASCR_EINVAL, "solve point: viscous solver not set");
+  ascr_status st = ascr_visc_solver_solve(v, alpha_deg * DEG, 0, r, err);
+  if (st != ASCR_EMAXITER && st != ASCR_ESING) return st;
+  int its = r->iterations;
+  double azl = zero_lift_deg(v);
+  double start = round(azl);
+  ascr_visc_result rs;
+  if (ascr_visc_solver_solve(v, start * DEG, 0, &rs, NULL) != ASCR_OK) {
+    r->iterations += rs.iterations;
+    return st;
+  }
+  its += rs.iterations;
+  visc_snapshot(v);
+  int nsteps = (int)ceil(fabs(alpha_deg - start));
+  double alast = start;
+  for (int k = 1; k <= nsteps; k++) {
+    double a = start + (alpha_deg - start) * (double)k / (double)nsteps;
+    if (!solve_point(v, 1, alast, a, &rs)) {
+      its += rs.iterations;
+      break;
+    }
+    its += rs.iterations;
+    alast = a;
+  }
+  if (alast == alpha_deg || nsteps == 0) {
+    visc_restore(v);
+    st = ascr_visc_solver_solve(v, alpha_deg * DEG, 1, r, err);
+  } else {
+    st = ascr_visc_solver_solve(v, alpha_deg * DEG, 0, r, err);
+  }
+  r->iterations += its;
+  return st;
+}
+
 ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double step,
                              ascr_polar_point *pts, ascr_polar_summary *sum,
                              ascr_polar_progress_fn progress, void *progress_ctx,
@@ -104,14 +155,7 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
   memset(sum, 0, sizeof *sum);
   sum->n_points = n;
   /* start near zero lift */
-  const ascr_panel_solver *ps = v->ps;
-  double g0 = 0.0, g90 = 0.0;
-  for (size_t j = 0; j + 1 < ps->n; j++) {
-    double L = hypot(ps->x[j + 1] - ps->x[j], ps->y[j + 1] - ps->y[j]);
-    g0 += 0.5 * (ps->g0[j] + ps->g0[j + 1]) * L;
-    g90 += 0.5 * (ps->g90[j] + ps->g90[j + 1]) * L;
-  }
-  double azl = atan2(-g0, g90) / DEG;
+  double azl = zero_lift_deg(v);
   size_t i0 = 0;
   double best = INFINITY;
   for (size_t i = 0; i < n; i++) {

@@ -994,6 +994,7 @@ static void results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
     for (size_t k = k0; k < k1; k++) {
       vstate s = get_state(v, k);
       vctx cx = cxs[side];
+      if (k == k0) s.ue = cx.stag_a * fmax(s.xi, cx.xi_min);
       double h = s.m / (fmax(s.ue, 1e-6) * s.th), rth = cx.re * fmax(s.ue, 1e-6) * s.th;
       bl_closure c;
       if (s.turb) bl_closure_turbulent(h, rth, cx.mach * s.ue, s.c * s.c, 0, &c);
@@ -1181,24 +1182,27 @@ void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *side, double
                                     double *h, double *cf, double *ampl, int *turbulent)
 {
   const ascr_panel_solver *ps = v->ps;
+  vctx c0 = context(v, 0);
   for (size_t k = 0; k < v->nst; k++) {
     int sd = v->side[k];
     double u = v->ue[k];
-    double hh = v->mm[k] / (fmax(u, 1e-6) * v->th[k]);
+    /* the first station of a surface is seen in the stagnation-flow view of the residuals */
+    double ub = (k == 0 || k == v->nu) ? c0.stag_a * fmax(v->xi[k], c0.xi_min) : u;
+    double hh = v->mm[k] / (fmax(ub, 1e-6) * v->th[k]);
     if (side) side[k] = sd;
     if (s) s[k] = v->xi[k];
     if (x) x[k] = sd == 2 ? v->xw[v->node[k]] : ps->x[v->node[k]];
     if (y) y[k] = sd == 2 ? v->yw[v->node[k]] : ps->y[v->node[k]];
     if (ue) ue[k] = u;
-    if (dstar) dstar[k] = v->mm[k] / fmax(u, 1e-6);
+    if (dstar) dstar[k] = v->mm[k] / fmax(ub, 1e-6);
     if (theta) theta[k] = v->th[k];
     if (h) h[k] = hh;
     if (cf) {
-      double rth = v->p.re * fmax(u, 1e-6) * v->th[k];
+      double rth = v->p.re * fmax(ub, 1e-6) * v->th[k];
       bl_closure c;
       if (sd == 2) c.cf = 0.0;
-      else if (v->turb[k]) bl_closure_turbulent(hh, rth, v->p.mach * u, v->cc[k] * v->cc[k], 0, &c);
-      else bl_closure_laminar(hh, rth, v->p.mach * u, &c);
+      else if (v->turb[k]) bl_closure_turbulent(hh, rth, v->p.mach * ub, v->cc[k] * v->cc[k], 0, &c);
+      else bl_closure_laminar(hh, rth, v->p.mach * ub, &c);
       cf[k] = c.cf;
     }
     if (ampl) ampl[k] = v->cc[k];

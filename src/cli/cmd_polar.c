@@ -1,0 +1,280 @@
+/* src/cli/cmd_polar.c
+ * "airscrew polar": viscous polars of one section for several Reynolds and Mach numbers.
+ */
+#define _GNU_SOURCE
+#include "cli.h"
+#include "commands.h"
+
+#include <getopt.h>
+#include <jansson.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+static void polar_help(FILE *fp)
+{
+  fputs("usage: airscrew polar SECTION --re LIST --alpha START:END:STEP [options]\n"
+        "\n"
+        "Viscous polars: cl, cd, cm and transition against angle of attack, for every\n"
+        "Reynolds number (and Mach number) in the lists. The sweep starts near zero lift\n"
+        "and continues outward from each converged point; points that do not converge\n"
+        "are kept and flagged, never reported as results.\n"
+        "\n"
+        "options:\n"
+        "  -r, --re LIST          chord Reynolds numbers, comma separated (1e3 .. 1e8)\n"
+        "  -a, --alpha A:B:STEP   angle range and step, degrees (e.g. -4:12:0.5)\n"
+        "  -m, --mach LIST        free-stream Mach numbers, comma separated (0 .. 0.7; default 0)\n"
+        "      --ncrit N          critical amplification exponent (default 9)\n"
+        "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
+        "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
+        "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
+        "  -p, --panels N         panels on the contour (default 160)\n"
+        "      --json, --csv      machine-readable output\n"
+        "  -o, --output FILE      write to FILE (whole or not at all)\n"
+        "      --force            replace FILE if it exists\n"
+        "  -h, --help             this help\n",
+        fp);
+}
+
+typedef struct progress_ctx {
+  double re, mach;
+} progress_ctx;
+
+static void progress(void *ctx, size_t done, size_t total)
+{
+  const progress_ctx *p = ctx;
+  fprintf(stderr, "\rpolar Re %.3g Mach %.2f: %zu/%zu points", p->re, p->mach, done, total);
+  if (done == total) fputc('\n', stderr);
+  fflush(stderr);
+}
+
+static json_t *num_or_null(int ok, double v)
+{
+  return ok && isfinite(v) ? json_real(v) : json_null();
+}
+
+int cmd_polar(int argc, char **argv)
+{
+  static const struct option opts[] = {
+    {"re", required_argument, NULL, 'r'},        {"alpha", required_argument, NULL, 'a'},
+    {"mach", required_argument, NULL, 'm'},      {"ncrit", required_argument, NULL, 'N'},
+    {"turbulence", required_argument, NULL, 'T'}, {"trip-upper", required_argument, NULL, 'U'},
+    {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
+    {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
+    {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
+    {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
+  cli_visc_opts vo;
+  cli_visc_opts_init(&vo);
+  double res[CLI_MAX_LIST], machs[CLI_MAX_LIST] = {0.0};
+  size_t nre = 0, nmach = 1;
+  double a0 = NAN, a1 = NAN, da = NAN;
+  size_t panels = ASCR_GEOM_DEFAULT_PANELS;
+  int json = 0, csv = 0, force = 0, c;
+  const char *outpath = NULL;
+  opterr = 0;
+  optind = 1;
+  while ((c = getopt_long(argc, argv, ":r:a:m:p:o:h", opts, NULL)) != -1) {
+    switch (c) {
+    case 'r':
+      if (cli_parse_list("--re", optarg, 1e3, 1e8, res, &nre)) return CLI_EXIT_USAGE;
+      break;
+    case 'a':
+      if (cli_parse_range("--alpha", optarg, -60.0, 60.0, &a0, &a1, &da)) return CLI_EXIT_USAGE;
+      break;
+    case 'm':
+      if (cli_parse_list("--mach", optarg, 0.0, 0.7, machs, &nmach)) return CLI_EXIT_USAGE;
+      break;
+    case 'N': case 'T': case 'U': case 'L':
+      if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
+      break;
+    case 'p':
+      if (cli_parse_size("--panels", optarg, 40, 400, &panels)) return CLI_EXIT_USAGE;
+      break;
+    case 'J': json = 1; break;
+    case 'C': csv = 1; break;
+    case 'o': outpath = optarg; break;
+    case 'F': force = 1; break;
+    case 'h': polar_help(stdout); return CLI_EXIT_OK;
+    case ':': cli_error("polar: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
+    default: cli_error("polar: unknown option '%s' (see airscrew polar --help)", argv[optind - 1]); return CLI_EXIT_USAGE;
+    }
+  }
+  if (optind != argc - 1) {
+    cli_error("polar: give exactly one SECTION (file or spec); see airscrew polar --help");
+    return CLI_EXIT_USAGE;
+  }
+  if (nre == 0) {
+    cli_error("polar: --re LIST is required");
+    return CLI_EXIT_USAGE;
+  }
+  if (isnan(a0)) {
+    cli_error("polar: --alpha START:END:STEP is required");
+    return CLI_EXIT_USAGE;
+  }
+  if (json && csv) {
+    cli_error("polar: --json and --csv exclude each other");
+    return CLI_EXIT_USAGE;
+  }
+  cli_output out;
+  int rc = cli_output_open(&out, outpath, force);
+  if (rc) return rc;
+  cli_analysis an;
+  rc = cli_analysis_open(&an, argv[optind], panels);
+  if (rc) {
+    cli_output_discard(&out);
+    return rc;
+  }
+  size_t npts = ascr_polar_grid_size(a0, a1, da);
+  ascr_polar_point *pts = calloc(npts * nre * nmach, sizeof *pts);
+  ascr_polar_summary *sums = calloc(nre * nmach, sizeof *sums);
+  if (pts == NULL || sums == NULL) {
+    free(pts);
+    free(sums);
+    cli_analysis_close(&an);
+    cli_output_discard(&out);
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  size_t total_conv = 0;
+  int tty = cli_isatty(stderr);
+  for (size_t im = 0; im < nmach && rc == 0; im++) {
+    for (size_t ir = 0; ir < nre && rc == 0; ir++) {
+      ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
+      ascr_errbuf err;
+      ascr_status st = ascr_visc_solver_set(an.visc, an.panel, &vp, &err);
+      if (st != ASCR_OK) {
+        cli_error("%s", err.msg);
+        rc = cli_exit_for(st);
+        break;
+      }
+      size_t k = im * nre + ir;
+      progress_ctx pc = {res[ir], machs[im]};
+      st = ascr_polar_sweep(an.visc, a0, a1, da, pts + k * npts, &sums[k], tty ? progress : NULL,
+                            &pc, &err);
+      if (st != ASCR_OK) {
+        cli_error("%s", err.msg);
+        rc = cli_exit_for(st);
+        break;
+      }
+      total_conv += sums[k].n_converged;
+      if (sums[k].n_converged < sums[k].n_points) {
+        cli_warn("Re %.4g Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
+                 res[ir], machs[im], sums[k].n_points - sums[k].n_converged, sums[k].n_points);
+      }
+    }
+  }
+  if (rc == 0 && total_conv == 0) {
+    cli_error("polar: no point converged");
+    rc = CLI_EXIT_ANALYSIS;
+  }
+  if (rc != 0) {
+    free(pts);
+    free(sums);
+    cli_analysis_close(&an);
+    cli_output_discard(&out);
+    return rc;
+  }
+  FILE *fp = out.fp;
+  const char *name = ascr_geom_section_name(an.section);
+  if (json) {
+    json_t *o = json_object(), *pl = json_array();
+    json_object_set_new(o, "section", json_string(name));
+    json_object_set_new(o, "n_panels", json_integer((json_int_t)panels));
+    for (size_t im = 0; im < nmach; im++) {
+      for (size_t ir = 0; ir < nre; ir++) {
+        size_t k = im * nre + ir;
+        ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
+        json_t *po = json_object(), *pa = json_array();
+        json_object_set_new(po, "re", json_real(res[ir]));
+        json_object_set_new(po, "mach", json_real(machs[im]));
+        json_object_set_new(po, "ncrit", json_real(vp.ncrit));
+        json_object_set_new(po, "trip_upper", vp.trip_upper <= 1.0 ? json_real(vp.trip_upper) : json_null());
+        json_object_set_new(po, "trip_lower", vp.trip_lower <= 1.0 ? json_real(vp.trip_lower) : json_null());
+        json_object_set_new(po, "converged_points", json_integer((json_int_t)sums[k].n_converged));
+        json_object_set_new(po, "cl_max", num_or_null(sums[k].n_converged > 0, sums[k].cl_max));
+        json_object_set_new(po, "alpha_cl_max_deg", num_or_null(sums[k].n_converged > 0, sums[k].alpha_cl_max_deg));
+        json_object_set_new(po, "stall_seen", json_boolean(sums[k].stall));
+        for (size_t i = 0; i < npts; i++) {
+          const ascr_polar_point *q = &pts[k * npts + i];
+          int ok = q->converged;
+          json_t *pt = json_object();
+          json_object_set_new(pt, "alpha_deg", json_real(q->alpha_deg));
+          json_object_set_new(pt, "cl", num_or_null(ok, q->cl));
+          json_object_set_new(pt, "cd", num_or_null(ok, q->cd));
+          json_object_set_new(pt, "cdf", num_or_null(ok, q->cdf));
+          json_object_set_new(pt, "cdp", num_or_null(ok, q->cdp));
+          json_object_set_new(pt, "cm", num_or_null(ok, q->cm));
+          json_object_set_new(pt, "x_transition_upper", num_or_null(ok, q->x_transition_upper));
+          json_object_set_new(pt, "x_transition_lower", num_or_null(ok, q->x_transition_lower));
+          json_object_set_new(pt, "converged", json_boolean(ok));
+          json_object_set_new(pt, "iterations", json_integer(q->iterations));
+          json_array_append_new(pa, pt);
+        }
+        json_object_set_new(po, "points", pa);
+        json_array_append_new(pl, po);
+      }
+    }
+    json_object_set_new(o, "polars", pl);
+    json_object_set_new(o, "note", json_string(CLI_ESTIMATE_NOTE));
+    json_dumpf(o, fp, JSON_REAL_PRECISION(10) | JSON_COMPACT);
+    fputc('\n', fp);
+    json_decref(o);
+  } else if (csv) {
+    fprintf(fp, "# section: %s\n# note: %s\n", name, CLI_ESTIMATE_NOTE);
+    fputs("re,mach,ncrit,alpha_deg,cl,cd,cdf,cdp,cm,x_transition_upper,x_transition_lower,converged\n", fp);
+    for (size_t im = 0; im < nmach; im++) {
+      for (size_t ir = 0; ir < nre; ir++) {
+        size_t k = im * nre + ir;
+        ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
+        for (size_t i = 0; i < npts; i++) {
+          const ascr_polar_point *q = &pts[k * npts + i];
+          fprintf(fp, "%.6g,%.4g,%.4g,%.4f,", res[ir], machs[im], vp.ncrit, q->alpha_deg);
+          if (q->converged) {
+            fprintf(fp, "%.6f,%.6f,%.6f,%.6f,%.6f,", q->cl, q->cd, q->cdf, q->cdp, q->cm);
+            if (isfinite(q->x_transition_upper)) fprintf(fp, "%.5f", q->x_transition_upper);
+            fputc(',', fp);
+            if (isfinite(q->x_transition_lower)) fprintf(fp, "%.5f", q->x_transition_lower);
+            fputs(",true\n", fp);
+          } else {
+            fputs(",,,,,,,false\n", fp);
+          }
+        }
+      }
+    }
+  } else {
+    fprintf(fp, "section   %s  (%zu panels)\n", name, panels);
+    for (size_t im = 0; im < nmach; im++) {
+      for (size_t ir = 0; ir < nre; ir++) {
+        size_t k = im * nre + ir;
+        ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
+        fprintf(fp, "\nRe %.4g   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
+        if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
+        if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
+        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %8s %8s %6s\n", "alpha", "cl", "cd", "cdf", "cdp",
+                "cm", "xtr_up", "xtr_lo", "L/D");
+        for (size_t i = 0; i < npts; i++) {
+          const ascr_polar_point *q = &pts[k * npts + i];
+          if (!q->converged) {
+            fprintf(fp, "%8.2f   not converged\n", q->alpha_deg);
+            continue;
+          }
+          char tu[16], tl[16];
+          snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "-", q->x_transition_upper);
+          snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
+          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %8s %8s %6.1f\n", q->alpha_deg, q->cl,
+                  q->cd, q->cdf, q->cdp, q->cm, tu, tl, q->cl / q->cd);
+        }
+        if (sums[k].n_converged > 0) {
+          fprintf(fp, "cl_max %.4f at %.2f deg%s; %zu of %zu points converged\n", sums[k].cl_max,
+                  sums[k].alpha_cl_max_deg, sums[k].stall ? " (stall seen)" : " (no stall within the range)",
+                  sums[k].n_converged, sums[k].n_points);
+        }
+      }
+    }
+    fprintf(fp, "\nnote: %s\n", CLI_ESTIMATE_NOTE);
+  }
+  free(pts);
+  free(sums);
+  cli_analysis_close(&an);
+  return cli_output_commit(&out);
+}
