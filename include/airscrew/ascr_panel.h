@@ -27,7 +27,8 @@ extern "C" {
 
 typedef struct ascr_panel_solver ascr_panel_solver;
 
-/** Trailing-edge gaps below this fraction of the total arc length are treated as sharp. */
+/** Trailing-edge gaps below this fraction of the total arc length, or below 5 % of the mean
+ *  length of the two trailing-edge panels, are treated as sharp. */
 #define ASCR_PANEL_SHARP_TE_GAP 1e-6
 
 /** Allocate a solver for sections of exactly n_nodes nodes (n_nodes >= 8).

@@ -27,9 +27,14 @@ static void main_help(FILE *fp)
         fp);
 }
 
+/* OpenBLAS (Debian's libopenblas) */
+void openblas_set_num_threads(int num_threads);
+
 int main(int argc, char **argv)
 {
   gsl_set_error_handler_off();
+  /* the dense systems here are a few hundred unknowns: one thread is faster than several */
+  openblas_set_num_threads(1);
   if (argc < 2) {
     main_help(stderr);
     return CLI_EXIT_USAGE;

@@ -11,8 +11,9 @@
  * Two surfaces are joined into one contour (the one with the higher mean y becomes the upper
  * surface, reversed to run TE -> LE) and a leading-edge point present in both is merged.
  * The sense is fixed from the signed (shoelace) area: a clockwise list is reversed.
- * Normalisation: if the points already sit in chord coordinates (a node at (0,0) and the
- * trailing-edge midpoint at (1,0), to 1e-6) they are kept as they are; otherwise the leading
+ * Normalisation: if the points already sit in chord coordinates (a node at (0,0) to 1e-6 and
+ * the trailing-edge midpoint at (1,0) to 1e-4, the rounding of five-decimal tables) they are
+ * kept as they are; otherwise the leading
  * edge is the node farthest from the trailing-edge midpoint, and the list is translated,
  * rotated and scaled so that the leading edge is at (0,0) and the trailing-edge midpoint at
  * (1,0). Validation (validate.c) rejects repeated points, crossings, surfaces that double back
@@ -236,7 +237,7 @@ ascr_status geom_build(const double *x, const double *y, const long *line, size_
   double tx = 0.5 * (cx[0] + cx[m - 1]), ty = 0.5 * (cy[0] + cy[m - 1]);
   size_t ile = 0;
   int already = 0;
-  if (fabs(tx - 1.0) < 1e-6 && fabs(ty) < 1e-6) {
+  if (fabs(tx - 1.0) < 1e-4 && fabs(ty) < 1e-4) {
     for (size_t i = 1; i + 1 < m; i++) {
       if (hypot(cx[i], cy[i]) < 1e-6) {
         ile = i;

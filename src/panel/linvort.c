@@ -149,7 +149,10 @@ ascr_status ascr_panel_solver_set(ascr_panel_solver *w, const ascr_geom_section 
     perim += hypot(x[j + 1] - x[j], y[j + 1] - y[j]);
   }
   w->te_len = hypot(x[0] - x[n - 1], y[0] - y[n - 1]);
-  w->sharp = w->te_len < ASCR_PANEL_SHARP_TE_GAP * perim;
+  /* a gap small against the trailing-edge panels (rounded coordinates leave 1e-5 chord) is
+   * closed: its panel would make the node equations 0 and n-1 nearly equal */
+  double lte = 0.5 * (hypot(x[1] - x[0], y[1] - y[0]) + hypot(x[n - 1] - x[n - 2], y[n - 1] - y[n - 2]));
+  w->sharp = w->te_len < ASCR_PANEL_SHARP_TE_GAP * perim || w->te_len < 0.05 * lte;
   /* trailing-edge bisector b, pointing downstream */
   double ux = x[0] - x[1], uy = y[0] - y[1], lx = x[n - 1] - x[n - 2], ly = y[n - 1] - y[n - 2];
   double lu = hypot(ux, uy), ll = hypot(lx, ly);

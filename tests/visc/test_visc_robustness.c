@@ -1,0 +1,82 @@
+/* tests/visc/test_visc_robustness.c
+ * Robustness of the viscous polar sweep on a subset that fits the test-time budget: NACA 0012,
+ * NACA 2412 and the sample plate at Re 60k, 200k and 1e6, alpha -4 to 12 deg in 1 deg steps.
+ * (The full grid of issue 3 - the samples and NACA 0012, 2412, 4412 at Re 30k .. 1e6, -6 to
+ * 16 deg by 0.5 deg - takes minutes; bench/study_visc_convergence prints it.)
+ * Every point must be either converged, with finite numbers and a final update below the
+ * tolerance, or flagged unconverged; and a share of the points must converge.
+ * Target (issue 3): 95 % converged. Not reached yet: the assertion guards the level reached so
+ * far on this subset (REACHED_FRACTION) so that a regression fails; raise it as the solver
+ * improves.
+ */
+#include "ascr_test.h"
+
+#include <airscrew/airscrew.h>
+#include <gsl/gsl_errno.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+
+#define REACHED_FRACTION 0.85
+
+static void test_visc_polar_sweeps_flag_every_point_and_mostly_converge(void **state)
+{
+  (void)state;
+  const char *secs[] = {"naca0012", "naca2412",
+                        ASCR_SOURCE_DIR "/airfoils/microprop-plate-t25-f45.dat"};
+  const double res[] = {6e4, 2e5, 1e6};
+  size_t total = 0, conv = 0;
+  for (size_t is = 0; is < sizeof secs / sizeof secs[0]; is++) {
+    ascr_geom_section *raw = NULL, *s = NULL;
+    ascr_errbuf e;
+    if (ascr_geom_is_spec(secs[is])) {
+      assert_int_equal(ascr_geom_section_from_spec(secs[is], &raw, &e), ASCR_OK);
+    } else {
+      assert_int_equal(ascr_geom_section_read(secs[is], &raw, NULL, &e), ASCR_OK);
+    }
+    assert_int_equal(ascr_geom_section_repanel(raw, NULL, &s, &e), ASCR_OK);
+    size_t n = ascr_geom_section_size(s);
+    ascr_panel_solver *w = ascr_panel_solver_alloc(n);
+    assert_int_equal(ascr_panel_solver_set(w, s, &e), ASCR_OK);
+    ascr_visc_solver *v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
+    for (size_t ir = 0; ir < sizeof res / sizeof res[0]; ir++) {
+      ascr_visc_params p = ascr_visc_params_defaults();
+      p.re = res[ir];
+      assert_int_equal(ascr_visc_solver_set(v, w, &p, &e), ASCR_OK);
+      size_t np = ascr_polar_grid_size(-4.0, 12.0, 1.0);
+      assert_int_equal(np, 17);
+      ascr_polar_point *pts = calloc(np, sizeof *pts);
+      ascr_polar_summary sum;
+      assert_int_equal(ascr_polar_sweep(v, -4.0, 12.0, 1.0, pts, &sum, NULL, NULL, &e), ASCR_OK);
+      for (size_t i = 0; i < np; i++) {
+        const ascr_polar_point *q = &pts[i];
+        assert_true(q->converged == 0 || q->converged == 1);
+        if (q->converged) {
+          assert_true(isfinite(q->cl) && isfinite(q->cd) && isfinite(q->cm) && isfinite(q->cdf));
+          assert_true(q->cd > 0.0);
+          assert_true(q->residual <= p.tol);
+        }
+      }
+      print_message("%-55s Re %7.0f: %2zu/%zu converged\n", ascr_geom_section_name(s), res[ir],
+                    sum.n_converged, sum.n_points);
+      total += sum.n_points;
+      conv += sum.n_converged;
+      free(pts);
+    }
+    ascr_visc_solver_free(v);
+    ascr_panel_solver_free(w);
+    ascr_geom_section_free(s);
+    ascr_geom_section_free(raw);
+  }
+  print_message("converged %zu of %zu points (%.1f %%)\n", conv, total, 100.0 * (double)conv / (double)total);
+  assert_true((double)conv >= REACHED_FRACTION * (double)total);
+}
+
+int main(void)
+{
+  gsl_set_error_handler_off();
+  const struct CMUnitTest tests[] = {
+    cmocka_unit_test(test_visc_polar_sweeps_flag_every_point_and_mostly_converge),
+  };
+  return cmocka_run_group_tests(tests, NULL, NULL);
+}
