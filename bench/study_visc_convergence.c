@@ -1,0 +1,62 @@
+/* bench/study_visc_convergence.c
+ * The converged share of the viscous polar sweep on the full grid of issue 3: the sample
+ * sections and NACA 0012, 2412, 4412 at Re 30k, 60k, 100k, 200k and 1e6, alpha -6 to 16 deg
+ * by 0.5 deg. Prints a table and the total; takes minutes. Figures only.
+ */
+#include <airscrew/airscrew.h>
+#include <gsl/gsl_errno.h>
+#include <stdio.h>
+#include <stdlib.h>
+
+void openblas_set_num_threads(int num_threads);
+
+int main(int argc, char **argv)
+{
+  gsl_set_error_handler_off();
+  openblas_set_num_threads(1);
+  const char *dir = argc > 1 ? argv[1] : "airfoils";
+  char plate[512], n4412[512];
+  snprintf(plate, sizeof plate, "%s/microprop-plate-t25-f45.dat", dir);
+  snprintf(n4412, sizeof n4412, "%s/naca4412.dat", dir);
+  const char *secs[] = {plate, n4412, "naca0012", "naca2412", "naca4412"};
+  const double res[] = {3e4, 6e4, 1e5, 2e5, 1e6};
+  size_t total = 0, conv = 0;
+  printf("%-32s", "section \\ Re");
+  for (int ir = 0; ir < 5; ir++) printf(" %8.0f", res[ir]);
+  printf("\n");
+  for (int is = 0; is < 5; is++) {
+    ascr_geom_section *raw = NULL, *s = NULL;
+    ascr_status st = ascr_geom_is_spec(secs[is]) ? ascr_geom_section_from_spec(secs[is], &raw, NULL)
+                                                 : ascr_geom_section_read(secs[is], &raw, NULL, NULL);
+    if (st != ASCR_OK || ascr_geom_section_repanel(raw, NULL, &s, NULL) != ASCR_OK) {
+      fprintf(stderr, "cannot load %s (run from the source folder or give the airfoils folder)\n", secs[is]);
+      return 1;
+    }
+    size_t n = ascr_geom_section_size(s);
+    ascr_panel_solver *w = ascr_panel_solver_alloc(n);
+    ascr_panel_solver_set(w, s, NULL);
+    ascr_visc_solver *v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
+    printf("%-32.32s", secs[is]);
+    for (int ir = 0; ir < 5; ir++) {
+      ascr_visc_params p = ascr_visc_params_defaults();
+      p.re = res[ir];
+      ascr_visc_solver_set(v, w, &p, NULL);
+      size_t np = ascr_polar_grid_size(-6.0, 16.0, 0.5);
+      ascr_polar_point *pts = calloc(np, sizeof *pts);
+      ascr_polar_summary sum;
+      ascr_polar_sweep(v, -6.0, 16.0, 0.5, pts, &sum, NULL, NULL, NULL);
+      printf("  %3zu/%-3zu", sum.n_converged, sum.n_points);
+      fflush(stdout);
+      total += sum.n_points;
+      conv += sum.n_converged;
+      free(pts);
+    }
+    printf("\n");
+    ascr_visc_solver_free(v);
+    ascr_panel_solver_free(w);
+    ascr_geom_section_free(s);
+    ascr_geom_section_free(raw);
+  }
+  printf("converged %zu of %zu points (%.1f %%)\n", conv, total, 100.0 * (double)conv / (double)total);
+  return 0;
+}
