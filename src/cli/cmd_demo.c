@@ -1,8 +1,9 @@
 /* src/cli/cmd_demo.c
  * "airscrew demo": the built-in demonstration. For now it analyses sample sections: shape
- * metrics and an inviscid sweep of cl, cm and the suction peak. With no arguments it uses
- * built-in generator specs (our own thin cambered plate for an indoor micro-drone propeller,
- * and two NACA references); otherwise the sections named on the command line.
+ * metrics, an inviscid sweep of cl, cm and the suction peak, and viscous polars at two
+ * Reynolds numbers typical of small propeller blades. With no arguments it uses built-in
+ * generator specs (our own thin cambered plate for an indoor micro-drone propeller, and two
+ * NACA references); otherwise the sections named on the command line.
  */
 #include "cli.h"
 #include "commands.h"
@@ -52,6 +53,45 @@ static int demo_one(FILE *fp, const char *arg)
     }
     fprintf(fp, "   %8d %9.4f %9.4f %9.4f %8.3f\n", a, r.cl, r.cl_circ, r.cm, r.cp_min);
   }
+  {
+    /* viscous polars at blade Reynolds numbers of a small propeller */
+    const double res[2] = {6e4, 2e5};
+    ascr_visc_solver *v = ascr_visc_solver_alloc(ascr_geom_section_size(s),
+                                                 ascr_visc_default_wake_nodes(ascr_geom_section_size(s)));
+    ascr_polar_point pts[6];
+    ascr_polar_summary sum;
+    if (v == NULL) {
+      cli_error("out of memory");
+      rc = CLI_EXIT_INTERNAL;
+      goto done;
+    }
+    fprintf(fp, "   viscous (N_crit 9):\n   %8s", "alpha");
+    for (int k = 0; k < 2; k++) fprintf(fp, "   %-9s %8s %6s", k == 0 ? "cl 60k" : "cl 200k", "cd", "L/D");
+    fputc('\n', fp);
+    ascr_polar_point all[2][6];
+    for (int k = 0; k < 2; k++) {
+      ascr_visc_params vp = ascr_visc_params_defaults();
+      vp.re = res[k];
+      if (ascr_visc_solver_set(v, w, &vp, &err) != ASCR_OK ||
+          ascr_polar_sweep(v, -2.0, 8.0, 2.0, pts, &sum, NULL, NULL, &err) != ASCR_OK) {
+        cli_error("%s", err.msg);
+        rc = CLI_EXIT_ANALYSIS;
+        ascr_visc_solver_free(v);
+        goto done;
+      }
+      for (int i = 0; i < 6; i++) all[k][i] = pts[i];
+    }
+    for (int i = 0; i < 6; i++) {
+      fprintf(fp, "   %8.1f", all[0][i].alpha_deg);
+      for (int k = 0; k < 2; k++) {
+        const ascr_polar_point *q = &all[k][i];
+        if (q->converged) fprintf(fp, "   %9.4f %8.5f %6.1f", q->cl, q->cd, q->cl / q->cd);
+        else fprintf(fp, "   %-25s", "   (not converged)");
+      }
+      fputc('\n', fp);
+    }
+    ascr_visc_solver_free(v);
+  }
 done:
   ascr_panel_solver_free(w);
   ascr_geom_section_free(s);
@@ -64,7 +104,8 @@ int cmd_demo(int argc, char **argv)
   for (int i = 1; i < argc; i++) {
     if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
       fputs("usage: airscrew demo [SECTION...]\n\n"
-            "Built-in demonstration: shape and inviscid lift of sample sections.\n"
+            "Built-in demonstration: shape, inviscid lift and viscous polars (Re 60k and 200k)\n"
+            "of sample sections.\n"
             "Without SECTION arguments it uses built-in sections: a thin cambered plate\n"
             "designed for an indoor micro-drone propeller, NACA 4412 and NACA 0012.\n",
             stdout);
@@ -78,9 +119,10 @@ int cmd_demo(int argc, char **argv)
   cli_output out;
   int rc = cli_output_open(&out, NULL, 0);
   if (rc) return rc;
-  fprintf(out.fp, "airscrew %s demo: section shape and inviscid lift (%d panels)\n",
+  fprintf(out.fp, "airscrew %s demo: section shape, inviscid lift, viscous polars (%d panels)\n",
           ascr_version(), ASCR_GEOM_DEFAULT_PANELS);
-  fprintf(out.fp, "Inviscid potential flow: no drag, no stall, no Reynolds-number effect yet.\n");
+  fprintf(out.fp, "The inviscid table has no drag and no stall; the viscous polars are estimates\n"
+          "from an integral boundary-layer method.\n");
   if (argc > 1) {
     for (int i = 1; i < argc && rc == 0; i++) rc = demo_one(out.fp, argv[i]);
   } else {

@@ -150,6 +150,72 @@ static void test_cli_section_points_round_trip(void **state)
   rmdir(dir);
 }
 
+/* Viscous contract: "flow ... --re RE --json" adds cd, cdf, cdp, x_transition_upper,
+ * x_transition_lower, converged and the boundary-layer distributions. */
+static void test_cli_flow_viscous_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("flow naca2412 --alpha 2 --re 2e5 --json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  assert_true(json_is_true(json_object_get(j, "converged")));
+  double cl = num(j, "cl"), cd = num(j, "cd"), cdf = num(j, "cdf"), cdp = num(j, "cdp");
+  assert_true(cl > 0.3 && cl < 0.8);
+  assert_true(cd > 0.0 && cdf > 0.0);
+  ascr_assert_close(cdf + cdp, cd, 1e-9, 1e-12, "cd = cdf + cdp");
+  double xu = num(j, "x_transition_upper");
+  assert_true(xu > 0.0 && xu <= 1.0);
+  (void)num(j, "cm");
+  json_t *sf = json_object_get(j, "surface");
+  assert_true(json_is_array(json_object_get(sf, "cp")));
+  json_t *bl = json_object_get(j, "boundary_layer");
+  assert_true(json_is_object(bl));
+  size_t n = json_array_size(json_object_get(bl, "s"));
+  assert_true(n > 160);
+  const char *keys[] = {"side", "x", "y", "ue", "dstar", "theta", "shape_factor", "cf",
+                        "n_or_sqrt_ctau", "turbulent"};
+  for (size_t k = 0; k < sizeof keys / sizeof keys[0]; k++) {
+    assert_int_equal(json_array_size(json_object_get(bl, keys[k])), n);
+  }
+  json_decref(j);
+}
+
+/* Polar contract: an object with a list "polars", each with re, mach, ncrit and a list
+ * "points" of alpha_deg, cl, cd, cdf, cdp, cm, x_transition_upper, x_transition_lower,
+ * converged. */
+static void test_cli_polar_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("polar naca0012 --re 1e6,3e6 --alpha 0:4:2 --json", &code);
+  assert_int_equal(code, 0);
+  json_t *pl = json_object_get(j, "polars");
+  assert_true(json_is_array(pl));
+  assert_int_equal(json_array_size(pl), 2);
+  const double res[2] = {1e6, 3e6};
+  for (size_t k = 0; k < 2; k++) {
+    json_t *p = json_array_get(pl, k);
+    ascr_assert_close(num(p, "re"), res[k], 1e-12, 0, "re");
+    ascr_assert_close(num(p, "mach"), 0.0, 0, 0, "mach");
+    ascr_assert_close(num(p, "ncrit"), 9.0, 0, 0, "ncrit");
+    json_t *pts = json_object_get(p, "points");
+    assert_int_equal(json_array_size(pts), 3);
+    double prev = -1.0;
+    for (size_t i = 0; i < 3; i++) {
+      json_t *q = json_array_get(pts, i);
+      ascr_assert_close(num(q, "alpha_deg"), 2.0 * (double)i, 0, 1e-12, "alpha");
+      assert_true(json_is_true(json_object_get(q, "converged")));
+      double cl = num(q, "cl");
+      assert_true(cl > prev);
+      prev = cl;
+      const char *keys[] = {"cd", "cdf", "cdp", "cm", "x_transition_upper", "x_transition_lower"};
+      for (size_t m = 0; m < 6; m++) (void)num(q, keys[m]);
+    }
+  }
+  json_decref(j);
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
@@ -157,6 +223,8 @@ int main(void)
     cmocka_unit_test(test_cli_flow_json_contract_matches_library),
     cmocka_unit_test(test_cli_flow_json_mach_raises_lift),
     cmocka_unit_test(test_cli_section_points_round_trip),
+    cmocka_unit_test(test_cli_flow_viscous_json_contract),
+    cmocka_unit_test(test_cli_polar_json_contract),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
