@@ -93,6 +93,13 @@ ASCR_EXPORT void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *
 /** Surface pressure of the last solve at the section nodes (n_nodes entries). */
 ASCR_EXPORT void ascr_visc_solver_cp(const ascr_visc_solver *v, double *cp);
 
+/** Per-iteration trace: iteration number, largest residual, largest Newton update (log units),
+ *  relaxation applied, 1 if a transition interval moved, 1 if the stagnation point changed
+ *  panel. Called from _solve when set; ctx is borrowed. */
+typedef void (*ascr_visc_trace_fn)(void *ctx, int iteration, double residual_max, double update,
+                                   double relax, int transition_moved, int stagnation_moved);
+ASCR_EXPORT void ascr_visc_solver_set_trace(ascr_visc_solver *v, ascr_visc_trace_fn fn, void *ctx);
+
 /** Free; NULL is a no-op. */
 ASCR_EXPORT void ascr_visc_solver_free(ascr_visc_solver *v);
 

@@ -129,6 +129,13 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
 
 size_t ascr_visc_solver_stations(const ascr_visc_solver *v) { return v ? v->nst : 0; }
 
+void ascr_visc_solver_set_trace(ascr_visc_solver *v, ascr_visc_trace_fn fn, void *ctx)
+{
+  if (v == NULL) return;
+  v->trace = fn;
+  v->trace_ctx = ctx;
+}
+
 void visc_snapshot(ascr_visc_solver *v)
 {
   v->sv_have = v->have_solution;
@@ -1070,7 +1077,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
-  int converged = 0, it, n_moves = 0;
+  int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0;
   double rel = INFINITY;
   update_ue(v);
   relocate_stagnation(v);
@@ -1102,7 +1109,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       tchange = update_transition(v, cxs);
       n_moves += tchange;
     }
-    assemble(v, cxs);
+    double rmax = assemble(v, cxs);
     /* unknowns in log form: theta, m, and sqrt(Ctau) where turbulent */
     for (size_t k = 0; k < nst; k++) {
       double sc0 = v->th[k], sc1 = v->mm[k], sc2 = v->turb[k] ? v->cc[k] : 1.0;
@@ -1131,16 +1138,30 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       saved[3 * k + 2] = v->cc[k];
     }
     double f0 = residual_norm2(v, cxs);
+    int descended = 0;
     for (int ls = 0; ls < 8 && f0 > 1e-16; ls++) {
       set_trial(v, saved, rlx);
       update_ue(v);
       set_xi(v);
       double f1 = residual_norm2(v, cxs);
-      if (f1 < f0 * (1.0 - 1e-4 * rlx) || ls == 7) break;
+      if (f1 < f0 * (1.0 - 1e-4 * rlx)) {
+        descended = 1;
+        break;
+      }
+      if (ls == 7) break; /* take the smallest step anyway: early iterations often need it */
       rlx *= 0.5;
+    }
+    if (f0 <= 1e-16) descended = 1;
+    /* many steps in a row that do not lower the residual: the iteration is lost (a kink of the
+     * closures or a transition/stagnation change it cannot follow); stop rather than drift */
+    n_uphill = descended ? 0 : n_uphill + 1;
+    if (n_uphill >= 8) {
+      stalled = 1;
+      break;
     }
     update_ue(v);
     int smoved = relocate_stagnation(v);
+    if (v->trace) v->trace(v->trace_ctx, it, rmax, rel, rlx, tchange, smoved > 0);
     if (smoved < 0) break;
     if (rel < v->p.tol && !tchange && smoved == 0) {
       converged = 1;
@@ -1158,8 +1179,9 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   v->have_solution = converged;
   if (!converged) {
     return core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged "
-                     "after %d iterations (largest relative update %.2e)",
-                     alpha_rad * 180.0 / ASCR_PI, v->p.re, r->iterations, rel);
+                     "after %d iterations (largest relative update %.2e%s)",
+                     alpha_rad * 180.0 / ASCR_PI, v->p.re, r->iterations, rel,
+                     stalled ? "; stopped after 8 steps without descent" : "");
   }
   return ASCR_OK;
 }

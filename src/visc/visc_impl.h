@@ -96,6 +96,8 @@ struct ascr_visc_solver {
   size_t sv_is;
   double sv_s_stag;
   int sv_have;
+  ascr_visc_trace_fn trace;
+  void *trace_ctx;
 };
 
 /* Save the current converged state / bring it back (for continuation after a failed point). */
