@@ -2,7 +2,7 @@
  * Timing of the inviscid panel stage: repanelling, influence-matrix setup + LU factor
  * (ascr_panel_solver_set), and one further angle of attack (ascr_panel_solver_solve with the
  * Cp and q arrays), at 80, 160 and 320 panels on NACA 2412. Prints the median of repeated
- * measurements (wall clock, CLOCK_MONOTONIC). Goal on a 2-core machine: 160 panels set-up +
+ * measurements (wall clock, CLOCK_MONOTONIC), one OpenBLAS thread. Goal on a 2-core machine: 160 panels set-up +
  * factor < 5 ms, each further alpha < 20 us. Not a test: figures only.
  */
 #define _POSIX_C_SOURCE 200809L
@@ -12,28 +12,14 @@
 #include <stdlib.h>
 #include <time.h>
 
-static double now(void)
-{
-  struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
-  return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
-}
+#include "bench_util.h"
 
-static int cmp(const void *a, const void *b)
-{
-  double x = *(const double *)a, y = *(const double *)b;
-  return (x > y) - (x < y);
-}
-
-static double median(double *v, int n)
-{
-  qsort(v, (size_t)n, sizeof *v, cmp);
-  return n % 2 ? v[n / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
-}
+void openblas_set_num_threads(int num_threads);
 
 int main(void)
 {
   gsl_set_error_handler_off();
+  openblas_set_num_threads(1); /* small systems: threads cost more than they save */
   ascr_geom_section *s = NULL;
   if (ascr_geom_section_from_spec("naca2412", &s, NULL) != ASCR_OK) return 1;
   const size_t counts[3] = {80, 160, 320};
@@ -47,32 +33,32 @@ int main(void)
     ascr_geom_section *r = NULL;
     for (int i = 0; i < REPEATS; i++) {
       ascr_geom_section_free(r);
-      double t0 = now();
+      double t0 = bench_now();
       if (ascr_geom_section_repanel(s, &p, &r, NULL) != ASCR_OK) return 1;
-      trep[i] = now() - t0;
+      trep[i] = bench_now() - t0;
     }
     size_t n = ascr_geom_section_size(r);
     ascr_panel_solver *w = ascr_panel_solver_alloc(n);
     double *cp = malloc(n * sizeof *cp), *q = malloc(n * sizeof *q);
     for (int i = 0; i < REPEATS; i++) {
-      double t0 = now();
+      double t0 = bench_now();
       if (ascr_panel_solver_set(w, r, NULL) != ASCR_OK) return 1;
-      tset[i] = now() - t0;
+      tset[i] = bench_now() - t0;
     }
     volatile double sink = 0.0;
     for (int i = 0; i < REPEATS; i++) {
-      double t0 = now();
+      double t0 = bench_now();
       for (int a = 0; a < ALPHAS; a++) {
         ascr_panel_result res;
         ascr_panel_solver_solve(w, (-5.0 + 0.07 * a) * 3.14159265358979323846 / 180.0, 0.0, &res,
                                 cp, q, NULL);
         sink += res.cl;
       }
-      talpha[i] = (now() - t0) / ALPHAS;
+      talpha[i] = (bench_now() - t0) / ALPHAS;
     }
     (void)sink;
-    printf("%8zu %14.3f %20.3f %16.2f\n", counts[k], 1e3 * median(trep, REPEATS),
-           1e3 * median(tset, REPEATS), 1e6 * median(talpha, REPEATS));
+    printf("%8zu %14.3f %20.3f %16.2f\n", counts[k], 1e3 * bench_median(trep, REPEATS),
+           1e3 * bench_median(tset, REPEATS), 1e6 * bench_median(talpha, REPEATS));
     free(cp);
     free(q);
     ascr_panel_solver_free(w);

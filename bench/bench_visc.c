@@ -15,20 +15,9 @@
 #include <stdlib.h>
 #include <time.h>
 
+#include "bench_util.h"
+
 void openblas_set_num_threads(int num_threads);
-
-static double now(void)
-{
-  struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
-  return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
-}
-
-static int cmp(const void *a, const void *b)
-{
-  double x = *(const double *)a, y = *(const double *)b;
-  return (x > y) - (x < y);
-}
 
 static double lu_time(int n)
 {
@@ -39,11 +28,11 @@ static double lu_time(int n)
     srand(12345);
     for (int i = 0; i < n * n; i++) a[i] = (double)rand() / RAND_MAX + (i % (n + 1) == 0 ? n : 0);
     for (int i = 0; i < n; i++) b[i] = 1.0;
-    double t0 = now();
+    double t0 = bench_now();
     LAPACKE_dgesv(LAPACK_COL_MAJOR, n, 1, a, n, ip, b, n);
-    t[rep] = now() - t0;
+    t[rep] = bench_now() - t0;
   }
-  qsort(t, 7, sizeof *t, cmp);
+  qsort(t, 7, sizeof *t, bench_cmp);
   free(a);
   free(b);
   free(ip);
@@ -75,9 +64,9 @@ int main(void)
     ascr_visc_solver_set(v, w, &p, NULL);
     /* cold start at 2 deg */
     ascr_visc_result r;
-    double t0 = now();
+    double t0 = bench_now();
     ascr_visc_solver_solve(v, 2.0 * 3.14159265358979323846 / 180.0, 0, &r, NULL);
-    double tcold = now() - t0;
+    double tcold = bench_now() - t0;
     /* sweep: per-point time from the progress callback is not available, so time each point
      * by sweeping in single steps with continuation */
     size_t np = ascr_polar_grid_size(-2.0, 10.0, 0.5);
@@ -87,14 +76,14 @@ int main(void)
     int warm = 0;
     for (size_t i = 0; i < np; i++) {
       double a = (-2.0 + 0.5 * (double)i) * 3.14159265358979323846 / 180.0;
-      t0 = now();
+      t0 = bench_now();
       ascr_status st = ascr_visc_solver_solve(v, a, warm, &r, NULL);
-      tp[i] = now() - t0;
+      tp[i] = bench_now() - t0;
       its += r.iterations;
       if (st == ASCR_OK) conv++;
       warm = st == ASCR_OK;
     }
-    qsort(tp, np, sizeof *tp, cmp);
+    qsort(tp, np, sizeof *tp, bench_cmp);
     double med = tp[np / 2];
     printf("%8.0e %6zu/%-3zu %12.2f %12.1f %10.1f %12.1f\n", res[k], conv, np, 1e3 * med,
            (double)its / (double)np, med / tlu, 1e3 * tcold);

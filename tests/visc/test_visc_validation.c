@@ -63,6 +63,24 @@ static double cd_at_cl(const polar *pl, double cl)
   return NAN;
 }
 
+/* Compare the polar's cd at each reference cl within [cl_lo, cl_hi] with the reference cd,
+ * relative tolerance tol. Returns the number of points compared. */
+static int compare_cd(const polar *pl, const double *cl, const double *cd, size_t nr,
+                      double cl_lo, double cl_hi, double tol, const char *what, const char *ref)
+{
+  int checked = 0;
+  for (size_t i = 0; i < nr; i++) {
+    if (cl[i] < cl_lo || cl[i] > cl_hi) continue;
+    double c = cd_at_cl(pl, cl[i]);
+    char d[96];
+    snprintf(d, sizeof d, "%s cd at cl %.3f", what, cl[i]);
+    print_message("%s: airscrew %.5f, %s %.5f\n", d, c, ref, cd[i]);
+    ascr_assert_close(c, cd[i], tol, 0.0, d);
+    checked++;
+  }
+  return checked;
+}
+
 static double cl_at_alpha(const polar *pl, double alpha)
 {
   for (size_t i = 0; i + 1 < pl->n; i++) {
@@ -117,17 +135,7 @@ static void test_visc_naca0012_re6e6_drag_matches_abbott(void **state)
   double cl[40], cd[40];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cd_cl_digitized.csv", -1, 0, 0, 1, cl, cd, 40);
   assert_true(nr > 10);
-  int checked = 0;
-  for (size_t i = 0; i < nr; i++) {
-    if (cl[i] < 0.0 || cl[i] > 0.7) continue;
-    double c = cd_at_cl(&pl, cl[i]);
-    char d[80];
-    snprintf(d, sizeof d, "NACA 0012 Re 6e6 cd at cl %.3f", cl[i]);
-    print_message("%s: airscrew %.5f, Abbott %.5f\n", d, c, cd[i]);
-    ascr_assert_close(c, cd[i], 0.12, 0.0, d);
-    checked++;
-  }
-  assert_true(checked >= 5);
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.0, 0.7, 0.12, "NACA 0012 Re 6e6", "Abbott") >= 5);
   /* lift slope: McCroskey (1987) best fit dcl/dalpha = (0.1025 + 0.00485 log10(Re/1e6))/deg
    * (reference/naca0012_mccroskey_lift_slope.csv header); its data scatter about +-4 %, and
    * we take the slope between 0 and 4 deg; tolerance 6 % */
@@ -153,17 +161,7 @@ static void test_visc_naca0012_tripped_drag_matches_ladson(void **state)
   size_t nr = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 3, al, cd, 40);
   size_t nr2 = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 2, al2, cl, 40);
   assert_true(nr > 5 && nr2 == nr);
-  int checked = 0;
-  for (size_t i = 0; i < nr; i++) {
-    if (cl[i] < -0.2 || cl[i] > 0.8) continue;
-    double c = cd_at_cl(&pl, cl[i]);
-    char d[80];
-    snprintf(d, sizeof d, "NACA 0012 tripped cd at cl %.3f", cl[i]);
-    print_message("%s: airscrew %.5f, Ladson %.5f\n", d, c, cd[i]);
-    ascr_assert_close(c, cd[i], 0.10, 0.0, d);
-    checked++;
-  }
-  assert_true(checked >= 4);
+  assert_true(compare_cd(&pl, cl, cd, nr, -0.2, 0.8, 0.10, "NACA 0012 tripped", "Ladson") >= 4);
   free(pl.p);
   ascr_geom_section_free(raw);
 }
@@ -184,17 +182,7 @@ static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
   double cl[40], cd[40];
   size_t nr = read_ref("sd7003_uiuc_lsat_drag.csv", 0, 101600.0, 2, 3, cl, cd, 40);
   assert_true(nr >= 8);
-  int checked = 0;
-  for (size_t i = 0; i < nr; i++) {
-    if (cl[i] < 0.3 || cl[i] > 0.9) continue;
-    double c = cd_at_cl(&pl, cl[i]);
-    char d[80];
-    snprintf(d, sizeof d, "SD7003 Re 1e5 cd at cl %.3f", cl[i]);
-    print_message("%s: airscrew %.5f, UIUC %.5f\n", d, c, cd[i]);
-    ascr_assert_close(c, cd[i], 0.20, 0.0, d);
-    checked++;
-  }
-  assert_true(checked >= 3);
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, "SD7003 Re 1e5", "UIUC") >= 3);
   free(pl.p);
   ascr_geom_section_free(raw);
 }
