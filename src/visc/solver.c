@@ -692,7 +692,7 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
       }
     }
     /* upstream move: a laminar station already past N_crit, or past the trip */
-    for (size_t k = k0 + 2; k < kt; k++) {
+    for (size_t k = k0 + 1; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip && v->xi[k - 1] < cx->xi_trip;
       if (v->cc[k] >= cx->ncrit + TR_HYST || trip) {
         for (size_t j = k; j < k1; j++) {
