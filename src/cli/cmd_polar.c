@@ -250,8 +250,8 @@ int cmd_polar(int argc, char **argv)
         fprintf(fp, "\nRe %.4g   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
-        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %8s %8s %6s\n", "alpha", "cl", "cd", "cdf", "cdp",
-                "cm", "xtr_up", "xtr_lo", "L/D");
+        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %9s %9s %6s\n", "alpha", "cl", "cd", "cdf", "cdp",
+                "cm", "trans_up", "trans_lo", "L/D");
         for (size_t i = 0; i < npts; i++) {
           const ascr_polar_point *q = &pts[k * npts + i];
           if (!q->converged) {
@@ -261,7 +261,7 @@ int cmd_polar(int argc, char **argv)
           char tu[16], tl[16];
           snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "-", q->x_transition_upper);
           snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
-          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %8s %8s %6.1f\n", q->alpha_deg, q->cl,
+          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %9s %9s %6.1f\n", q->alpha_deg, q->cl,
                   q->cd, q->cdf, q->cdp, q->cm, tu, tl, q->cl / q->cd);
         }
         if (sums[k].n_converged > 0) {

@@ -52,10 +52,10 @@ static void fill(ascr_polar_point *p, double alpha_deg, const ascr_visc_result *
 static int solve_point(ascr_visc_solver *v, int have_last, double alast, double target,
                        ascr_visc_result *r)
 {
-  if (have_last) visc_restore(v);
+  if (have_last) visc_restore(v, 0);
   ascr_status st = ascr_visc_solver_solve(v, target * DEG, have_last, r, NULL);
   if (st == ASCR_OK) {
-    visc_snapshot(v);
+    visc_snapshot(v, 0);
     return 1;
   }
   if (!have_last) return 0;
@@ -63,7 +63,7 @@ static int solve_point(ascr_visc_solver *v, int have_last, double alast, double 
   /* refine: approach the target in halving steps from the last converged angle */
   for (int level = 1; level <= 3; level++) {
     int parts = 1 << level, ok = 1;
-    visc_restore(v);
+    visc_restore(v, 0);
     for (int k = 1; k < parts && ok; k++) {
       double mid = alast + (target - alast) * (double)k / (double)parts;
       ascr_visc_result rm;
@@ -75,12 +75,12 @@ static int solve_point(ascr_visc_solver *v, int have_last, double alast, double 
     total_its += r->iterations;
     if (st == ASCR_OK) {
       r->iterations = total_its;
-      visc_snapshot(v);
+      visc_snapshot(v, 0);
       return 1;
     }
   }
   r->iterations = total_its;
-  visc_restore(v);
+  visc_restore(v, 0);
   return 0;
 }
 
@@ -113,7 +113,7 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
     return st;
   }
   its += rs.iterations;
-  visc_snapshot(v);
+  visc_snapshot(v, 0);
   int nsteps = (int)ceil(fabs(alpha_deg - start));
   double alast = start;
   for (int k = 1; k <= nsteps; k++) {
@@ -126,7 +126,7 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
     alast = a;
   }
   if (alast == alpha_deg || nsteps == 0) {
-    visc_restore(v);
+    visc_restore(v, 0);
     st = ascr_visc_solver_solve(v, alpha_deg * DEG, 1, r, err);
   } else {
     st = ascr_visc_solver_solve(v, alpha_deg * DEG, 0, r, err);
@@ -189,7 +189,7 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
     double a = a0 + step * (double)i0;
     ascr_visc_result rb;
     if (ascr_visc_solver_solve(v, a * DEG, 0, &rb, NULL) == ASCR_OK) {
-      visc_snapshot(v);
+      visc_snapshot(v, 0);
       have = 1;
       alast = a;
     }

@@ -102,10 +102,12 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
-  ALLOC(v->sv_th, nst);
-  ALLOC(v->sv_mm, nst);
-  ALLOC(v->sv_cc, nst);
-  ALLOC(v->sv_turb, nst);
+  for (int q = 0; q < 2; q++) {
+    ALLOC(v->sv_th[q], nst);
+    ALLOC(v->sv_mm[q], nst);
+    ALLOC(v->sv_cc[q], nst);
+    ALLOC(v->sv_turb[q], nst);
+  }
 #undef ALLOC
   if (!ok) {
     ascr_visc_solver_free(v);
@@ -123,7 +125,9 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp);
-  free(v->sv_th); free(v->sv_mm); free(v->sv_cc); free(v->sv_turb);
+  for (int q = 0; q < 2; q++) {
+    free(v->sv_th[q]); free(v->sv_mm[q]); free(v->sv_cc[q]); free(v->sv_turb[q]);
+  }
   free(v);
 }
 
@@ -136,27 +140,27 @@ void ascr_visc_solver_set_trace(ascr_visc_solver *v, ascr_visc_trace_fn fn, void
   v->trace_ctx = ctx;
 }
 
-void visc_snapshot(ascr_visc_solver *v)
+void visc_snapshot(ascr_visc_solver *v, int q)
 {
-  v->sv_have = v->have_solution;
-  if (!v->sv_have) return;
-  memcpy(v->sv_th, v->th, v->nst * sizeof *v->th);
-  memcpy(v->sv_mm, v->mm, v->nst * sizeof *v->mm);
-  memcpy(v->sv_cc, v->cc, v->nst * sizeof *v->cc);
-  memcpy(v->sv_turb, v->turb, v->nst * sizeof *v->turb);
-  v->sv_is = v->is;
-  v->sv_s_stag = v->s_stag;
+  v->sv_have[q] = v->have_solution;
+  if (!v->sv_have[q]) return;
+  memcpy(v->sv_th[q], v->th, v->nst * sizeof *v->th);
+  memcpy(v->sv_mm[q], v->mm, v->nst * sizeof *v->mm);
+  memcpy(v->sv_cc[q], v->cc, v->nst * sizeof *v->cc);
+  memcpy(v->sv_turb[q], v->turb, v->nst * sizeof *v->turb);
+  v->sv_is[q] = v->is;
+  v->sv_s_stag[q] = v->s_stag;
 }
 
-void visc_restore(ascr_visc_solver *v)
+void visc_restore(ascr_visc_solver *v, int q)
 {
-  if (!v->sv_have) return;
-  memcpy(v->th, v->sv_th, v->nst * sizeof *v->th);
-  memcpy(v->mm, v->sv_mm, v->nst * sizeof *v->mm);
-  memcpy(v->cc, v->sv_cc, v->nst * sizeof *v->cc);
-  memcpy(v->turb, v->sv_turb, v->nst * sizeof *v->turb);
-  v->is = v->sv_is;
-  v->s_stag = v->sv_s_stag;
+  if (!v->sv_have[q]) return;
+  memcpy(v->th, v->sv_th[q], v->nst * sizeof *v->th);
+  memcpy(v->mm, v->sv_mm[q], v->nst * sizeof *v->mm);
+  memcpy(v->cc, v->sv_cc[q], v->nst * sizeof *v->cc);
+  memcpy(v->turb, v->sv_turb[q], v->nst * sizeof *v->turb);
+  v->is = v->sv_is[q];
+  v->s_stag = v->sv_s_stag[q];
   v->have_solution = 1;
 }
 
@@ -672,12 +676,17 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
  * crossing point moves inside it (clamped to its ends), which stops the interval from
  * hopping back and forth between iterations. */
 #define TR_HYST 0.3
+/* Second phase: once converged with the wide band, the intervals may move again with a narrow
+ * one, so that the transition point is not left up to a band's worth of N upstream. */
+#define TR_HYST_FINE 0.02
+#define TR_FINE_MOVES 4
+#define TR_FINE_ITERS 20
 /* After this many moves the transition intervals stay where they are and the crossing point
  * is found within them (clamped to their ends): in separation bubbles the transition point
  * and the edge velocity feed back on each other and the interval can cycle between two
  * neighbours; the clamped result is then off by at most one panel. */
 #define TR_MAX_MOVES 8
-static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
+static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
 {
   int changed = 0;
   for (int side = 0; side < 2; side++) {
@@ -694,7 +703,7 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
     /* upstream move: a laminar station already past N_crit, or past the trip */
     for (size_t k = k0 + 1; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip && v->xi[k - 1] < cx->xi_trip;
-      if (v->cc[k] >= cx->ncrit + TR_HYST || trip) {
+      if (v->cc[k] >= cx->ncrit + hyst || trip) {
         for (size_t j = k; j < k1; j++) {
           if (!v->turb[j]) {
             v->turb[j] = 1;
@@ -722,7 +731,7 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3])
       double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
       int why = 0;
       size_t stop = bl_march_laminar_from(a.th, ha, a.c, ss, uu, cnt, cx->re, cx->mach,
-                                          cx->ncrit - TR_HYST, tt, hh, nn, &why);
+                                          cx->ncrit - hyst, tt, hh, nn, &why);
       /* stop: index (in the look-ahead) of the station where the march stopped; stations
        * 1..stop-1 become laminar */
       size_t knew = kt + (stop > 0 ? stop - 1 : 0);
@@ -1077,7 +1086,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
-  int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0;
+  int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0, fine = 0, it_fine = 0;
   double rel = INFINITY;
   update_ue(v);
   relocate_stagnation(v);
@@ -1097,7 +1106,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       v->turb[k] = 0;
     }
   }
-  for (it = 1; it <= v->p.max_iter; it++) {
+  for (it = 1; it <= v->p.max_iter + (fine ? TR_FINE_ITERS : 0); it++) {
     update_ue(v);
     set_xi(v);
     clamp_shape(v);
@@ -1105,8 +1114,8 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     /* transition moves only once the iteration has settled with the present intervals:
      * moving it while far from a solution makes the Newton iteration chase a moving target */
     int tchange = 0;
-    if ((rel < 0.05 || it == 1) && n_moves < TR_MAX_MOVES) {
-      tchange = update_transition(v, cxs);
+    if ((rel < 0.05 || it == 1) && n_moves < (fine ? TR_FINE_MOVES : TR_MAX_MOVES)) {
+      tchange = update_transition(v, cxs, fine ? TR_HYST_FINE : TR_HYST);
       n_moves += tchange;
     }
     double rmax = assemble(v, cxs);
@@ -1164,9 +1173,30 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     if (v->trace) v->trace(v->trace_ctx, it, rmax, rel, rlx, tchange, smoved > 0);
     if (smoved < 0) break;
     if (rel < v->p.tol && !tchange && smoved == 0) {
+      if (!fine) {
+        /* converged with the wide band: keep this solution and try to place transition
+         * more exactly with the narrow one */
+        v->have_solution = 1;
+        visc_snapshot(v, 1);
+        fine = 1;
+        it_fine = it;
+        n_moves = 0;
+        continue;
+      }
       converged = 1;
       break;
     }
+    if (fine && it - it_fine >= TR_FINE_ITERS) break;
+  }
+  if (fine && !converged) {
+    /* the narrow band did not settle: the wide-band solution stands (restaged at its own
+     * stagnation point) */
+    visc_restore(v, 1);
+    restage(v, v->is, v->s_stag);
+    update_ue(v);
+    set_xi(v);
+    converged = 1;
+    rel = 0.0;
   }
   update_ue(v);
   vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};

@@ -90,18 +90,19 @@ struct ascr_visc_solver {
   lapack_int *ipiv;
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
-  /* a saved converged state (visc_snapshot / visc_restore) */
-  double *sv_th, *sv_mm, *sv_cc;
-  int *sv_turb;
-  size_t sv_is;
-  double sv_s_stag;
-  int sv_have;
+  /* saved converged states (visc_snapshot / visc_restore): slot 0 for callers (sweeps),
+   * slot 1 for the solver's own use */
+  double *sv_th[2], *sv_mm[2], *sv_cc[2];
+  int *sv_turb[2];
+  size_t sv_is[2];
+  double sv_s_stag[2];
+  int sv_have[2];
   ascr_visc_trace_fn trace;
   void *trace_ctx;
 };
 
 /* Save the current converged state / bring it back (for continuation after a failed point). */
-void visc_snapshot(ascr_visc_solver *v);
-void visc_restore(ascr_visc_solver *v);
+void visc_snapshot(ascr_visc_solver *v, int slot);
+void visc_restore(ascr_visc_solver *v, int slot);
 
 #endif
