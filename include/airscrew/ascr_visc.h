@@ -32,11 +32,11 @@ typedef struct ascr_visc_params {
   double trip_upper;    /* forced transition x/c on the upper surface (> 1 for none) */
   double trip_lower;    /* forced transition x/c on the lower surface (> 1 for none) */
   double wake_length;   /* wake length, chords (default 1) */
-  int max_iter;         /* Newton iteration limit (default 40) */
+  int max_iter;         /* Newton iteration limit (default 60) */
   double tol;           /* convergence: largest relative update of theta and m (default 1e-7) */
 } ascr_visc_params;
 
-/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 40 iterations, 1e-7. */
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7. */
 ASCR_EXPORT ascr_visc_params ascr_visc_params_defaults(void);
 
 /** Default number of wake nodes for a section of n_nodes nodes. */

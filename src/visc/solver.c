@@ -42,7 +42,7 @@ ascr_visc_params ascr_visc_params_defaults(void)
   p.trip_upper = 2.0;
   p.trip_lower = 2.0;
   p.wake_length = 1.0;
-  p.max_iter = 40;
+  p.max_iter = 60;
   p.tol = 1e-7;
   return p;
 }

@@ -17,7 +17,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 
-#define REACHED_FRACTION 0.85
+#define REACHED_FRACTION 0.90
 
 static void test_visc_polar_sweeps_flag_every_point_and_mostly_converge(void **state)
 {
