@@ -7,6 +7,8 @@
  * afterwards down from the start point, each point warm-started from the last converged one.
  * When a point fails, intermediate angles between the last converged angle and the target are
  * solved first (halving the gap, up to three levels), and the target is retried from there.
+ * The downward walk starts from the lowest point that converged on the way up (so a failed
+ * start point does not leave the lower half without continuation).
  * A point that still fails is recorded unconverged and the walk continues from the last
  * converged solution. cl_max is the largest converged cl; stall is reported when a converged
  * point beyond it has a lower cl.
@@ -167,42 +169,51 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
   }
   size_t done = 0;
   ascr_visc_result r;
-  /* upward from i0 */
-  int have = 0, have_start = 0;
+  /* upward from i0; the lowest converged point is kept (slot 2) to start the downward walk */
+  int have = 0;
+  size_t ilow = n;
   double alast = NAN;
   for (size_t i = i0; i < n; i++) {
     double a = a0 + step * (double)i;
     int ok = solve_point(v, have, alast, a, &r);
     fill(&pts[i], a, &r);
     if (ok) {
-      if (i == i0) have_start = 1;
+      if (ilow == n) {
+        ilow = i;
+        visc_snapshot(v, 2);
+      }
       have = 1;
       alast = a;
     }
     if (progress) progress(progress_ctx, ++done, n);
   }
-  /* downward from i0 - 1, continuing from the start point (solved again from a fresh start,
-   * which reproduces its state) */
+  /* downward from the lowest converged point: first the points between it and i0 that failed
+   * going up are tried again, then the rest */
   have = 0;
   alast = NAN;
-  if (have_start && i0 > 0) {
-    double a = a0 + step * (double)i0;
-    ascr_visc_result rb;
-    if (ascr_visc_solver_solve(v, a * DEG, 0, &rb, NULL) == ASCR_OK) {
-      visc_snapshot(v, 0);
-      have = 1;
-      alast = a;
-    }
+  size_t istart = i0;
+  if (ilow < n) {
+    visc_restore(v, 2);
+    visc_snapshot(v, 0);
+    have = 1;
+    alast = a0 + step * (double)ilow;
+    istart = ilow;
   }
-  for (size_t i = i0; i-- > 0;) {
+  for (size_t i = istart; i-- > 0;) {
     double a = a0 + step * (double)i;
-    int ok = solve_point(v, have, alast, a, &r);
-    fill(&pts[i], a, &r);
+    ascr_visc_result rr;
+    int ok = solve_point(v, have, alast, a, &rr);
+    if (i >= i0) {
+      /* already tried on the way up: keep a success, otherwise the first record stands */
+      if (ok) fill(&pts[i], a, &rr);
+    } else {
+      fill(&pts[i], a, &rr);
+      if (progress) progress(progress_ctx, ++done, n);
+    }
     if (ok) {
       have = 1;
       alast = a;
     }
-    if (progress) progress(progress_ctx, ++done, n);
   }
   /* summary */
   sum->cl_max = NAN;

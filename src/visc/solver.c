@@ -102,7 +102,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
-  for (int q = 0; q < 2; q++) {
+  for (int q = 0; q < 3; q++) {
     ALLOC(v->sv_th[q], nst);
     ALLOC(v->sv_mm[q], nst);
     ALLOC(v->sv_cc[q], nst);
@@ -125,7 +125,7 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp);
-  for (int q = 0; q < 2; q++) {
+  for (int q = 0; q < 3; q++) {
     free(v->sv_th[q]); free(v->sv_mm[q]); free(v->sv_cc[q]); free(v->sv_turb[q]);
   }
   free(v);

@@ -90,13 +90,13 @@ struct ascr_visc_solver {
   lapack_int *ipiv;
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
-  /* saved converged states (visc_snapshot / visc_restore): slot 0 for callers (sweeps),
-   * slot 1 for the solver's own use */
-  double *sv_th[2], *sv_mm[2], *sv_cc[2];
-  int *sv_turb[2];
-  size_t sv_is[2];
-  double sv_s_stag[2];
-  int sv_have[2];
+  /* saved converged states (visc_snapshot / visc_restore): slots 0 and 2 for callers
+   * (sweeps), slot 1 for the solver's own use */
+  double *sv_th[3], *sv_mm[3], *sv_cc[3];
+  int *sv_turb[3];
+  size_t sv_is[3];
+  double sv_s_stag[3];
+  int sv_have[3];
   ascr_visc_trace_fn trace;
   void *trace_ctx;
 };
