@@ -18,6 +18,7 @@
 #include "core/core_impl.h"
 
 #include <math.h>
+#include <stdlib.h>
 #include <string.h>
 
 #define DEG (ASCR_PI / 180.0)
@@ -107,31 +108,31 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
   ascr_status st = ascr_visc_solver_solve(v, alpha_deg * DEG, 0, r, err);
   if (st != ASCR_EMAXITER && st != ASCR_ESING) return st;
   int its = r->iterations;
+  /* walk in 1 deg steps from the zero-lift angle to the target, each angle continued from the
+   * last converged one (with the sweep's step refinement); angles that fail are passed over */
   double azl = zero_lift_deg(v);
-  double start = round(azl);
-  ascr_visc_result rs;
-  if (ascr_visc_solver_solve(v, start * DEG, 0, &rs, NULL) != ASCR_OK) {
-    r->iterations += rs.iterations;
-    return st;
-  }
-  its += rs.iterations;
-  visc_snapshot(v, 0);
-  int nsteps = (int)ceil(fabs(alpha_deg - start));
-  double alast = start;
-  for (int k = 1; k <= nsteps; k++) {
-    double a = start + (alpha_deg - start) * (double)k / (double)nsteps;
-    if (!solve_point(v, 1, alast, a, &rs)) {
-      its += rs.iterations;
-      break;
+  double m = ceil(fabs(alpha_deg - azl));
+  if (m < 1.0) m = 1.0;
+  double dir = alpha_deg > azl ? 1.0 : -1.0;
+  int have = 0;
+  double alast = NAN;
+  ascr_visc_result rr;
+  memset(&rr, 0, sizeof rr);
+  for (int k = (int)m; k >= 0; k--) {
+    double a = alpha_deg - dir * (double)k;
+    int ok = solve_point(v, have, alast, a, &rr);
+    its += rr.iterations;
+    if (ok) {
+      have = 1;
+      alast = a;
     }
-    its += rs.iterations;
-    alast = a;
   }
-  if (alast == alpha_deg || nsteps == 0) {
-    visc_restore(v, 0);
-    st = ascr_visc_solver_solve(v, alpha_deg * DEG, 1, r, err);
+  *r = rr;
+  if (have && alast == alpha_deg) {
+    st = ASCR_OK;
   } else {
-    st = ascr_visc_solver_solve(v, alpha_deg * DEG, 0, r, err);
+    st = core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged, "
+                   "also not by continuation from the zero-lift angle", alpha_deg, v->p.re);
   }
   r->iterations += its;
   return st;
