@@ -7,6 +7,7 @@
 #define ASCR_CLI_H
 
 #include <stdio.h>
+#include <jansson.h>
 #include <airscrew/airscrew.h>
 
 /* Exit codes (docs/cli-exit-codes.md). */
@@ -63,6 +64,10 @@ int cli_output_open(cli_output *o, const char *path, int force);
 int cli_output_commit(cli_output *o);
 /* Drop collected output without writing anything. */
 void cli_output_discard(cli_output *o);
+
+/* A JSON number, or null where ok is 0 or v is not finite (results never printed as numbers
+ * when they are not results). Caller owns the reference. */
+json_t *cli_json_num(int ok, double v);
 
 /* 1 if the stream is a terminal. */
 int cli_isatty(FILE *fp);

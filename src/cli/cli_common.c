@@ -367,3 +367,8 @@ void cli_analysis_close(cli_analysis *a)
   ascr_geom_section_free(a->raw);
   memset(a, 0, sizeof *a);
 }
+
+json_t *cli_json_num(int ok, double v)
+{
+  return ok && isfinite(v) ? json_real(v) : json_null();
+}

@@ -130,11 +130,6 @@ static void write_table(FILE *fp, const flow_out *f)
 }
 
 
-static json_t *num_or_null(int ok, double v)
-{
-  return ok && isfinite(v) ? json_real(v) : json_null();
-}
-
 static json_t *darray(const double *v, size_t n)
 {
   json_t *a = json_array();
@@ -196,17 +191,17 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     json_object_set_new(o, "converged", json_boolean(ok));
     json_object_set_new(o, "iterations", json_integer(r.iterations));
     json_object_set_new(o, "residual", json_real(r.residual));
-    json_object_set_new(o, "cl", num_or_null(ok, r.cl));
-    json_object_set_new(o, "cm", num_or_null(ok, r.cm));
-    json_object_set_new(o, "cd", num_or_null(ok, r.cd));
-    json_object_set_new(o, "cdf", num_or_null(ok, r.cdf));
-    json_object_set_new(o, "cdp", num_or_null(ok, r.cdp));
-    json_object_set_new(o, "x_transition_upper", num_or_null(ok, r.x_transition_upper));
-    json_object_set_new(o, "x_transition_lower", num_or_null(ok, r.x_transition_lower));
-    json_object_set_new(o, "x_separation_upper", num_or_null(ok, r.x_separation_upper));
-    json_object_set_new(o, "x_reattachment_upper", num_or_null(ok, r.x_reattach_upper));
-    json_object_set_new(o, "x_separation_lower", num_or_null(ok, r.x_separation_lower));
-    json_object_set_new(o, "x_reattachment_lower", num_or_null(ok, r.x_reattach_lower));
+    json_object_set_new(o, "cl", cli_json_num(ok, r.cl));
+    json_object_set_new(o, "cm", cli_json_num(ok, r.cm));
+    json_object_set_new(o, "cd", cli_json_num(ok, r.cd));
+    json_object_set_new(o, "cdf", cli_json_num(ok, r.cdf));
+    json_object_set_new(o, "cdp", cli_json_num(ok, r.cdp));
+    json_object_set_new(o, "x_transition_upper", cli_json_num(ok, r.x_transition_upper));
+    json_object_set_new(o, "x_transition_lower", cli_json_num(ok, r.x_transition_lower));
+    json_object_set_new(o, "x_separation_upper", cli_json_num(ok, r.x_separation_upper));
+    json_object_set_new(o, "x_reattachment_upper", cli_json_num(ok, r.x_reattach_upper));
+    json_object_set_new(o, "x_separation_lower", cli_json_num(ok, r.x_separation_lower));
+    json_object_set_new(o, "x_reattachment_lower", cli_json_num(ok, r.x_reattach_lower));
     if (ok) {
       json_t *sf = json_object();
       json_object_set_new(sf, "x", darray(ascr_geom_section_x(an.section), n));

@@ -48,11 +48,6 @@ static void progress(void *ctx, size_t done, size_t total)
   fflush(stderr);
 }
 
-static json_t *num_or_null(int ok, double v)
-{
-  return ok && isfinite(v) ? json_real(v) : json_null();
-}
-
 int cmd_polar(int argc, char **argv)
 {
   static const struct option opts[] = {
@@ -191,21 +186,21 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "trip_upper", vp.trip_upper <= 1.0 ? json_real(vp.trip_upper) : json_null());
         json_object_set_new(po, "trip_lower", vp.trip_lower <= 1.0 ? json_real(vp.trip_lower) : json_null());
         json_object_set_new(po, "converged_points", json_integer((json_int_t)sums[k].n_converged));
-        json_object_set_new(po, "cl_max", num_or_null(sums[k].n_converged > 0, sums[k].cl_max));
-        json_object_set_new(po, "alpha_cl_max_deg", num_or_null(sums[k].n_converged > 0, sums[k].alpha_cl_max_deg));
+        json_object_set_new(po, "cl_max", cli_json_num(sums[k].n_converged > 0, sums[k].cl_max));
+        json_object_set_new(po, "alpha_cl_max_deg", cli_json_num(sums[k].n_converged > 0, sums[k].alpha_cl_max_deg));
         json_object_set_new(po, "stall_seen", json_boolean(sums[k].stall));
         for (size_t i = 0; i < npts; i++) {
           const ascr_polar_point *q = &pts[k * npts + i];
           int ok = q->converged;
           json_t *pt = json_object();
           json_object_set_new(pt, "alpha_deg", json_real(q->alpha_deg));
-          json_object_set_new(pt, "cl", num_or_null(ok, q->cl));
-          json_object_set_new(pt, "cd", num_or_null(ok, q->cd));
-          json_object_set_new(pt, "cdf", num_or_null(ok, q->cdf));
-          json_object_set_new(pt, "cdp", num_or_null(ok, q->cdp));
-          json_object_set_new(pt, "cm", num_or_null(ok, q->cm));
-          json_object_set_new(pt, "x_transition_upper", num_or_null(ok, q->x_transition_upper));
-          json_object_set_new(pt, "x_transition_lower", num_or_null(ok, q->x_transition_lower));
+          json_object_set_new(pt, "cl", cli_json_num(ok, q->cl));
+          json_object_set_new(pt, "cd", cli_json_num(ok, q->cd));
+          json_object_set_new(pt, "cdf", cli_json_num(ok, q->cdf));
+          json_object_set_new(pt, "cdp", cli_json_num(ok, q->cdp));
+          json_object_set_new(pt, "cm", cli_json_num(ok, q->cm));
+          json_object_set_new(pt, "x_transition_upper", cli_json_num(ok, q->x_transition_upper));
+          json_object_set_new(pt, "x_transition_lower", cli_json_num(ok, q->x_transition_lower));
           json_object_set_new(pt, "converged", json_boolean(ok));
           json_object_set_new(pt, "iterations", json_integer(q->iterations));
           json_array_append_new(pa, pt);
