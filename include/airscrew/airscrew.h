@@ -14,5 +14,7 @@
 #include "airscrew/ascr_bl.h"
 #include "airscrew/ascr_visc.h"
 #include "airscrew/ascr_polar.h"
+#include "airscrew/ascr_table.h"
+#include "airscrew/ascr_rotor.h"
 
 #endif /* AIRSCREW_H */

@@ -12,9 +12,6 @@
 #define ASCR_PRINTF(a, b) __attribute__((format(printf, a, b)))
 #else
 #define ASCR_PRINTF(a, b)
-/* pi to double precision (M_PI is not part of ISO C). */
-#define ASCR_PI 3.14159265358979323846
-
 #endif
 
 /* Write a formatted message into err (if not NULL) and return code. */

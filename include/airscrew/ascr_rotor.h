@@ -1,0 +1,126 @@
+/* include/airscrew/ascr_rotor.h
+ * Blades and rotor performance: a blade layout (radius, chord, twist and section by station),
+ * the section tables of ascr_table.h, and an inflow model that turns them into thrust, torque,
+ * power and efficiency at an operating point (rpm, axial speed).
+ *
+ * Inflow models:
+ * - BEMT (ascr_rotor_bemt): annulus momentum with swirl + blade element, Prandtl tip and hub
+ *   loss (Glauert 1935, in Durand, Aerodynamic Theory IV, div. L), one residual in the inflow
+ *   angle per element solved inside a bracket (Ning 2014, Wind Energy 17:1327) with GSL's
+ *   Brent solver; hover, climb and windmilling (Buhl 2005, NREL/TP-500-36834, for the
+ *   turbulent-wake state). Our formulation: docs/theory/rotor.md.
+ *
+ * Conventions: SI units; twist and angles in degrees where the name says _deg; the blade
+ * spans from its first to its last station; positive thrust pushes air downstream, torque is
+ * the shaft torque the motor must supply. Thread safety: reentrant; no hidden state.
+ */
+#ifndef ASCR_ROTOR_H
+#define ASCR_ROTOR_H
+
+#include <stddef.h>
+#include "airscrew/ascr_errno.h"
+#include "airscrew/ascr_table.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/** One blade station. */
+typedef struct ascr_blade_station {
+  double r_m;       /* radius */
+  double chord_m;   /* chord */
+  double twist_deg; /* section angle to the plane of rotation (pitch offset added) */
+  size_t section;   /* index into the blade's sections (and the tables passed to the solver) */
+} ascr_blade_station;
+
+/** A blade layout (all arrays owned by whoever built it; ascr_blade_free for read ones). */
+typedef struct ascr_blade {
+  char *name;                  /* may be NULL */
+  int n_blades;                /* 1 .. 12 */
+  double r_tip_m, r_hub_m;     /* tip and hub radius */
+  double pitch_offset_deg;     /* added to every station's twist */
+  int rotation;                /* +1 counter-clockwise, -1 clockwise, seen from the front */
+  size_t n_stations;
+  ascr_blade_station *stations; /* ascending radius, hub <= r <= tip */
+  size_t n_sections;
+  char **section_source;       /* per section: generator spec or resolved file path */
+  char **section_name;         /* per section: the name used in the file */
+} ascr_blade;
+
+/** Check a blade: counts and ranges, ascending stations within hub..tip, chord > 0, section
+ *  indices valid. The message names the field (for example "stations[3].chord").
+ *  @return ASCR_OK or ASCR_EGEOM / ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_blade_validate(const ascr_blade *b, ascr_errbuf *err);
+
+/** Read a blade file (JSON, schema in docs/file-formats.md). Relative section file paths are
+ *  resolved against the file's directory. Messages name the file and the field path.
+ *  @return ASCR_OK, ASCR_EIO, ASCR_EPARSE (syntax, with line), ASCR_EINVAL / ASCR_EGEOM. */
+ASCR_EXPORT ascr_status ascr_blade_read(const char *path, ascr_blade **out, ascr_errbuf *err);
+
+/** As ascr_blade_read from a text buffer; name labels messages, base_dir resolves paths
+ *  (NULL: as given). */
+ASCR_EXPORT ascr_status ascr_blade_parse(const char *text, size_t len, const char *name,
+                                         const char *base_dir, ascr_blade **out,
+                                         ascr_errbuf *err);
+
+/** Free a blade made by ascr_blade_read/_parse; NULL is a no-op. */
+ASCR_EXPORT void ascr_blade_free(ascr_blade *b);
+
+/** Air and solver settings. */
+typedef struct ascr_rotor_params {
+  double density_kg_m3;     /* default 1.225 (ISA sea level) */
+  double viscosity_pa_s;    /* dynamic viscosity, default 1.789e-5 (ISA sea level) */
+  double sound_speed_m_s;   /* default 340.29 */
+  size_t n_elements;        /* blade elements, cosine-spaced (default 40) */
+  int tip_loss, hub_loss;   /* Prandtl factors (default on) */
+  int swirl;                /* swirl (tangential induction) in the momentum balance (default on) */
+} ascr_rotor_params;
+
+/** Defaults as documented above. */
+ASCR_EXPORT ascr_rotor_params ascr_rotor_params_defaults(void);
+
+/** International Standard Atmosphere 1976 (troposphere, 0..11 km): density, dynamic viscosity
+ *  (Sutherland) and speed of sound at a geopotential altitude. ASCR_EDOM outside -500..11000 m. */
+ASCR_EXPORT ascr_status ascr_isa(double altitude_m, double *density_kg_m3, double *viscosity_pa_s,
+                                 double *sound_speed_m_s, ascr_errbuf *err);
+
+/** Per-element results. */
+typedef struct ascr_rotor_element {
+  double r_m, dr_m, chord_m;
+  double phi_deg;          /* inflow angle to the plane of rotation */
+  double alpha_deg;        /* angle of attack */
+  double re, mach;         /* local chord Reynolds and Mach numbers */
+  double cl, cd;
+  double a_axial, a_swirl; /* axial and tangential induction factors */
+  double loss;             /* Prandtl tip x hub factor */
+  double dT_dr_N_m;        /* thrust per unit radius, all blades */
+  double dQ_dr_Nm_m;       /* torque per unit radius, all blades */
+  int region;              /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED */
+  int stalled, re_outside, converged;
+} ascr_rotor_element;
+
+/** Results at one operating point. Numbers of an unconverged point must not be reported as
+ *  results (converged = 0). */
+typedef struct ascr_rotor_result {
+  double rpm, speed_m_s;
+  double thrust_N, torque_Nm, power_W;
+  double CT, CP, CQ, J;       /* CT = T/(rho n^2 D^4), CP = P/(rho n^3 D^5), CQ = Q/(rho n^2 D^5) */
+  double efficiency;          /* T V / P; NaN unless V > 0, T > 0 and P > 0 */
+  double figure_of_merit;     /* T^1.5 / (P sqrt(2 rho A)) in hover (V = 0, T > 0); else NaN */
+  double tip_mach;            /* helical tip Mach number (no induction) */
+  size_t n_stalled, n_extended, n_re_outside; /* elements flagged */
+  int converged;              /* every element solved */
+} ascr_rotor_result;
+
+/** BEMT at one operating point. tables[i] serves section i of the blade (b->n_sections
+ *  entries). el: NULL or p->n_elements entries. speed_m_s >= 0 (axial, towards the rotor).
+ *  @return ASCR_OK (converged or not: see res->converged); ASCR_EINVAL for bad input. */
+ASCR_EXPORT ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                        const ascr_rotor_params *p, double rpm, double speed_m_s,
+                                        ascr_rotor_result *res, ascr_rotor_element *el,
+                                        ascr_errbuf *err);
+
+#ifdef __cplusplus
+}
+#endif
+#endif /* ASCR_ROTOR_H */

@@ -1,0 +1,104 @@
+/* include/airscrew/ascr_table.h
+ * Section coefficient tables for the rotor: cl, cd, cm over angle of attack (-180..180 deg)
+ * and chord Reynolds number, built from computed polars (one curve per Re), smoothly
+ * interpolated, and extended beyond the computed range by the post-stall model of Viterna &
+ * Corrigan (1982, NASA CP-2230, pp. 69-85). Compressibility by a Prandtl-Glauert factor on
+ * the lift of the attached range.
+ *
+ * How a curve becomes a table (docs/theory/rotor.md, "Section tables"):
+ * - only converged points are used; a run of unconverged points inside the converged range is
+ *   bridged by a monotone cubic (Steffen 1990, A&A 239:443) through the converged neighbours
+ *   and the lookups there are flagged ASCR_TABLE_BRIDGED;
+ * - beyond the highest (lowest) converged angle the Viterna-Corrigan relations continue from
+ *   that point up to 90 deg (down to -90 deg), then a flat plate to +-180 deg; lookups there
+ *   are flagged ASCR_TABLE_EXTENDED;
+ * - the curves are resampled on one angle grid (0.5 deg within +-40 deg, 5 deg outside) and
+ *   interpolated bicubically in (alpha, log Re) with GSL's interp2d (bilinear with fewer than
+ *   four curves); outside the Re range the nearest curve is used and the lookup flagged.
+ *
+ * Thread safety: a built table is read-only; lookups are reentrant.
+ */
+#ifndef ASCR_TABLE_H
+#define ASCR_TABLE_H
+
+#include <stddef.h>
+#include "airscrew/ascr_errno.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+typedef struct ascr_polar_table ascr_polar_table;
+
+/** One computed polar at one Reynolds number (arrays borrowed during the build). */
+typedef struct ascr_table_curve {
+  double re;
+  size_t n;
+  const double *alpha_deg; /* ascending */
+  const double *cl, *cd, *cm;
+  const int *converged;    /* NULL: all converged */
+} ascr_table_curve;
+
+/** Build options. */
+typedef struct ascr_table_options {
+  double cd_max;      /* drag coefficient at 90 deg for the post-stall extension (default 1.3,
+                         common practice for rotor blades: 1.11 + 0.018 x aspect ratio 10) */
+  double cd_reverse;  /* drag coefficient at 180 deg (default 0.05; assumption, documented) */
+  double mach;        /* Mach number the curves were computed at (default 0) */
+} ascr_table_options;
+
+/** Defaults as documented above. */
+ASCR_EXPORT ascr_table_options ascr_table_options_defaults(void);
+
+/** Where a lookup came from. */
+enum {
+  ASCR_TABLE_COMPUTED = 0, /* between converged computed points */
+  ASCR_TABLE_BRIDGED = 1,  /* in a gap of unconverged points, interpolated across */
+  ASCR_TABLE_EXTENDED = 2  /* beyond the computed range: post-stall extension */
+};
+
+/** Result of a lookup. */
+typedef struct ascr_table_sample {
+  double cl, cd, cm;
+  int region;     /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED, at the nearer curve */
+  int re_outside; /* 1 if Re lay outside the table's range (nearest curve used) */
+  int stalled;    /* 1 if alpha lies beyond the angle of cl_max (or of cl_min) */
+} ascr_table_sample;
+
+/** Build a table from n_curves computed polars (distinct Re, any order). A curve needs at
+ *  least five converged points, with converged angles on both sides of zero lift; curves that
+ *  do not qualify are left out (count them with ascr_polar_table_curves()).
+ *  @return ASCR_OK; ASCR_EINVAL (bad arguments, NaN, Re <= 0, unsorted angles, repeated Re;
+ *          the message names the curve and point); ASCR_EDOM (no curve qualified);
+ *          ASCR_ENOMEM. */
+ASCR_EXPORT ascr_status ascr_polar_table_build(const ascr_table_curve *curves, size_t n_curves,
+                                               const ascr_table_options *opt,
+                                               ascr_polar_table **out, ascr_errbuf *err);
+
+/** An analytic section for tests and quick studies: cl = a (alpha - alpha0) at every angle
+ *  (no stall), constant cd, cm = 0, independent of Re and Mach. */
+ASCR_EXPORT ascr_status ascr_polar_table_linear(double lift_slope_per_rad, double alpha0_rad,
+                                                double cd, ascr_polar_table **out,
+                                                ascr_errbuf *err);
+
+/** Look up at angle alpha_rad (any value; wrapped to -pi..pi), Reynolds number re and Mach
+ *  number mach (Prandtl-Glauert on cl within the computed range, factor capped at Mach 0.8).
+ *  Never fails for finite input; out is always filled. */
+ASCR_EXPORT void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double re,
+                                       double mach, ascr_table_sample *out);
+
+/** Number of curves used, and the Re range they span. */
+ASCR_EXPORT size_t ascr_polar_table_curves(const ascr_polar_table *t);
+ASCR_EXPORT double ascr_polar_table_re_min(const ascr_polar_table *t);
+ASCR_EXPORT double ascr_polar_table_re_max(const ascr_polar_table *t);
+/** Computed (converged) angle range of curve i, degrees. */
+ASCR_EXPORT void ascr_polar_table_curve_range(const ascr_polar_table *t, size_t i, double *re,
+                                              double *alpha_lo_deg, double *alpha_hi_deg);
+
+/** Free; NULL is a no-op. */
+ASCR_EXPORT void ascr_polar_table_free(ascr_polar_table *t);
+
+#ifdef __cplusplus
+}
+#endif
+#endif /* ASCR_TABLE_H */

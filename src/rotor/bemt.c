@@ -1,0 +1,338 @@
+/* src/rotor/bemt.c
+ * Blade-element momentum theory with swirl and Prandtl tip/hub loss, one residual in the
+ * inflow angle phi per element (after Ning 2014, Wind Energy 17:1327, written here for a
+ * propeller: thrust positive downstream, axial induction a > 0 speeds the flow through the
+ * disc). Formulation (docs/theory/rotor.md):
+ *
+ *   tan phi = Vx (1 + a) / (Vy (1 - a')),  Vx = V, Vy = Omega r,  alpha = theta - phi
+ *   cn = cl cos phi - cd sin phi,  ct = cl sin phi + cd cos phi,  sigma' = B c / (2 pi r)
+ *   k = sigma' cn / (4 F sin^2 phi) = a / (1 + a),  k' = sigma' ct / (4 F sin phi cos phi) = a' / (1 - a')
+ *   R(phi) = sin phi (1 - k) - (Vx / Vy) cos phi (1 + k') = 0
+ *
+ * which is regular in hover (Vx = 0: R = sin phi (1 - k)). In the turbulent-wake state of a
+ * windmilling propeller (k < -2/3) the axial momentum relation is replaced by Buhl's
+ * (2005, NREL/TP-500-36834) empirical thrust curve, as Ning (2014) does for turbines.
+ * The bracket is sought over (0, pi/2], then (pi/2, pi), then (-pi/2, 0); the root by Brent.
+ * Re and Mach are taken at the previous pass's relative speed (first pass: no induction)
+ * and the element solved again until Re settles (usually two passes).
+ */
+#include "rotor/rotor_impl.h"
+#include "core/core_impl.h"
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+#include <string.h>
+
+#define DEG (ASCR_PI / 180.0)
+
+ascr_rotor_params ascr_rotor_params_defaults(void)
+{
+  ascr_rotor_params p;
+  p.density_kg_m3 = 1.225;
+  p.viscosity_pa_s = 1.7894e-5;
+  p.sound_speed_m_s = 340.294;
+  p.n_elements = 40;
+  p.tip_loss = 1;
+  p.hub_loss = 1;
+  p.swirl = 1;
+  return p;
+}
+
+ascr_status ascr_isa(double h, double *rho, double *mu, double *a, ascr_errbuf *err)
+{
+  if (!(isfinite(h) && h >= -500.0 && h <= 11000.0)) {
+    return core_fail(err, ASCR_EDOM, "altitude %g m outside the ISA troposphere (-500 .. 11000 m)", h);
+  }
+  /* U.S. Standard Atmosphere 1976: T0 288.15 K, lapse 6.5 K/km, p0 101325 Pa, R 287.05287,
+   * g0 9.80665, Sutherland (beta 1.458e-6, S 110.4 K), gamma 1.4 */
+  const double r_air = 287.05287, g0 = 9.80665, lapse = 0.0065;
+  double t = 288.15 - lapse * h;
+  double p = 101325.0 * pow(t / 288.15, g0 / (r_air * lapse));
+  *rho = p / (r_air * t);
+  *mu = 1.458e-6 * t * sqrt(t) / (t + 110.4);
+  *a = sqrt(1.4 * r_air * t);
+  return ASCR_OK;
+}
+
+typedef struct elem_ctx {
+  const ascr_blade *b;
+  const ascr_polar_table *const *tables;
+  const ascr_rotor_params *p;
+  double r, chord, theta, sigma, vx, vy;
+  size_t s0, s1;
+  double w;
+  double re, mach; /* fixed during one pass */
+  /* outputs of the last evaluation */
+  ascr_table_sample smp;
+  double loss, k, kp, a, ap;
+} elem_ctx;
+
+static void lookup(elem_ctx *e, double alpha)
+{
+  ascr_polar_table_eval(e->tables[e->s0], alpha, e->re, e->mach, &e->smp);
+  if (e->s1 != e->s0 && e->w > 0.0) {
+    ascr_table_sample q;
+    ascr_polar_table_eval(e->tables[e->s1], alpha, e->re, e->mach, &q);
+    double w = e->w;
+    e->smp.cl = (1.0 - w) * e->smp.cl + w * q.cl;
+    e->smp.cd = (1.0 - w) * e->smp.cd + w * q.cd;
+    e->smp.cm = (1.0 - w) * e->smp.cm + w * q.cm;
+    e->smp.region = q.region > e->smp.region ? q.region : e->smp.region;
+    e->smp.stalled |= q.stalled;
+    e->smp.re_outside |= q.re_outside;
+  }
+}
+
+static double prandtl(double b_half, double dist, double rref, double sphi)
+{
+  /* F = 2/pi acos(exp(-f)), f = (B/2) dist / (rref |sin phi|) (Glauert 1935) */
+  double s = fabs(sphi);
+  if (s < 1e-12) {
+    return 1.0;
+  }
+  double f = b_half * dist / (rref * s);
+  return 2.0 / ASCR_PI * acos(exp(-f));
+}
+
+static double residual(double phi, void *ctx)
+{
+  elem_ctx *e = ctx;
+  double sp = sin(phi), cp = cos(phi);
+  lookup(e, e->theta - phi);
+  double cn = e->smp.cl * cp - e->smp.cd * sp;
+  double ct = e->smp.cl * sp + e->smp.cd * cp;
+  double bh = 0.5 * e->b->n_blades;
+  double f = 1.0;
+  if (e->p->tip_loss) {
+    f *= prandtl(bh, e->b->r_tip_m - e->r, e->r, sp);
+  }
+  if (e->p->hub_loss && e->b->r_hub_m > 0.0) {
+    f *= prandtl(bh, e->r - e->b->r_hub_m, e->b->r_hub_m, sp);
+  }
+  if (f < 1e-8) {
+    f = 1e-8;
+  }
+  e->loss = f;
+  double k = e->sigma * cn / (4.0 * f * sp * sp);
+  double kp = e->p->swirl ? e->sigma * ct / (4.0 * f * sp * cp) : 0.0;
+  e->k = k;
+  e->kp = kp;
+  double inv1pa = 1.0 - k; /* 1 / (1 + a) from momentum */
+  double kt = -k;          /* the turbine-convention k */
+  if (e->vx > 0.0 && kt > 2.0 / 3.0) {
+    /* Buhl's empirical curve in the turbulent-wake state (a_turbine = -a) */
+    double g1 = 2.0 * f * kt - (10.0 / 9.0 - f);
+    double g2 = 2.0 * f * kt - f * (4.0 / 3.0 - f);
+    double g3 = 2.0 * f * kt - (25.0 / 9.0 - 2.0 * f);
+    double at = fabs(g3) < 1e-6 ? 1.0 - 0.5 / sqrt(g2) : (g1 - sqrt(g2)) / g3;
+    inv1pa = 1.0 / (1.0 - at);
+  }
+  e->a = fabs(inv1pa) > 1e-12 ? 1.0 / inv1pa - 1.0 : HUGE_VAL;
+  e->ap = kp / (1.0 + kp);
+  return sp * inv1pa - (e->vx / e->vy) * cp * (1.0 + kp);
+}
+
+/* Find a bracket in (lo, hi) by scanning n sub-intervals from lo towards hi. */
+static int scan(elem_ctx *e, double lo, double hi, int n, double *x0, double *x1)
+{
+  double fl = residual(lo, e);
+  for (int i = 1; i <= n; i++) {
+    double x = lo + (hi - lo) * i / n;
+    double fx = residual(x, e);
+    if (isfinite(fl) && isfinite(fx) && ((fl <= 0.0 && fx >= 0.0) || (fl >= 0.0 && fx <= 0.0))) {
+      *x0 = lo + (hi - lo) * (i - 1) / n;
+      *x1 = x;
+      return 1;
+    }
+    fl = fx;
+  }
+  return 0;
+}
+
+static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
+{
+  const double eps = 1e-6;
+  double lo, hi;
+  int found = scan(e, eps, 0.5 * ASCR_PI, 32, &lo, &hi) ||
+              scan(e, 0.5 * ASCR_PI, ASCR_PI - eps, 16, &lo, &hi) ||
+              scan(e, -eps, -0.5 * ASCR_PI, 16, &lo, &hi);
+  if (!found) {
+    return 0;
+  }
+  if (lo > hi) {
+    double t = lo;
+    lo = hi;
+    hi = t;
+  }
+  gsl_function fn = {residual, e};
+  if (gsl_root_fsolver_set(s, &fn, lo, hi) != GSL_SUCCESS) {
+    return 0;
+  }
+  for (int it = 0; it < 100; it++) {
+    if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
+      return 0;
+    }
+    double x0 = gsl_root_fsolver_x_lower(s), x1 = gsl_root_fsolver_x_upper(s);
+    if (gsl_root_test_interval(x0, x1, 1e-12, 0.0) == GSL_SUCCESS) {
+      *phi = gsl_root_fsolver_root(s);
+      double rr = residual(*phi, e); /* leaves the element state at the root */
+      return isfinite(rr);
+    }
+  }
+  return 0;
+}
+
+static ascr_status check_inputs(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                const ascr_rotor_params *p, double rpm, double v, ascr_errbuf *err)
+{
+  ascr_status st = ascr_blade_validate(b, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  if (tables == NULL) {
+    return core_fail(err, ASCR_EINVAL, "rotor: no section tables");
+  }
+  for (size_t i = 0; i < b->n_sections; i++) {
+    if (tables[i] == NULL) {
+      return core_fail(err, ASCR_EINVAL, "rotor: no table for section %zu", i);
+    }
+  }
+  if (!(p->density_kg_m3 > 0.0 && p->density_kg_m3 < 100.0) ||
+      !(p->viscosity_pa_s > 0.0 && p->viscosity_pa_s < 1.0) ||
+      !(p->sound_speed_m_s > 10.0 && p->sound_speed_m_s < 2000.0)) {
+    return core_fail(err, ASCR_EINVAL, "rotor: air density %g kg/m3, viscosity %g Pa s or speed of "
+                     "sound %g m/s out of range", p->density_kg_m3, p->viscosity_pa_s,
+                     p->sound_speed_m_s);
+  }
+  if (p->n_elements < 4 || p->n_elements > 2000) {
+    return core_fail(err, ASCR_EINVAL, "rotor: %zu blade elements, must be 4 .. 2000", p->n_elements);
+  }
+  if (!(isfinite(rpm) && rpm > 0.0 && rpm <= 1e6)) {
+    return core_fail(err, ASCR_EINVAL, "rotor: rpm %g must be > 0 and at most 1e6", rpm);
+  }
+  if (!(isfinite(v) && v >= 0.0 && v <= 500.0)) {
+    return core_fail(err, ASCR_EINVAL, "rotor: axial speed %g m/s must be in 0 .. 500", v);
+  }
+  return ASCR_OK;
+}
+
+ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *tables,
+                            const ascr_rotor_params *pin, double rpm, double speed_m_s,
+                            ascr_rotor_result *res, ascr_rotor_element *el, ascr_errbuf *err)
+{
+  ascr_rotor_params p = pin != NULL ? *pin : ascr_rotor_params_defaults();
+  if (res == NULL) {
+    return core_fail(err, ASCR_EINVAL, "rotor: no result");
+  }
+  ascr_status st = check_inputs(b, tables, &p, rpm, speed_m_s, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  gsl_root_fsolver *solver = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+  if (solver == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "rotor: out of memory");
+  }
+  gsl_error_handler_t *old = gsl_set_error_handler_off();
+
+  memset(res, 0, sizeof *res);
+  double omega = rpm * 2.0 * ASCR_PI / 60.0;
+  double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
+  size_t ne = p.n_elements;
+  double thrust = 0.0, torque = 0.0;
+  int all_ok = 1;
+  for (size_t i = 0; i < ne; i++) {
+    /* cosine spacing: elements crowd at root and tip, where the loading changes fastest */
+    double ea = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)i / (double)ne));
+    double eb = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)(i + 1) / (double)ne));
+    elem_ctx e;
+    memset(&e, 0, sizeof e);
+    e.b = b;
+    e.tables = tables;
+    e.p = &p;
+    e.r = 0.5 * (ea + eb);
+    double twist;
+    rotor_blade_at(b, e.r, &e.chord, &twist, &e.s0, &e.s1, &e.w);
+    e.theta = twist * DEG;
+    e.sigma = b->n_blades * e.chord / (2.0 * ASCR_PI * e.r);
+    e.vx = speed_m_s;
+    e.vy = omega * e.r;
+    double wrel = hypot(e.vx, e.vy);
+    double phi = 0.0;
+    int ok = 0;
+    for (int pass = 0; pass < 8; pass++) {
+      e.re = p.density_kg_m3 * wrel * e.chord / p.viscosity_pa_s;
+      e.mach = wrel / p.sound_speed_m_s;
+      ok = solve_phi(&e, solver, &phi);
+      if (!ok) {
+        break;
+      }
+      double sp = sin(phi), cp = cos(phi);
+      double wnew = fabs(cp) > 0.1 ? e.vy * (1.0 - e.ap) / fabs(cp)
+                                   : fabs(e.vx * (1.0 + e.a) / sp);
+      int settled = fabs(wnew - wrel) <= 1e-4 * wrel;
+      wrel = wnew;
+      if (settled) {
+        break;
+      }
+      if (pass == 7) {
+        ok = 0;
+      }
+    }
+    double q = 0.5 * p.density_kg_m3 * wrel * wrel * e.chord * b->n_blades;
+    double sp = sin(phi), cp = cos(phi);
+    double dt = q * (e.smp.cl * cp - e.smp.cd * sp);
+    double dq = q * (e.smp.cl * sp + e.smp.cd * cp) * e.r;
+    double dr = eb - ea;
+    if (ok) {
+      thrust += dt * dr;
+      torque += dq * dr;
+    }
+    all_ok &= ok;
+    res->n_stalled += (size_t)(ok && e.smp.stalled);
+    res->n_extended += (size_t)(ok && e.smp.region == ASCR_TABLE_EXTENDED);
+    res->n_re_outside += (size_t)(ok && e.smp.re_outside);
+    if (el != NULL) {
+      ascr_rotor_element *o = &el[i];
+      o->r_m = e.r;
+      o->dr_m = dr;
+      o->chord_m = e.chord;
+      o->converged = ok;
+      o->phi_deg = ok ? phi / DEG : NAN;
+      o->alpha_deg = ok ? (e.theta - phi) / DEG : NAN;
+      o->re = ok ? p.density_kg_m3 * wrel * e.chord / p.viscosity_pa_s : NAN;
+      o->mach = ok ? wrel / p.sound_speed_m_s : NAN;
+      o->cl = ok ? e.smp.cl : NAN;
+      o->cd = ok ? e.smp.cd : NAN;
+      o->a_axial = ok ? e.a : NAN;
+      o->a_swirl = ok ? e.ap : NAN;
+      o->loss = ok ? e.loss : NAN;
+      o->dT_dr_N_m = ok ? dt : NAN;
+      o->dQ_dr_Nm_m = ok ? dq : NAN;
+      o->region = e.smp.region;
+      o->stalled = e.smp.stalled;
+      o->re_outside = e.smp.re_outside;
+    }
+  }
+  gsl_set_error_handler(old);
+  gsl_root_fsolver_free(solver);
+
+  double n = rpm / 60.0, d = 2.0 * b->r_tip_m, rho = p.density_kg_m3;
+  res->rpm = rpm;
+  res->speed_m_s = speed_m_s;
+  res->converged = all_ok;
+  res->thrust_N = thrust;
+  res->torque_Nm = torque;
+  res->power_W = torque * omega;
+  res->CT = thrust / (rho * n * n * pow(d, 4));
+  res->CP = res->power_W / (rho * n * n * n * pow(d, 5));
+  res->CQ = torque / (rho * n * n * pow(d, 5));
+  res->J = speed_m_s / (n * d);
+  res->efficiency = (speed_m_s > 0.0 && thrust > 0.0 && res->power_W > 0.0)
+                        ? thrust * speed_m_s / res->power_W : NAN;
+  double area = ASCR_PI * b->r_tip_m * b->r_tip_m;
+  res->figure_of_merit = (speed_m_s == 0.0 && thrust > 0.0 && res->power_W > 0.0)
+                             ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
+  res->tip_mach = hypot(omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
+  return ASCR_OK;
+}

@@ -1,0 +1,109 @@
+/* src/rotor/blade.c
+ * Blade layouts: validation with field paths, properties between stations, freeing.
+ * Chord and twist vary linearly between stations; the section coefficients blend linearly in
+ * radius between the two stations' sections (docs/theory/rotor.md, "Blade").
+ */
+#include "rotor/rotor_impl.h"
+#include "core/core_impl.h"
+
+#include <math.h>
+#include <stdlib.h>
+
+ascr_status ascr_blade_validate(const ascr_blade *b, ascr_errbuf *err)
+{
+  if (b == NULL) {
+    return core_fail(err, ASCR_EINVAL, "blade: none given");
+  }
+  if (b->n_blades < 1 || b->n_blades > 12) {
+    return core_fail(err, ASCR_EINVAL, "blade: blades = %d, must be 1 .. 12", b->n_blades);
+  }
+  if (!(isfinite(b->r_tip_m) && b->r_tip_m > 0.0 && b->r_tip_m <= 10.0)) {
+    return core_fail(err, ASCR_EINVAL, "blade: tip radius %g m, must be in (0, 10] m", b->r_tip_m);
+  }
+  if (!(isfinite(b->r_hub_m) && b->r_hub_m >= 0.0 && b->r_hub_m < 0.9 * b->r_tip_m)) {
+    return core_fail(err, ASCR_EGEOM, "blade: hub radius %g m must be >= 0 and below 0.9 x tip radius (%g m)",
+                     b->r_hub_m, b->r_tip_m);
+  }
+  if (!(isfinite(b->pitch_offset_deg) && fabs(b->pitch_offset_deg) <= 90.0)) {
+    return core_fail(err, ASCR_EINVAL, "blade: pitch offset %g deg, must be within +-90 deg",
+                     b->pitch_offset_deg);
+  }
+  if (b->rotation != 1 && b->rotation != -1) {
+    return core_fail(err, ASCR_EINVAL, "blade: rotation must be +1 or -1");
+  }
+  if (b->n_stations < 2 || b->stations == NULL) {
+    return core_fail(err, ASCR_EGEOM, "blade: stations: at least 2 needed, %zu given", b->n_stations);
+  }
+  if (b->n_sections < 1) {
+    return core_fail(err, ASCR_EINVAL, "blade: sections: none given");
+  }
+  double tol = 1e-9 * b->r_tip_m;
+  for (size_t i = 0; i < b->n_stations; i++) {
+    const ascr_blade_station *s = &b->stations[i];
+    if (!isfinite(s->r_m) || s->r_m < b->r_hub_m - tol || s->r_m > b->r_tip_m + tol) {
+      return core_fail(err, ASCR_EGEOM,
+                       "blade: stations[%zu].r = %g m lies outside hub .. tip (%g .. %g m)", i,
+                       s->r_m, b->r_hub_m, b->r_tip_m);
+    }
+    if (i > 0 && !(s->r_m > b->stations[i - 1].r_m + tol)) {
+      return core_fail(err, ASCR_EGEOM,
+                       "blade: stations[%zu].r = %g m does not increase (previous %g m)", i, s->r_m,
+                       b->stations[i - 1].r_m);
+    }
+    if (!(isfinite(s->chord_m) && s->chord_m > 0.0 && s->chord_m <= 2.0 * b->r_tip_m)) {
+      return core_fail(err, ASCR_EGEOM,
+                       "blade: stations[%zu].chord = %g m, must be > 0 and at most the diameter", i,
+                       s->chord_m);
+    }
+    if (!(isfinite(s->twist_deg) && fabs(s->twist_deg) <= 90.0)) {
+      return core_fail(err, ASCR_EINVAL, "blade: stations[%zu].twist = %g deg, must be within +-90",
+                       i, s->twist_deg);
+    }
+    if (s->section >= b->n_sections) {
+      return core_fail(err, ASCR_EINVAL, "blade: stations[%zu].section: index %zu, only %zu sections",
+                       i, s->section, b->n_sections);
+    }
+  }
+  if (b->stations[b->n_stations - 1].r_m - b->stations[0].r_m < 0.05 * b->r_tip_m) {
+    return core_fail(err, ASCR_EGEOM, "blade: stations span less than 5 %% of the tip radius");
+  }
+  return ASCR_OK;
+}
+
+void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_deg, size_t *s0,
+                    size_t *s1, double *w)
+{
+  size_t n = b->n_stations;
+  size_t k = 0;
+  while (k + 2 < n && b->stations[k + 1].r_m <= r) {
+    k++;
+  }
+  const ascr_blade_station *a = &b->stations[k], *c = &b->stations[k + 1];
+  double t = (r - a->r_m) / (c->r_m - a->r_m);
+  t = t < 0.0 ? 0.0 : (t > 1.0 ? 1.0 : t);
+  *chord = a->chord_m + t * (c->chord_m - a->chord_m);
+  *twist_deg = a->twist_deg + t * (c->twist_deg - a->twist_deg) + b->pitch_offset_deg;
+  *s0 = a->section;
+  *s1 = c->section;
+  *w = t;
+}
+
+void ascr_blade_free(ascr_blade *b)
+{
+  if (b == NULL) {
+    return;
+  }
+  for (size_t i = 0; i < b->n_sections; i++) {
+    if (b->section_source != NULL) {
+      free(b->section_source[i]);
+    }
+    if (b->section_name != NULL) {
+      free(b->section_name[i]);
+    }
+  }
+  free(b->section_source);
+  free(b->section_name);
+  free(b->stations);
+  free(b->name);
+  free(b);
+}

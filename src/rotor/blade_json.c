@@ -1,0 +1,385 @@
+/* src/rotor/blade_json.c
+ * Blade files: JSON read with jansson; schema ours (docs/file-formats.md, "Blade files").
+ * Every rejection names the file and the field path (and the line for syntax errors).
+ */
+#include "rotor/rotor_impl.h"
+#include "core/core_impl.h"
+#include "airscrew/ascr_geom.h"
+
+#include <jansson.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define BLADE_MAX_BYTES (4u << 20)
+
+typedef struct rd {
+  const char *file;
+  ascr_errbuf *err;
+} rd;
+
+static char *dup_str(const char *s)
+{
+  size_t n = strlen(s) + 1;
+  char *d = malloc(n);
+  if (d != NULL) {
+    memcpy(d, s, n);
+  }
+  return d;
+}
+
+static ascr_status need_keys(const rd *r, json_t *obj, const char *path, const char *const *allowed)
+{
+  const char *key;
+  json_t *val;
+  json_object_foreach(obj, key, val) {
+    int ok = 0;
+    for (size_t i = 0; allowed[i] != NULL; i++) {
+      ok |= strcmp(key, allowed[i]) == 0;
+    }
+    if (!ok) {
+      return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: unknown field", r->file, path,
+                       path[0] ? "." : "", key);
+    }
+  }
+  return ASCR_OK;
+}
+
+static ascr_status get_number(const rd *r, json_t *obj, const char *key, const char *path,
+                              int required, double def, double *out)
+{
+  json_t *v = json_object_get(obj, key);
+  if (v == NULL) {
+    if (required) {
+      return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: missing (a number is required)", r->file,
+                       path, path[0] ? "." : "", key);
+    }
+    *out = def;
+    return ASCR_OK;
+  }
+  if (!json_is_number(v)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: must be a number", r->file, path,
+                     path[0] ? "." : "", key);
+  }
+  *out = json_number_value(v);
+  if (!isfinite(*out)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: not a finite number", r->file, path,
+                     path[0] ? "." : "", key);
+  }
+  return ASCR_OK;
+}
+
+static char *join_path(const char *dir, const char *rel)
+{
+  if (dir == NULL || dir[0] == '\0' || rel[0] == '/') {
+    return dup_str(rel);
+  }
+  size_t n = strlen(dir) + strlen(rel) + 2;
+  char *p = malloc(n);
+  if (p != NULL) {
+    snprintf(p, n, "%s/%s", dir, rel);
+  }
+  return p;
+}
+
+static ascr_status read_sections(const rd *r, json_t *secs, const char *base_dir, ascr_blade *b)
+{
+  if (!json_is_object(secs) || json_object_size(secs) == 0) {
+    return core_fail(r->err, ASCR_EPARSE,
+                     "%s: sections: must be an object naming at least one section "
+                     "(name: generator spec or coordinate file)", r->file);
+  }
+  size_t n = json_object_size(secs);
+  b->section_name = core_calloc(n, sizeof *b->section_name);
+  b->section_source = core_calloc(n, sizeof *b->section_source);
+  if (b->section_name == NULL || b->section_source == NULL) {
+    return core_fail(r->err, ASCR_ENOMEM, "%s: out of memory", r->file);
+  }
+  const char *key;
+  json_t *val;
+  json_object_foreach(secs, key, val) {
+    size_t i = b->n_sections;
+    if (!json_is_string(val) || json_string_length(val) == 0) {
+      return core_fail(r->err, ASCR_EPARSE,
+                       "%s: sections.%s: must be a generator spec (naca4412, plate:...) or a "
+                       "coordinate file path", r->file, key);
+    }
+    const char *src = json_string_value(val);
+    b->section_name[i] = dup_str(key);
+    b->n_sections++;
+    if (ascr_geom_is_spec(src)) {
+      b->section_source[i] = dup_str(src);
+    } else {
+      b->section_source[i] = join_path(base_dir, src);
+      if (b->section_source[i] != NULL) {
+        FILE *f = fopen(b->section_source[i], "rb");
+        if (f == NULL) {
+          return core_fail(r->err, ASCR_EIO, "%s: sections.%s: section file '%s' cannot be opened",
+                           r->file, key, b->section_source[i]);
+        }
+        fclose(f);
+      }
+    }
+    if (b->section_name[i] == NULL || b->section_source[i] == NULL) {
+      return core_fail(r->err, ASCR_ENOMEM, "%s: out of memory", r->file);
+    }
+  }
+  return ASCR_OK;
+}
+
+static ascr_status read_stations(const rd *r, json_t *arr, double scale, ascr_blade *b)
+{
+  if (!json_is_array(arr) || json_array_size(arr) < 2) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: stations: must be a list of at least 2 stations",
+                     r->file);
+  }
+  size_t n = json_array_size(arr);
+  if (n > 10000) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: stations: %zu stations, at most 10000", r->file, n);
+  }
+  b->stations = core_calloc(n, sizeof *b->stations);
+  if (b->stations == NULL) {
+    return core_fail(r->err, ASCR_ENOMEM, "%s: out of memory", r->file);
+  }
+  static const char *const keys[] = {"r", "chord", "twist_deg", "section", NULL};
+  for (size_t i = 0; i < n; i++) {
+    json_t *s = json_array_get(arr, i);
+    char path[48];
+    snprintf(path, sizeof path, "stations[%zu]", i);
+    if (!json_is_object(s)) {
+      return core_fail(r->err, ASCR_EPARSE, "%s: %s: must be an object {r, chord, twist_deg, section}",
+                       r->file, path);
+    }
+    ascr_status st = need_keys(r, s, path, keys);
+    double rr, cc, tw;
+    if (st == ASCR_OK) {
+      st = get_number(r, s, "r", path, 1, 0.0, &rr);
+    }
+    if (st == ASCR_OK) {
+      st = get_number(r, s, "chord", path, 1, 0.0, &cc);
+    }
+    if (st == ASCR_OK) {
+      st = get_number(r, s, "twist_deg", path, 1, 0.0, &tw);
+    }
+    if (st != ASCR_OK) {
+      return st;
+    }
+    ascr_blade_station *o = &b->stations[i];
+    o->r_m = rr * scale;
+    o->chord_m = cc * scale;
+    o->twist_deg = tw;
+    json_t *sec = json_object_get(s, "section");
+    if (sec == NULL && b->n_sections == 1) {
+      o->section = 0;
+    } else if (!json_is_string(sec)) {
+      return core_fail(r->err, ASCR_EPARSE,
+                       "%s: %s.section: missing or not a name (required when the blade has more "
+                       "than one section)", r->file, path);
+    } else {
+      size_t k = 0;
+      while (k < b->n_sections && strcmp(b->section_name[k], json_string_value(sec)) != 0) {
+        k++;
+      }
+      if (k == b->n_sections) {
+        return core_fail(r->err, ASCR_EPARSE, "%s: %s.section: unknown section '%s' (not in sections)",
+                         r->file, path, json_string_value(sec));
+      }
+      o->section = k;
+    }
+    b->n_stations++;
+  }
+  return ASCR_OK;
+}
+
+static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, ascr_blade *b)
+{
+  static const char *const keys[] = {"format", "name", "blades", "tip_radius", "hub_radius",
+                                     "length_unit", "pitch_offset_deg", "rotation", "sections",
+                                     "stations", NULL};
+  if (!json_is_object(root)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
+  }
+  ascr_status st = need_keys(r, root, "", keys);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  json_t *fmt = json_object_get(root, "format");
+  if (!json_is_string(fmt) || strcmp(json_string_value(fmt), "airscrew-blade-1") != 0) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: format: must be \"airscrew-blade-1\"", r->file);
+  }
+  json_t *name = json_object_get(root, "name");
+  if (name != NULL) {
+    if (!json_is_string(name)) {
+      return core_fail(r->err, ASCR_EPARSE, "%s: name: must be a string", r->file);
+    }
+    b->name = dup_str(json_string_value(name));
+  }
+  json_t *nb = json_object_get(root, "blades");
+  if (!json_is_integer(nb)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: blades: missing or not a whole number", r->file);
+  }
+  json_int_t nbv = json_integer_value(nb);
+  if (nbv < 1 || nbv > 12) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: blades: %lld, must be 1 .. 12", r->file, (long long)nbv);
+  }
+  b->n_blades = (int)nbv;
+  double scale = 1.0;
+  int fraction = 0;
+  json_t *lu = json_object_get(root, "length_unit");
+  if (lu != NULL) {
+    const char *u = json_is_string(lu) ? json_string_value(lu) : "";
+    if (strcmp(u, "m") == 0) {
+      scale = 1.0;
+    } else if (strcmp(u, "mm") == 0) {
+      scale = 1e-3;
+    } else if (strcmp(u, "in") == 0) {
+      scale = 0.0254;
+    } else if (strcmp(u, "tip_radius") == 0) {
+      fraction = 1;
+    } else {
+      return core_fail(r->err, ASCR_EPARSE,
+                       "%s: length_unit: must be \"m\", \"mm\", \"in\" or \"tip_radius\"", r->file);
+    }
+  } else {
+    return core_fail(r->err, ASCR_EPARSE,
+                     "%s: length_unit: missing (\"m\", \"mm\", \"in\" or \"tip_radius\")", r->file);
+  }
+  double tip, hub;
+  if (fraction) {
+    /* stations as fractions of the tip radius; the radius itself then in metres */
+    st = get_number(r, root, "tip_radius", "", 1, 0.0, &tip);
+    if (st == ASCR_OK) {
+      st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
+    }
+    if (st != ASCR_OK) {
+      return st;
+    }
+    b->r_tip_m = tip;
+    b->r_hub_m = hub * tip;
+    scale = tip;
+  } else {
+    st = get_number(r, root, "tip_radius", "", 1, 0.0, &tip);
+    if (st == ASCR_OK) {
+      st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
+    }
+    if (st != ASCR_OK) {
+      return st;
+    }
+    b->r_tip_m = tip * scale;
+    b->r_hub_m = hub * scale;
+  }
+  if (!(b->r_tip_m > 0.0)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: tip_radius: %g must be > 0", r->file, tip);
+  }
+  st = get_number(r, root, "pitch_offset_deg", "", 0, 0.0, &b->pitch_offset_deg);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  b->rotation = 1;
+  json_t *rot = json_object_get(root, "rotation");
+  if (rot != NULL) {
+    const char *s = json_is_string(rot) ? json_string_value(rot) : "";
+    if (strcmp(s, "ccw") == 0) {
+      b->rotation = 1;
+    } else if (strcmp(s, "cw") == 0) {
+      b->rotation = -1;
+    } else {
+      return core_fail(r->err, ASCR_EPARSE,
+                       "%s: rotation: must be \"ccw\" or \"cw\" (seen from the front)", r->file);
+    }
+  }
+  st = read_sections(r, json_object_get(root, "sections"), base_dir, b);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  st = read_stations(r, json_object_get(root, "stations"), scale, b);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  ascr_errbuf e2;
+  st = ascr_blade_validate(b, &e2);
+  if (st != ASCR_OK) {
+    /* "blade: stations[3].chord ..." -> "file: stations[3].chord ..." */
+    const char *m = strncmp(e2.msg, "blade: ", 7) == 0 ? e2.msg + 7 : e2.msg;
+    return core_fail(r->err, st, "%s: %s", r->file, m);
+  }
+  return ASCR_OK;
+}
+
+ascr_status ascr_blade_parse(const char *text, size_t len, const char *name, const char *base_dir,
+                             ascr_blade **out, ascr_errbuf *err)
+{
+  if (out == NULL || (text == NULL && len > 0)) {
+    return core_fail(err, ASCR_EINVAL, "blade: bad arguments");
+  }
+  *out = NULL;
+  rd r = {name != NULL ? name : "(blade)", err};
+  if (memchr(text, '\0', len) != NULL) {
+    return core_fail(err, ASCR_EPARSE, "%s: binary data (NUL byte), not a JSON blade file", r.file);
+  }
+  json_error_t je;
+  json_t *root = json_loadb(text, len, JSON_REJECT_DUPLICATES, &je);
+  if (root == NULL) {
+    return core_fail(err, ASCR_EPARSE, "%s:%d:%d: JSON syntax: %s", r.file, je.line, je.column,
+                     je.text);
+  }
+  ascr_blade *b = calloc(1, sizeof *b);
+  if (b == NULL) {
+    json_decref(root);
+    return core_fail(err, ASCR_ENOMEM, "%s: out of memory", r.file);
+  }
+  ascr_status st = parse_root(&r, root, base_dir, b);
+  json_decref(root);
+  if (st != ASCR_OK) {
+    ascr_blade_free(b);
+    return st;
+  }
+  *out = b;
+  return ASCR_OK;
+}
+
+ascr_status ascr_blade_read(const char *path, ascr_blade **out, ascr_errbuf *err)
+{
+  if (path == NULL || out == NULL) {
+    return core_fail(err, ASCR_EINVAL, "blade: no file given");
+  }
+  *out = NULL;
+  FILE *f = fopen(path, "rb");
+  if (f == NULL) {
+    return core_fail(err, ASCR_EIO, "%s: cannot open blade file", path);
+  }
+  char *buf = malloc(BLADE_MAX_BYTES + 1);
+  if (buf == NULL) {
+    fclose(f);
+    return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
+  }
+  size_t n = fread(buf, 1, BLADE_MAX_BYTES + 1, f);
+  int bad = ferror(f);
+  fclose(f);
+  if (bad) {
+    free(buf);
+    return core_fail(err, ASCR_EIO, "%s: read error", path);
+  }
+  if (n > BLADE_MAX_BYTES) {
+    free(buf);
+    return core_fail(err, ASCR_EPARSE, "%s: larger than %u MiB, not a blade file", path,
+                     BLADE_MAX_BYTES >> 20);
+  }
+  /* directory of the file, for relative section paths */
+  char *dir = dup_str(path);
+  if (dir == NULL) {
+    free(buf);
+    return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
+  }
+  char *slash = strrchr(dir, '/');
+  if (slash != NULL) {
+    *slash = '\0';
+  } else {
+    dir[0] = '\0';
+  }
+  ascr_status st = ascr_blade_parse(buf, n, path, dir, out, err);
+  free(dir);
+  free(buf);
+  return st;
+}

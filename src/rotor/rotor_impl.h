@@ -1,0 +1,14 @@
+/* src/rotor/rotor_impl.h
+ * Private helpers of the rotor stage: blade properties at a radius.
+ */
+#ifndef ASCR_ROTOR_IMPL_H
+#define ASCR_ROTOR_IMPL_H
+
+#include "airscrew/ascr_rotor.h"
+
+/* Chord, twist (pitch offset included) and the two sections blended at radius r (inside the
+ * blade span): coefficients = (1 - w) * section s0 + w * section s1. */
+void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_deg, size_t *s0,
+                    size_t *s1, double *w);
+
+#endif
