@@ -1,0 +1,159 @@
+/* tests/polar/test_polar_table.c
+ * Section tables: computed range reproduced, gaps bridged and flagged, the Viterna-Corrigan
+ * extension (NASA CP-2230, 1982) continuous at the stall point and reaching its flat-plate
+ * limits, Re interpolation and clamping, Prandtl-Glauert factor, refusals.
+ */
+#include "ascr_test.h"
+#include "airscrew/ascr_table.h"
+
+#include <math.h>
+#include <string.h>
+
+#define PI 3.14159265358979323846
+#define DEG (PI / 180.0)
+#define NA 37
+
+typedef struct synth {
+  double al[NA], cl[NA], cd[NA], cm[NA];
+  int conv[NA];
+} synth;
+
+/* a thin-airfoil-like curve from -8 to 10 deg by 0.5: cl = k 2 pi (alpha + 2 deg) with a soft
+ * top; cd = cd0 + 0.01 cl^2 */
+static void make(synth *s, double k, double cd0)
+{
+  for (int i = 0; i < NA; i++) {
+    s->al[i] = -8.0 + 0.5 * i;
+    double a = (s->al[i] + 2.0) * DEG;
+    s->cl[i] = k * 2.0 * PI * a - (s->al[i] > 6.0 ? 0.02 * (s->al[i] - 6.0) * (s->al[i] - 6.0) : 0.0);
+    s->cd[i] = cd0 + 0.01 * s->cl[i] * s->cl[i];
+    s->cm[i] = -0.05;
+    s->conv[i] = 1;
+  }
+}
+
+static void test_inside_and_extension(void **state)
+{
+  (void)state;
+  synth s;
+  make(&s, 0.9, 0.02);
+  s.conv[20] = s.conv[21] = 0; /* 2.0 and 2.5 deg did not converge */
+  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv};
+  ascr_table_options o = ascr_table_options_defaults();
+  ascr_polar_table *t = NULL;
+  ascr_errbuf err;
+  assert_int_equal(ascr_polar_table_build(&c, 1, &o, &t, &err), ASCR_OK);
+  ascr_table_sample q;
+  /* at a converged grid point the computed value is reproduced (the 0.5 deg resampling grid
+   * holds the same angles; bicubic/bilinear through them is exact there) */
+  ascr_polar_table_eval(t, -3.0 * DEG, 1e5, 0.0, &q);
+  ascr_assert_close(q.cl, s.cl[10], 1e-12, 1e-12, "cl at a computed point");
+  ascr_assert_close(q.cd, s.cd[10], 1e-12, 1e-12, "cd at a computed point");
+  assert_int_equal(q.region, ASCR_TABLE_COMPUTED);
+  assert_false(q.re_outside);
+  /* in the gap: flagged, and the monotone cubic stays between its neighbours */
+  ascr_polar_table_eval(t, 2.25 * DEG, 1e5, 0.0, &q);
+  assert_int_equal(q.region, ASCR_TABLE_BRIDGED);
+  assert_true(q.cl > s.cl[19] && q.cl < s.cl[22]);
+  /* continuity at the stall point (10 deg, the last converged) */
+  ascr_table_sample lo, hi;
+  ascr_polar_table_eval(t, 9.999 * DEG, 1e5, 0.0, &lo);
+  ascr_polar_table_eval(t, 10.5 * DEG, 1e5, 0.0, &hi);
+  assert_int_equal(hi.region, ASCR_TABLE_EXTENDED);
+  assert_true(hi.stalled);
+  assert_true(fabs(hi.cl - lo.cl) < 0.03 && fabs(hi.cd - lo.cd) < 0.01);
+  /* Viterna-Corrigan limits: cl(90) = 0, cd(90) = cd_max; flat plate to cd_reverse at 180 */
+  ascr_polar_table_eval(t, 90.0 * DEG, 1e5, 0.0, &q);
+  ascr_assert_close(q.cl, 0.0, 0.0, 1e-9, "cl(90)");
+  ascr_assert_close(q.cd, o.cd_max, 1e-9, 0.0, "cd(90) = cd_max");
+  ascr_polar_table_eval(t, 180.0 * DEG, 1e5, 0.0, &q);
+  ascr_assert_close(q.cd, o.cd_reverse, 1e-9, 0.0, "cd(180)");
+  ascr_polar_table_eval(t, -90.0 * DEG, 1e5, 0.0, &q);
+  ascr_assert_close(q.cd, o.cd_max, 1e-9, 0.0, "cd(-90) = cd_max");
+  /* Viterna at 45 deg from (as, cls, cds) evaluated by hand (CP-2230 eqs.) */
+  double as = 10.0 * DEG, cls = s.cl[NA - 1], cds = s.cd[NA - 1], b1 = o.cd_max;
+  double a2 = (cls - b1 * sin(as) * cos(as)) * sin(as) / (cos(as) * cos(as));
+  double b2 = (cds - b1 * sin(as) * sin(as)) / cos(as);
+  double a = 45.0 * DEG;
+  ascr_polar_table_eval(t, a, 1e5, 0.0, &q);
+  ascr_assert_close(q.cl, 0.5 * b1 * sin(2 * a) + a2 * cos(a) * cos(a) / sin(a), 1e-9, 0.0, "Viterna cl(45)");
+  ascr_assert_close(q.cd, b1 * sin(a) * sin(a) + b2 * cos(a), 1e-9, 0.0, "Viterna cd(45)");
+  /* every angle gives finite numbers, cd > 0 */
+  for (int d = -360; d <= 360; d++) {
+    ascr_polar_table_eval(t, d * 0.5 * DEG, 1e5, 0.3, &q);
+    assert_true(isfinite(q.cl) && isfinite(q.cd) && isfinite(q.cm) && q.cd > 0.0);
+  }
+  ascr_polar_table_free(t);
+}
+
+static void test_re_interpolation_and_mach(void **state)
+{
+  (void)state;
+  synth a, b, c, d;
+  make(&a, 0.80, 0.030);
+  make(&b, 0.85, 0.020);
+  make(&c, 0.90, 0.014);
+  make(&d, 0.95, 0.010);
+  ascr_table_curve cv[4] = {{3e5, NA, d.al, d.cl, d.cd, d.cm, NULL},
+                            {3e4, NA, a.al, a.cl, a.cd, a.cm, NULL},
+                            {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL},
+                            {6e4, NA, b.al, b.cl, b.cd, b.cm, NULL}};
+  ascr_polar_table *t = NULL;
+  assert_int_equal(ascr_polar_table_build(cv, 4, NULL, &t, NULL), ASCR_OK);
+  assert_int_equal(ascr_polar_table_curves(t), 4);
+  ascr_assert_close(ascr_polar_table_re_min(t), 3e4, 1e-12, 0.0, "Re min");
+  ascr_table_sample q, q1, q2;
+  /* at a curve's Re the curve is reproduced */
+  ascr_polar_table_eval(t, 1.0 * DEG, 6e4, 0.0, &q);
+  ascr_assert_close(q.cd, b.cd[18], 1e-10, 0.0, "cd on the 60k curve");
+  /* between curves: between their values */
+  ascr_polar_table_eval(t, 1.0 * DEG, 8e4, 0.0, &q);
+  assert_true(q.cd < b.cd[18] && q.cd > c.cd[18]);
+  /* beyond the range: the end curve, flagged */
+  ascr_polar_table_eval(t, 1.0 * DEG, 1e4, 0.0, &q);
+  assert_true(q.re_outside);
+  ascr_assert_close(q.cd, a.cd[18], 1e-10, 0.0, "clamped to the 30k curve");
+  /* Prandtl-Glauert (Glauert 1928): cl scales by 1/sqrt(1 - M^2) in the computed range */
+  ascr_polar_table_eval(t, 3.0 * DEG, 1e5, 0.0, &q1);
+  ascr_polar_table_eval(t, 3.0 * DEG, 1e5, 0.6, &q2);
+  ascr_assert_close(q2.cl, q1.cl / 0.8, 1e-12, 0.0, "Prandtl-Glauert factor at M 0.6");
+  ascr_polar_table_free(t);
+}
+
+static void test_refusals(void **state)
+{
+  (void)state;
+  synth s;
+  make(&s, 0.9, 0.02);
+  ascr_polar_table *t = NULL;
+  ascr_errbuf err;
+  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL};
+  s.cd[3] = NAN;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EINVAL);
+  assert_non_null(strstr(err.msg, "point 4"));
+  make(&s, 0.9, 0.02);
+  s.al[5] = s.al[4];
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EINVAL);
+  assert_non_null(strstr(err.msg, "does not increase"));
+  make(&s, 0.9, 0.02);
+  /* converged only on one side of zero: no usable curve */
+  for (int i = 0; i < NA; i++) {
+    s.conv[i] = s.al[i] > 0.0;
+  }
+  c.converged = s.conv;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EDOM);
+  assert_null(t);
+  ascr_table_curve two[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, NULL}, {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL}};
+  assert_int_equal(ascr_polar_table_build(two, 2, NULL, &t, &err), ASCR_EINVAL);
+  assert_non_null(strstr(err.msg, "twice"));
+}
+
+int main(void)
+{
+  const struct CMUnitTest tests[] = {
+      cmocka_unit_test(test_inside_and_extension),
+      cmocka_unit_test(test_re_interpolation_and_mach),
+      cmocka_unit_test(test_refusals),
+  };
+  return cmocka_run_group_tests(tests, NULL, NULL);
+}
