@@ -95,6 +95,75 @@ ASCR_EXPORT double ascr_polar_table_re_max(const ascr_polar_table *t);
 ASCR_EXPORT void ascr_polar_table_curve_range(const ascr_polar_table *t, size_t i, double *re,
                                               double *alpha_lo_deg, double *alpha_hi_deg);
 
+/* ---- computed curves, polar-table files and the on-disk cache -------------------------- */
+
+/** One computed curve with its own storage (as computed by ascr_table_curve_compute or read
+ *  from a polar-table file). */
+typedef struct ascr_curve_data {
+  double re, mach, ncrit, trip_upper, trip_lower;
+  size_t n;
+  double *alpha_deg, *cl, *cd, *cm;
+  int *converged;
+} ascr_curve_data;
+
+/** Free the arrays of a curve (not the struct); NULL is a no-op. */
+ASCR_EXPORT void ascr_curve_data_clear(ascr_curve_data *c);
+
+/** What to compute for a table curve. */
+typedef struct ascr_curve_request {
+  double re, mach, ncrit;          /* ncrit default 9 */
+  double trip_upper, trip_lower;   /* x/c; > 1 for none */
+  double alpha_lo_deg, alpha_hi_deg, alpha_step_deg; /* default -8 .. 16 by 1 */
+  size_t n_panels;                 /* default ASCR_GEOM_DEFAULT_PANELS */
+} ascr_curve_request;
+
+/** Defaults as documented above, at Re re. */
+ASCR_EXPORT ascr_curve_request ascr_curve_request_defaults(double re);
+
+struct ascr_geom_section;
+
+/** Compute one curve: repanel the section, sweep the viscous solver (ascr_polar_sweep) over
+ *  the request's angles. out is filled (caller clears it). Unconverged points are kept,
+ *  flagged. Thread safety: reentrant (allocates its own solvers).
+ *  @return ASCR_OK (see the flags), or the error of the set-up. */
+ASCR_EXPORT ascr_status ascr_table_curve_compute(const struct ascr_geom_section *sec,
+                                                 const ascr_curve_request *rq,
+                                                 ascr_curve_data *out, ascr_errbuf *err);
+
+/** Identity of a section's shape: 16 hex digits (FNV-1a 64 of its normalised coordinates). */
+ASCR_EXPORT void ascr_section_fingerprint(const struct ascr_geom_section *sec, char out[17]);
+
+/** Cache key of a curve request for a section fingerprint: 16 hex digits; the key text it is
+ *  hashed from (which the cache entry stores and compares) goes to text if not NULL. */
+ASCR_EXPORT void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq,
+                                      char key[17], char *text, size_t text_size);
+
+/** Write curves to a polar-table file (JSON, docs/file-formats.md, "Polar-table files"),
+ *  atomically (temporary file + rename); key_text may be NULL (files made for users).
+ *  @return ASCR_OK or ASCR_EIO. */
+ASCR_EXPORT ascr_status ascr_table_file_write(const char *path, const char *section_name,
+                                              const char *key_text, const ascr_curve_data *curves,
+                                              size_t n, ascr_errbuf *err);
+
+/** Read a polar-table file. *curves is allocated (free each with ascr_curve_data_clear, then
+ *  free()). If key_text is not NULL the file must carry exactly that key (cache use). The
+ *  checksum inside the file is verified: a damaged file is refused, never trusted.
+ *  @return ASCR_OK, ASCR_EIO, ASCR_EPARSE (syntax, schema, checksum; message names file and
+ *          field). */
+ASCR_EXPORT ascr_status ascr_table_file_read(const char *path, const char *key_text,
+                                             ascr_curve_data **curves, size_t *n,
+                                             ascr_errbuf *err);
+
+/** Build a table from computed curves (wrapper of ascr_polar_table_build). */
+ASCR_EXPORT ascr_status ascr_polar_table_from_curves(const ascr_curve_data *curves, size_t n,
+                                                     const ascr_table_options *opt,
+                                                     ascr_polar_table **out, ascr_errbuf *err);
+
+/** Reynolds numbers of the table ladder (four per decade: 10^(k/4)) covering re_lo..re_hi with
+ *  one rung beyond each end; returns the count (at most max written to out). Snapping to a
+ *  fixed ladder lets the cache serve neighbouring operating ranges. */
+ASCR_EXPORT size_t ascr_table_re_ladder(double re_lo, double re_hi, double *out, size_t max);
+
 /** Free; NULL is a no-op. */
 ASCR_EXPORT void ascr_polar_table_free(ascr_polar_table *t);
 
