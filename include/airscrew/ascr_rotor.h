@@ -84,6 +84,17 @@ ASCR_EXPORT ascr_rotor_params ascr_rotor_params_defaults(void);
 ASCR_EXPORT ascr_status ascr_isa(double altitude_m, double *density_kg_m3, double *viscosity_pa_s,
                                  double *sound_speed_m_s, ascr_errbuf *err);
 
+/** Chord Reynolds-number range that section `section` of blade b meets over rpm in
+ *  rpm_lo..rpm_hi and axial speed in v_lo..v_hi (relative speed without induction, widened by
+ *  0.8 and 1.25 for the induced velocities, which change it by less than that at the loadings
+ *  of propellers). Elements that blend two sections count for both.
+ *  @return ASCR_OK or ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_rotor_section_re_range(const ascr_blade *b, size_t section,
+                                                    const ascr_rotor_params *p, double rpm_lo,
+                                                    double rpm_hi, double v_lo, double v_hi,
+                                                    double *re_lo, double *re_hi,
+                                                    ascr_errbuf *err);
+
 /** Per-element results. */
 typedef struct ascr_rotor_element {
   double r_m, dr_m, chord_m;
@@ -119,6 +130,19 @@ ASCR_EXPORT ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_ta
                                         const ascr_rotor_params *p, double rpm, double speed_m_s,
                                         ascr_rotor_result *res, ascr_rotor_element *el,
                                         ascr_errbuf *err);
+
+/** Find the rpm in rpm_lo..rpm_hi at which the BEMT thrust equals thrust_N at axial speed
+ *  speed_m_s (GSL's Brent solver on T(rpm) - thrust_N, to 1e-7 relative in rpm). res and el
+ *  (may be NULL) hold the solution at that rpm.
+ *  @return ASCR_OK; ASCR_EDOM if the thrust is not reached within the rpm range (message gives
+ *          the thrust at both ends); ASCR_EMAXITER if an element fails to converge on the way;
+ *          ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b,
+                                                       const ascr_polar_table *const *tables,
+                                                       const ascr_rotor_params *p, double thrust_N,
+                                                       double speed_m_s, double rpm_lo,
+                                                       double rpm_hi, ascr_rotor_result *res,
+                                                       ascr_rotor_element *el, ascr_errbuf *err);
 
 #ifdef __cplusplus
 }

@@ -336,3 +336,132 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   res->tip_mach = hypot(omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
   return ASCR_OK;
 }
+
+ascr_status ascr_rotor_section_re_range(const ascr_blade *b, size_t section,
+                                        const ascr_rotor_params *pin, double rpm_lo, double rpm_hi,
+                                        double v_lo, double v_hi, double *re_lo, double *re_hi,
+                                        ascr_errbuf *err)
+{
+  ascr_rotor_params p = pin != NULL ? *pin : ascr_rotor_params_defaults();
+  ascr_status st = ascr_blade_validate(b, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  if (section >= b->n_sections || !(rpm_lo > 0.0 && rpm_hi >= rpm_lo && isfinite(rpm_hi)) ||
+      !(v_lo >= 0.0 && v_hi >= v_lo && isfinite(v_hi)) || p.n_elements < 4 ||
+      !(p.density_kg_m3 > 0.0 && p.viscosity_pa_s > 0.0)) {
+    return core_fail(err, ASCR_EINVAL, "rotor Re range: bad arguments");
+  }
+  double lo = HUGE_VAL, hi = 0.0;
+  double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
+  size_t ne = p.n_elements;
+  for (size_t i = 0; i < ne; i++) {
+    double ea = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)i / (double)ne));
+    double eb = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)(i + 1) / (double)ne));
+    double r = 0.5 * (ea + eb), chord, twist, w;
+    size_t s0, s1;
+    rotor_blade_at(b, r, &chord, &twist, &s0, &s1, &w);
+    if (!(s0 == section || (s1 == section && w > 0.0))) {
+      continue;
+    }
+    double k = p.density_kg_m3 * chord / p.viscosity_pa_s;
+    double wlo = hypot(v_lo, rpm_lo * 2.0 * ASCR_PI / 60.0 * r);
+    double whi = hypot(v_hi, rpm_hi * 2.0 * ASCR_PI / 60.0 * r);
+    lo = fmin(lo, k * wlo);
+    hi = fmax(hi, k * whi);
+  }
+  if (hi == 0.0) {
+    return core_fail(err, ASCR_EINVAL, "rotor Re range: section %zu is not used by the blade", section);
+  }
+  *re_lo = 0.8 * lo;
+  *re_hi = 1.25 * hi;
+  return ASCR_OK;
+}
+
+typedef struct trim_ctx {
+  const ascr_blade *b;
+  const ascr_polar_table *const *tables;
+  const ascr_rotor_params *p;
+  double v, target;
+  ascr_status st;
+  int converged;
+  ascr_errbuf *err;
+} trim_ctx;
+
+static double trim_fn(double rpm, void *ctx)
+{
+  trim_ctx *t = ctx;
+  ascr_rotor_result r;
+  t->st = ascr_rotor_bemt(t->b, t->tables, t->p, rpm, t->v, &r, NULL, t->err);
+  t->converged &= t->st == ASCR_OK && r.converged;
+  return t->st == ASCR_OK ? r.thrust_N - t->target : GSL_NAN;
+}
+
+ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                           const ascr_rotor_params *p, double thrust_N,
+                                           double speed_m_s, double rpm_lo, double rpm_hi,
+                                           ascr_rotor_result *res, ascr_rotor_element *el,
+                                           ascr_errbuf *err)
+{
+  if (res == NULL || !(isfinite(thrust_N) && thrust_N > 0.0) ||
+      !(rpm_lo > 0.0 && rpm_hi > rpm_lo && isfinite(rpm_hi))) {
+    return core_fail(err, ASCR_EINVAL,
+                     "rpm for thrust: thrust %g N must be > 0 and the rpm range %g .. %g increasing",
+                     thrust_N, rpm_lo, rpm_hi);
+  }
+  ascr_rotor_result rl, rh;
+  ascr_status st = ascr_rotor_bemt(b, tables, p, rpm_lo, speed_m_s, &rl, NULL, err);
+  if (st == ASCR_OK) {
+    st = ascr_rotor_bemt(b, tables, p, rpm_hi, speed_m_s, &rh, NULL, err);
+  }
+  if (st != ASCR_OK) {
+    return st;
+  }
+  if (!rl.converged || !rh.converged) {
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the BEMT did not converge at %g rpm",
+                     rl.converged ? rpm_hi : rpm_lo);
+  }
+  double fl = rl.thrust_N - thrust_N, fh = rh.thrust_N - thrust_N;
+  if (fl > 0.0 || fh < 0.0) {
+    return core_fail(err, ASCR_EDOM,
+                     "rpm for thrust: %g N is not reached between %g rpm (%g N) and %g rpm (%g N)",
+                     thrust_N, rpm_lo, rl.thrust_N, rpm_hi, rh.thrust_N);
+  }
+  /* T(rpm) is smooth and, for a fixed-pitch propeller, rises with rpm over the working range */
+  trim_ctx tc = {b, tables, p, speed_m_s, thrust_N, ASCR_OK, 1, err};
+  gsl_function fn = {trim_fn, &tc};
+  gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+  if (s == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "rpm for thrust: out of memory");
+  }
+  gsl_error_handler_t *old = gsl_set_error_handler_off();
+  double rpm = NAN;
+  if (gsl_root_fsolver_set(s, &fn, rpm_lo, rpm_hi) == GSL_SUCCESS) {
+    for (int it = 0; it < 100 && tc.st == ASCR_OK && tc.converged; it++) {
+      if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
+        break;
+      }
+      double x0 = gsl_root_fsolver_x_lower(s), x1 = gsl_root_fsolver_x_upper(s);
+      if (gsl_root_test_interval(x0, x1, 0.0, 1e-7) == GSL_SUCCESS) {
+        rpm = gsl_root_fsolver_root(s);
+        break;
+      }
+    }
+  }
+  gsl_set_error_handler(old);
+  gsl_root_fsolver_free(s);
+  if (tc.st != ASCR_OK) {
+    return tc.st;
+  }
+  if (!tc.converged) {
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the BEMT did not converge on the way");
+  }
+  if (isnan(rpm)) {
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: no convergence in 100 steps");
+  }
+  st = ascr_rotor_bemt(b, tables, p, rpm, speed_m_s, res, el, err);
+  if (st == ASCR_OK && !res->converged) {
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the BEMT did not converge at %g rpm", rpm);
+  }
+  return st;
+}

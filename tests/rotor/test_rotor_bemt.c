@@ -248,6 +248,15 @@ static void test_thrust_rpm_squared(void **state)
   ascr_assert_close(r2.power_W / r1.power_W, 8.0, 1e-8, 0.0, "P ~ rpm^3");
   ascr_assert_close(r2.figure_of_merit, r1.figure_of_merit, 1e-8, 0.0, "FM independent of rpm");
   assert_true(r1.figure_of_merit > 0.3 && r1.figure_of_merit < 0.85); /* common practice range */
+  /* the rpm for 2.25 x the 8000-rpm thrust is 12000 (T ~ rpm^2) */
+  ascr_rotor_result rt;
+  ascr_errbuf err;
+  assert_int_equal(ascr_rotor_bemt_rpm_for_thrust(&a.b, tabs, &p, 2.25 * r1.thrust_N, 0.0, 1000.0,
+                                                  40000.0, &rt, NULL, &err), ASCR_OK);
+  ascr_assert_close(rt.rpm, 12000.0, 1e-6, 0.0, "rpm for a target thrust");
+  assert_int_equal(ascr_rotor_bemt_rpm_for_thrust(&a.b, tabs, &p, 1e4, 0.0, 1000.0, 40000.0, &rt,
+                                                  NULL, &err), ASCR_EDOM);
+  assert_non_null(strstr(err.msg, "not reached"));
   ascr_polar_table_free(tab);
 }
 
