@@ -9,9 +9,12 @@
  * - only converged points are used; a run of unconverged points inside the converged range is
  *   bridged by a monotone cubic (Steffen 1990, A&A 239:443) through the converged neighbours
  *   and the lookups there are flagged ASCR_TABLE_BRIDGED;
- * - beyond the highest (lowest) converged angle the Viterna-Corrigan relations continue from
- *   that point up to 90 deg (down to -90 deg), then a flat plate to +-180 deg; lookups there
- *   are flagged ASCR_TABLE_EXTENDED;
+ * - beyond the highest converged angle the Viterna-Corrigan relations continue from that point
+ *   up to 90 deg, then a flat plate to 180 deg; below the lowest converged angle the lift line
+ *   continues with the slope of the lowest points down to a negative stall angle (4 deg below
+ *   the zero-lift angle, at most -2 deg) when the computed range stops short of it, and the
+ *   mirrored relations take over from there to -180 deg; lookups there are flagged
+ *   ASCR_TABLE_EXTENDED;
  * - the curves are resampled on one angle grid (0.5 deg within +-40 deg, 5 deg outside) and
  *   interpolated bicubically in (alpha, log Re) with GSL's interp2d (bilinear with fewer than
  *   four curves); outside the Re range the nearest curve is used and the lookup flagged.
@@ -66,8 +69,8 @@ typedef struct ascr_table_sample {
 } ascr_table_sample;
 
 /** Build a table from n_curves computed polars (distinct Re, any order). A curve needs at
- *  least five converged points, with converged angles on both sides of zero lift; curves that
- *  do not qualify are left out (count them with ascr_polar_table_curves()).
+ *  least four converged points, the highest above 1 deg; curves that do not qualify are left
+ *  out (count them with ascr_polar_table_curves()).
  *  @return ASCR_OK; ASCR_EINVAL (bad arguments, NaN, Re <= 0, unsorted angles, repeated Re;
  *          the message names the curve and point); ASCR_EDOM (no curve qualified);
  *          ASCR_ENOMEM. */
@@ -159,9 +162,13 @@ ASCR_EXPORT ascr_status ascr_polar_table_from_curves(const ascr_curve_data *curv
                                                      const ascr_table_options *opt,
                                                      ascr_polar_table **out, ascr_errbuf *err);
 
+/** Lowest Re of a computed table curve. Below it the integral boundary layer is unvalidated
+ *  and the viscous solution rarely converges; elements there use the lowest curve, flagged. */
+#define ASCR_TABLE_RE_FLOOR 1e4
+
 /** Reynolds numbers of the table ladder (four per decade: 10^(k/4)) covering re_lo..re_hi with
- *  one rung beyond each end; returns the count (at most max written to out). Snapping to a
- *  fixed ladder lets the cache serve neighbouring operating ranges. */
+ *  one rung beyond each end, none below ASCR_TABLE_RE_FLOOR; returns the count (at most max
+ *  written to out). Snapping to a fixed ladder lets the cache serve neighbouring ranges. */
 ASCR_EXPORT size_t ascr_table_re_ladder(double re_lo, double re_hi, double *out, size_t max);
 
 /** Free; NULL is a no-op. */

@@ -9,5 +9,7 @@ int cmd_section(int argc, char **argv);
 int cmd_flow(int argc, char **argv);
 int cmd_demo(int argc, char **argv);
 int cmd_polar(int argc, char **argv);
+int cmd_rotor(int argc, char **argv);
+int cmd_cache(int argc, char **argv);
 
 #endif

@@ -11,12 +11,14 @@ static void main_help(FILE *fp)
 {
   fputs("usage: airscrew COMMAND [options]\n"
         "\n"
-        "Section aerodynamics for small propellers, from the section shape.\n"
+        "Section and propeller aerodynamics for small propellers, from the section shape.\n"
         "\n"
         "commands:\n"
         "  section   read or generate a section, repanel it, report its shape, write coordinates\n"
         "  flow      analyse one section at one angle of attack (viscous with --re, or --inviscid)\n"
         "  polar     viscous polars over angle of attack for several Reynolds numbers\n"
+        "  rotor     propeller thrust, torque, power and efficiency from a blade file\n"
+        "  cache     show or clear the cache of computed section polars\n"
         "  demo      built-in demonstration on sample sections\n"
         "\n"
         "  airscrew COMMAND --help    options of a command\n"
@@ -59,10 +61,12 @@ int main(int argc, char **argv)
   if (strcmp(cmd, "flow") == 0) return cmd_flow(argc - 1, argv + 1);
   if (strcmp(cmd, "demo") == 0) return cmd_demo(argc - 1, argv + 1);
   if (strcmp(cmd, "polar") == 0) return cmd_polar(argc - 1, argv + 1);
+  if (strcmp(cmd, "rotor") == 0) return cmd_rotor(argc - 1, argv + 1);
+  if (strcmp(cmd, "cache") == 0) return cmd_cache(argc - 1, argv + 1);
   if (cmd[0] == '-') {
     cli_error("unknown option '%s' (see airscrew --help)", cmd);
   } else {
-    cli_error("unknown command '%s' (commands: section, flow, polar, demo; see airscrew --help)", cmd);
+    cli_error("unknown command '%s' (commands: section, flow, polar, rotor, cache, demo; see airscrew --help)", cmd);
   }
   return CLI_EXIT_USAGE;
 }

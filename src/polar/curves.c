@@ -200,6 +200,8 @@ size_t ascr_table_re_ladder(double re_lo, double re_hi, double *out, size_t max)
   if (!(re_lo > 0.0 && re_hi >= re_lo && isfinite(re_hi))) {
     return 0;
   }
+  re_lo = fmax(re_lo, ASCR_TABLE_RE_FLOOR);
+  re_hi = fmax(re_hi, ASCR_TABLE_RE_FLOOR);
   int k0 = (int)floor(4.0 * log10(re_lo) - 1e-9);
   int k1 = (int)ceil(4.0 * log10(re_hi) + 1e-9);
   size_t n = 0;

@@ -21,6 +21,8 @@ typedef struct table_curve {
   double re, logre;
   double a_lo, a_hi;       /* converged range, deg */
   double a_clmax, a_clmin; /* angles of the largest / smallest converged cl, deg */
+  double a_ns;             /* negative stall angle of the extension, deg (<= a_lo, < 0) */
+  double slope_lo;         /* lift slope used from a_lo down to a_ns, per deg */
   size_t ngap;
   double *gap;             /* ngap pairs (lo, hi), deg */
 } table_curve;
@@ -116,12 +118,19 @@ static void curve_eval(const curve_fit *f, const table_curve *c, const ascr_tabl
     size_t k = f->n - 1;
     viterna(a_deg, c->a_hi, f->cl[k], f->cd[k], o, cl, cd);
     *cm = cm_extended(a_deg, c->a_hi, f->cm[k], *cl, *cd);
+  } else if (a_deg >= c->a_ns) {
+    /* converged range ends above the negative stall: the lift line continues with the slope
+     * of the lowest converged points, drag and moment held (flagged as extended) */
+    *cl = f->cl[0] + c->slope_lo * (a_deg - c->a_lo);
+    *cd = f->cd[0];
+    *cm = f->cm[0];
   } else {
     double l, d;
-    viterna(-a_deg, -c->a_lo, -f->cl[0], f->cd[0], o, &l, &d);
+    double cl_ns = f->cl[0] + c->slope_lo * (c->a_ns - c->a_lo);
+    viterna(-a_deg, -c->a_ns, -cl_ns, f->cd[0], o, &l, &d);
     *cl = -l;
     *cd = d;
-    *cm = cm_extended(a_deg, c->a_lo, f->cm[0], *cl, *cd);
+    *cm = cm_extended(a_deg, c->a_ns, f->cm[0], *cl, *cd);
   }
 }
 
@@ -135,7 +144,7 @@ static int curve_prepare(const ascr_table_curve *in, table_curve *c, curve_fit *
   for (size_t i = 0; i < in->n; i++) {
     n += (in->converged == NULL || in->converged[i]) ? 1 : 0;
   }
-  if (n < 5) {
+  if (n < 4) {
     return 0;
   }
   f->a = core_calloc(n, sizeof *f->a);
@@ -172,7 +181,7 @@ static int curve_prepare(const ascr_table_curve *in, table_curve *c, curve_fit *
   c->logre = log(in->re);
   c->a_lo = f->a[0];
   c->a_hi = f->a[n - 1];
-  if (!(c->a_lo < 0.0 && c->a_hi > 0.0) || c->a_hi >= 90.0 || c->a_lo <= -90.0) {
+  if (!(c->a_hi > 1.0) || c->a_hi >= 90.0 || c->a_lo <= -90.0) {
     free(c->gap);
     c->gap = NULL;
     fit_free(f);
@@ -185,6 +194,27 @@ static int curve_prepare(const ascr_table_curve *in, table_curve *c, curve_fit *
   }
   c->a_clmax = f->a[imax];
   c->a_clmin = f->a[imin];
+  /* Lift slope of the lowest three converged points (least squares), held within 0.04 ..
+   * 0.12 per deg (thin-airfoil theory gives 0.1097; common practice bounds), and the negative
+   * stall angle of the extension: 4 deg below the zero-lift angle it implies, at most -2 deg,
+   * or the lowest converged angle if that is lower. */
+  {
+    size_t m = n < 3 ? n : 3;
+    double sa = 0.0, sc = 0.0, saa = 0.0, sac = 0.0;
+    for (size_t i = 0; i < m; i++) {
+      sa += f->a[i];
+      sc += f->cl[i];
+      saa += f->a[i] * f->a[i];
+      sac += f->a[i] * f->cl[i];
+    }
+    double den = (double)m * saa - sa * sa;
+    double sl = den > 0.0 ? ((double)m * sac - sa * sc) / den : 0.1;
+    sl = sl < 0.04 ? 0.04 : (sl > 0.12 ? 0.12 : sl);
+    c->slope_lo = sl;
+    double a0 = f->a[0] - f->cl[0] / sl;
+    double ans = fmin(a0 - 4.0, -2.0);
+    c->a_ns = fmin(c->a_lo, fmax(ans, -30.0));
+  }
   f->icl = gsl_interp_alloc(gsl_interp_steffen, n);
   f->icd = gsl_interp_alloc(gsl_interp_steffen, n);
   f->icm = gsl_interp_alloc(gsl_interp_steffen, n);
@@ -340,7 +370,7 @@ ascr_status ascr_polar_table_build(const ascr_table_curve *curves, size_t n_curv
   }
   if (t->nc == 0) {
     st = core_fail(err, ASCR_EDOM,
-                   "polar table: no curve has five converged points on both sides of alpha = 0 "
+                   "polar table: no curve has four converged points reaching above alpha = 1 deg "
                    "(Re %g .. %g)", sorted[0].re, sorted[n_curves - 1].re);
     goto done;
   }

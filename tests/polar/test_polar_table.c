@@ -120,6 +120,31 @@ static void test_re_interpolation_and_mach(void **state)
   ascr_polar_table_free(t);
 }
 
+/* A curve whose converged range starts above zero lift (common for thin cambered plates at low
+ * Re): the lift line continues with the lowest points' slope, flagged as extended, and the
+ * mirrored post-stall relations take over below the negative stall angle. */
+static void test_negative_side_extension(void **state)
+{
+  (void)state;
+  synth s;
+  make(&s, 0.9, 0.02);
+  for (int i = 0; i < NA; i++) {
+    s.conv[i] = s.al[i] >= 2.0;
+  }
+  ascr_table_curve c = {2e4, NA, s.al, s.cl, s.cd, s.cm, s.conv};
+  ascr_polar_table *t = NULL;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, NULL), ASCR_OK);
+  ascr_table_sample q;
+  double slope = 0.9 * 2.0 * PI * DEG; /* the synthetic curve's slope per deg */
+  ascr_polar_table_eval(t, -3.0 * DEG, 2e4, 0.0, &q);
+  assert_int_equal(q.region, ASCR_TABLE_EXTENDED);
+  ascr_assert_close(q.cl, s.cl[20] + slope * (-3.0 - 2.0), 1e-3, 1e-3, "linear continuation below the range");
+  ascr_assert_close(q.cd, s.cd[20], 1e-3, 0.0, "drag held");
+  ascr_polar_table_eval(t, -90.0 * DEG, 2e4, 0.0, &q);
+  ascr_assert_close(q.cd, 1.3, 1e-9, 0.0, "cd(-90) = cd_max");
+  ascr_polar_table_free(t);
+}
+
 static void test_refusals(void **state)
 {
   (void)state;
@@ -136,9 +161,9 @@ static void test_refusals(void **state)
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EINVAL);
   assert_non_null(strstr(err.msg, "does not increase"));
   make(&s, 0.9, 0.02);
-  /* converged only on one side of zero: no usable curve */
+  /* converged only below 1 deg: no usable curve */
   for (int i = 0; i < NA; i++) {
-    s.conv[i] = s.al[i] > 0.0;
+    s.conv[i] = s.al[i] < 1.0 && s.al[i] > -2.0;
   }
   c.converged = s.conv;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EDOM);
@@ -153,6 +178,7 @@ int main(void)
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_inside_and_extension),
       cmocka_unit_test(test_re_interpolation_and_mach),
+      cmocka_unit_test(test_negative_side_extension),
       cmocka_unit_test(test_refusals),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);

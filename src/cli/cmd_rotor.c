@@ -1,0 +1,523 @@
+/* src/cli/cmd_rotor.c
+ * "airscrew rotor": propeller performance from a blade file over rpm and axial speed, with
+ * section tables computed by airscrew (or given), and the rpm for a target thrust.
+ */
+#define _GNU_SOURCE
+#include "cli.h"
+#include "cli_tables.h"
+#include "commands.h"
+
+#include <getopt.h>
+#include <jansson.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define ROTOR_MAX_VALUES 64
+
+static const char *const rotor_cautions[] = {
+    "Predictions are estimates: confirm them on a guarded thrust stand before flight.",
+    "A spinning propeller cuts; blades and hubs can fail at high rpm. Keep clear of the rotor "
+    "plane, use guards and follow local rules and qualified practice.",
+    NULL};
+
+static void rotor_help(FILE *fp)
+{
+  fputs("usage: airscrew rotor BLADE.json --rpm VALUES [--speed VALUES] [options]\n"
+        "       airscrew rotor BLADE.json --thrust N --rpm-range LO:HI [--speed VALUES] [options]\n"
+        "\n"
+        "Thrust, torque, power and efficiency of a propeller from its blade file. The section\n"
+        "polars are computed by airscrew's viscous solver over the Reynolds numbers the\n"
+        "operating points need, and kept in a cache so that the next run reuses them.\n"
+        "VALUES is a comma-separated list or START:END:STEP.\n"
+        "\n"
+        "operating points:\n"
+        "  -n, --rpm VALUES        shaft speeds, rev/min\n"
+        "  -v, --speed VALUES      axial (flight or climb) speeds, m/s (default 0: static)\n"
+        "      --thrust N          find the rpm giving N newtons at each speed (needs --rpm-range)\n"
+        "      --rpm-range LO:HI   search range of --thrust, rev/min\n"
+        "  -i, --inflow MODEL      bemt (default) or vortex\n"
+        "air (default ISA sea level):\n"
+        "      --altitude M        ISA 1976 troposphere at M metres\n"
+        "      --density RHO       kg/m3        --viscosity MU   Pa s\n"
+        "      --sound-speed A     m/s\n"
+        "section tables:\n"
+        "      --ncrit N, --turbulence PCT, --trip-upper X, --trip-lower X   as for polar\n"
+        "      --table-alpha A:B:S angles of the computed curves (default -8:16:1)\n"
+        "  -p, --panels N          panels on each section (default 160)\n"
+        "      --polar-table NAME=FILE  use a polar-table file for section NAME\n"
+        "      --cache-dir DIR     cache folder (default $AIRSCREW_CACHE_DIR, $XDG_CACHE_HOME/airscrew\n"
+        "                          or ~/.cache/airscrew)\n"
+        "      --no-cache          neither read nor write the cache\n"
+        "model:\n"
+        "  -e, --elements N        blade elements (default 40)\n"
+        "output:\n"
+        "      --stations          print the spanwise distributions in the table output\n"
+        "      --json, --csv       machine-readable output (JSON carries the distributions)\n"
+        "  -o, --output FILE       write to FILE (whole or not at all)\n"
+        "      --force             replace FILE if it exists\n"
+        "  -h, --help              this help\n"
+        "\n"
+        "Predictions are estimates. Test on a guarded thrust stand; a spinning propeller cuts.\n",
+        fp);
+}
+
+/* VALUES: list or START:END:STEP; at most ROTOR_MAX_VALUES */
+static int parse_values(const char *opt, const char *text, double lo, double hi, double *out,
+                        size_t *n)
+{
+  if (strchr(text, ':') != NULL) {
+    double a0, a1, st;
+    if (cli_parse_range(opt, text, lo, hi, &a0, &a1, &st)) return 1;
+    size_t m = ascr_polar_grid_size(a0, a1, st);
+    if (m == 0 || m > ROTOR_MAX_VALUES) {
+      cli_error("%s: '%s' gives %zu values; 1 .. %d allowed", opt, text, m, ROTOR_MAX_VALUES);
+      return 1;
+    }
+    for (size_t i = 0; i < m; i++) out[i] = a0 + (double)i * st;
+    *n = m;
+    return 0;
+  }
+  return cli_parse_list(opt, text, lo, hi, out, n);
+}
+
+static int parse_pair(const char *opt, const char *text, double lo, double hi, double *a, double *b)
+{
+  char buf[128];
+  const char *c = strchr(text, ':');
+  if (c == NULL || strlen(text) >= sizeof buf) {
+    cli_error("%s: '%s' is not LO:HI", opt, text);
+    return 1;
+  }
+  memcpy(buf, text, (size_t)(c - text));
+  buf[c - text] = '\0';
+  if (cli_parse_double(opt, buf, lo, hi, a) || cli_parse_double(opt, c + 1, lo, hi, b)) return 1;
+  if (!(*b > *a)) {
+    cli_error("%s: HI %g must exceed LO %g", opt, *b, *a);
+    return 1;
+  }
+  return 0;
+}
+
+typedef struct rotor_point {
+  ascr_rotor_result r;
+  ascr_rotor_element *el;
+  int solved;       /* the solver ran and filled r */
+  char note[ASCR_ERRBUF_SIZE]; /* why there is no result */
+} rotor_point;
+
+static void point_warnings(const rotor_point *pt, char *buf, size_t n)
+{
+  buf[0] = '\0';
+  size_t used = 0;
+#define ADD(...) do { if (used < n) used += (size_t)snprintf(buf + used, n - used, __VA_ARGS__); } while (0)
+  if (!pt->solved) {
+    ADD("no solution: %.300s; ", pt->note);
+  } else {
+    if (!pt->r.converged) ADD("not converged; ");
+    if (pt->r.n_stalled > 0) ADD("%zu elements stalled; ", pt->r.n_stalled);
+    if (pt->r.n_extended > 0) ADD("%zu elements beyond the computed polar range; ", pt->r.n_extended);
+    if (pt->r.n_re_outside > 0) ADD("%zu elements outside the table's Re range; ", pt->r.n_re_outside);
+    if (pt->r.tip_mach > 0.7) ADD("tip Mach %.2f above 0.7; ", pt->r.tip_mach);
+  }
+#undef ADD
+  size_t l = strlen(buf);
+  if (l >= 2) buf[l - 2] = '\0';
+}
+
+static json_t *warnings_json(const rotor_point *pt)
+{
+  json_t *a = json_array();
+  char b[160];
+  if (!pt->solved) {
+    snprintf(b, sizeof b, "no solution: %s", pt->note);
+    json_array_append_new(a, json_string(b));
+    return a;
+  }
+  if (!pt->r.converged) json_array_append_new(a, json_string("not converged"));
+  if (pt->r.n_stalled > 0) {
+    snprintf(b, sizeof b, "%zu elements stalled", pt->r.n_stalled);
+    json_array_append_new(a, json_string(b));
+  }
+  if (pt->r.n_extended > 0) {
+    snprintf(b, sizeof b, "%zu elements beyond the computed polar range (post-stall model)", pt->r.n_extended);
+    json_array_append_new(a, json_string(b));
+  }
+  if (pt->r.n_re_outside > 0) {
+    snprintf(b, sizeof b, "%zu elements outside the table's Re range", pt->r.n_re_outside);
+    json_array_append_new(a, json_string(b));
+  }
+  if (pt->r.tip_mach > 0.7) {
+    snprintf(b, sizeof b, "tip Mach %.3f above 0.7: compressibility beyond the correction", pt->r.tip_mach);
+    json_array_append_new(a, json_string(b));
+  }
+  return a;
+}
+
+int cmd_rotor(int argc, char **argv)
+{
+  static const struct option opts[] = {
+    {"rpm", required_argument, NULL, 'n'},          {"speed", required_argument, NULL, 'v'},
+    {"thrust", required_argument, NULL, 'H'},       {"rpm-range", required_argument, NULL, 'R'},
+    {"inflow", required_argument, NULL, 'i'},       {"altitude", required_argument, NULL, 'A'},
+    {"density", required_argument, NULL, 'D'},      {"viscosity", required_argument, NULL, 'V'},
+    {"sound-speed", required_argument, NULL, 'S'},  {"ncrit", required_argument, NULL, 'N'},
+    {"turbulence", required_argument, NULL, 'T'},   {"trip-upper", required_argument, NULL, 'U'},
+    {"trip-lower", required_argument, NULL, 'L'},   {"table-alpha", required_argument, NULL, 'a'},
+    {"panels", required_argument, NULL, 'p'},       {"polar-table", required_argument, NULL, 'P'},
+    {"cache-dir", required_argument, NULL, 'c'},    {"no-cache", no_argument, NULL, 'X'},
+    {"elements", required_argument, NULL, 'e'},     {"stations", no_argument, NULL, 's'},
+    {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
+    {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
+    {"help", no_argument, NULL, 'h'},               {NULL, 0, NULL, 0}};
+  double rpms[ROTOR_MAX_VALUES], speeds[ROTOR_MAX_VALUES] = {0.0};
+  size_t nrpm = 0, nspeed = 1;
+  double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN;
+  double density = NAN, viscosity = NAN, sound = NAN;
+  const char *inflow = "bemt";
+  cli_table_opts to;
+  cli_table_opts_init(&to);
+  int no_cache = 0, stations = 0, json = 0, csv = 0, force = 0, c;
+  const char *cache_dir = NULL, *outpath = NULL;
+  ascr_rotor_params rp = ascr_rotor_params_defaults();
+  opterr = 0;
+  optind = 1;
+  while ((c = getopt_long(argc, argv, ":n:v:i:p:e:o:h", opts, NULL)) != -1) {
+    switch (c) {
+    case 'n': if (parse_values("--rpm", optarg, 1.0, 1e6, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
+    case 'v': if (parse_values("--speed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE; break;
+    case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;
+    case 'R': if (parse_pair("--rpm-range", optarg, 1.0, 1e6, &rpm_lo, &rpm_hi)) return CLI_EXIT_USAGE; break;
+    case 'i':
+      if (strcmp(optarg, "bemt") != 0 && strcmp(optarg, "vortex") != 0) {
+        cli_error("--inflow: '%s' is not a model (bemt or vortex)", optarg);
+        return CLI_EXIT_USAGE;
+      }
+      inflow = optarg;
+      break;
+    case 'A': if (cli_parse_double("--altitude", optarg, -500.0, 11000.0, &altitude)) return CLI_EXIT_USAGE; break;
+    case 'D': if (cli_parse_double("--density", optarg, 0.01, 50.0, &density)) return CLI_EXIT_USAGE; break;
+    case 'V': if (cli_parse_double("--viscosity", optarg, 1e-7, 1e-2, &viscosity)) return CLI_EXIT_USAGE; break;
+    case 'S': if (cli_parse_double("--sound-speed", optarg, 50.0, 2000.0, &sound)) return CLI_EXIT_USAGE; break;
+    case 'N': case 'T': case 'U': case 'L':
+      if (cli_visc_opts_parse(&to.vo, c, optarg)) return CLI_EXIT_USAGE;
+      break;
+    case 'a':
+      if (cli_parse_range("--table-alpha", optarg, -30.0, 30.0, &to.alpha_lo, &to.alpha_hi, &to.alpha_step))
+        return CLI_EXIT_USAGE;
+      break;
+    case 'p': if (cli_parse_size("--panels", optarg, 40, 400, &to.panels)) return CLI_EXIT_USAGE; break;
+    case 'P': {
+      const char *eq = strchr(optarg, '=');
+      if (eq == NULL || eq == optarg || eq[1] == '\0' || to.n_files >= CLI_MAX_LIST) {
+        cli_error("--polar-table: '%s' is not NAME=FILE", optarg);
+        return CLI_EXIT_USAGE;
+      }
+      *(char *)eq = '\0';
+      to.file_section[to.n_files] = optarg;
+      to.file_path[to.n_files++] = eq + 1;
+      break;
+    }
+    case 'c': cache_dir = optarg; break;
+    case 'X': no_cache = 1; break;
+    case 'e': if (cli_parse_size("--elements", optarg, 8, 400, &rp.n_elements)) return CLI_EXIT_USAGE; break;
+    case 's': stations = 1; break;
+    case 'J': json = 1; break;
+    case 'C': csv = 1; break;
+    case 'o': outpath = optarg; break;
+    case 'F': force = 1; break;
+    case 'h': rotor_help(stdout); return CLI_EXIT_OK;
+    case ':': cli_error("rotor: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
+    default: cli_error("rotor: unknown option '%s' (see airscrew rotor --help)", argv[optind - 1]); return CLI_EXIT_USAGE;
+    }
+  }
+  if (optind != argc - 1) {
+    cli_error("rotor: give exactly one BLADE file; see airscrew rotor --help");
+    return CLI_EXIT_USAGE;
+  }
+  int trim = !isnan(thrust);
+  if (trim && (nrpm > 0 || isnan(rpm_lo))) {
+    cli_error("rotor: --thrust needs --rpm-range LO:HI and no --rpm");
+    return CLI_EXIT_USAGE;
+  }
+  if (!trim && nrpm == 0) {
+    cli_error("rotor: --rpm VALUES is required (or --thrust N with --rpm-range LO:HI)");
+    return CLI_EXIT_USAGE;
+  }
+  if (!isnan(rpm_lo) && !trim) {
+    cli_error("rotor: --rpm-range belongs with --thrust");
+    return CLI_EXIT_USAGE;
+  }
+  if (json && csv) {
+    cli_error("rotor: --json and --csv exclude each other");
+    return CLI_EXIT_USAGE;
+  }
+  if (strcmp(inflow, "vortex") == 0) {
+    cli_error("rotor: the vortex inflow model is not available in this version; use --inflow bemt");
+    return CLI_EXIT_USAGE;
+  }
+  if (!isnan(altitude)) {
+    if (!isnan(density) || !isnan(viscosity) || !isnan(sound)) {
+      cli_error("rotor: --altitude excludes --density, --viscosity and --sound-speed");
+      return CLI_EXIT_USAGE;
+    }
+    ascr_errbuf err;
+    ascr_status st = ascr_isa(altitude, &rp.density_kg_m3, &rp.viscosity_pa_s, &rp.sound_speed_m_s, &err);
+    if (st != ASCR_OK) {
+      cli_error("--altitude: %s", err.msg);
+      return CLI_EXIT_USAGE;
+    }
+  }
+  if (!isnan(density)) rp.density_kg_m3 = density;
+  if (!isnan(viscosity)) rp.viscosity_pa_s = viscosity;
+  if (!isnan(sound)) rp.sound_speed_m_s = sound;
+  to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
+
+  cli_output out;
+  int rc = cli_output_open(&out, outpath, force);
+  if (rc) return rc;
+  ascr_blade *blade = NULL;
+  ascr_errbuf err;
+  ascr_status st = ascr_blade_read(argv[optind], &blade, &err);
+  if (st != ASCR_OK) {
+    cli_error("%s", err.msg);
+    cli_output_discard(&out);
+    return st == ASCR_ENOMEM ? CLI_EXIT_INTERNAL : CLI_EXIT_INPUT;
+  }
+  double rmin = trim ? rpm_lo : rpms[0], rmax = trim ? rpm_hi : rpms[0];
+  for (size_t i = 0; i < nrpm; i++) {
+    rmin = fmin(rmin, rpms[i]);
+    rmax = fmax(rmax, rpms[i]);
+  }
+  double vmin = speeds[0], vmax = speeds[0];
+  for (size_t i = 0; i < nspeed; i++) {
+    vmin = fmin(vmin, speeds[i]);
+    vmax = fmax(vmax, speeds[i]);
+  }
+  cli_tables tabs;
+  rc = cli_tables_prepare(blade, &rp, rmin, rmax, vmin, vmax, &to, &tabs);
+  if (rc) {
+    ascr_blade_free(blade);
+    cli_output_discard(&out);
+    return rc;
+  }
+  size_t npt = trim ? nspeed : nrpm * nspeed;
+  rotor_point *pts = calloc(npt, sizeof *pts);
+  ascr_rotor_element *els = calloc(npt * rp.n_elements, sizeof *els);
+  if (pts == NULL || els == NULL) {
+    free(pts);
+    free(els);
+    cli_tables_free(&tabs);
+    ascr_blade_free(blade);
+    cli_output_discard(&out);
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  const ascr_polar_table *const *tv = (const ascr_polar_table *const *)tabs.tables;
+  size_t nconv = 0;
+  for (size_t k = 0; k < npt && rc == 0; k++) {
+    rotor_point *pt = &pts[k];
+    pt->el = els + k * rp.n_elements;
+    double v = trim ? speeds[k] : speeds[k % nspeed];
+    if (trim) {
+      st = ascr_rotor_bemt_rpm_for_thrust(blade, tv, &rp, thrust, v, rpm_lo, rpm_hi, &pt->r, pt->el, &err);
+      if (st == ASCR_EDOM || st == ASCR_EMAXITER) {
+        snprintf(pt->note, sizeof pt->note, "%s", err.msg);
+        pt->r.speed_m_s = v;
+        pt->r.rpm = NAN;
+        cli_warn("speed %g m/s: %s", v, err.msg);
+        continue;
+      }
+    } else {
+      st = ascr_rotor_bemt(blade, tv, &rp, rpms[k / nspeed], v, &pt->r, pt->el, &err);
+    }
+    if (st != ASCR_OK) {
+      cli_error("%s", err.msg);
+      rc = cli_exit_for(st);
+      break;
+    }
+    pt->solved = 1;
+    nconv += (size_t)pt->r.converged;
+    if (!pt->r.converged) {
+      cli_warn("%g rpm, %g m/s: not converged (flagged in the output)", pt->r.rpm, v);
+    }
+  }
+  if (rc == 0 && nconv == 0) {
+    cli_error("rotor: no operating point converged");
+    rc = CLI_EXIT_ANALYSIS;
+  }
+  if (rc != 0) {
+    free(pts);
+    free(els);
+    cli_tables_free(&tabs);
+    ascr_blade_free(blade);
+    cli_output_discard(&out);
+    return rc;
+  }
+
+  FILE *fp = out.fp;
+  const char *bname = blade->name != NULL ? blade->name : argv[optind];
+  if (json) {
+    json_t *o = json_object();
+    json_object_set_new(o, "blade", json_string(bname));
+    json_object_set_new(o, "blade_file", json_string(argv[optind]));
+    json_object_set_new(o, "inflow", json_string(inflow));
+    json_object_set_new(o, "blades", json_integer(blade->n_blades));
+    json_object_set_new(o, "diameter_m", json_real(2.0 * blade->r_tip_m));
+    json_t *air = json_object();
+    json_object_set_new(air, "density_kg_m3", json_real(rp.density_kg_m3));
+    json_object_set_new(air, "viscosity_pa_s", json_real(rp.viscosity_pa_s));
+    json_object_set_new(air, "sound_speed_m_s", json_real(rp.sound_speed_m_s));
+    json_object_set_new(o, "air", air);
+    json_t *sa = json_array();
+    for (size_t s = 0; s < tabs.n; s++) {
+      const cli_section_info *in = &tabs.info[s];
+      json_t *so = json_object(), *ra = json_array();
+      json_object_set_new(so, "name", json_string(blade->section_name[s]));
+      json_object_set_new(so, "source", json_string(in->user_file ? in->user_file : blade->section_source[s]));
+      json_object_set_new(so, "table_from", json_string(in->user_file ? "polar-table file" : "computed"));
+      if (!in->user_file) {
+        json_object_set_new(so, "fingerprint", json_string(in->fingerprint));
+        json_object_set_new(so, "re_needed_min", json_real(in->re_lo));
+        json_object_set_new(so, "re_needed_max", json_real(in->re_hi));
+        json_object_set_new(so, "curves_from_cache", json_integer((json_int_t)in->from_cache));
+        json_object_set_new(so, "curves_computed", json_integer((json_int_t)in->computed));
+      }
+      for (size_t k = 0; k < in->n_curves; k++) {
+        json_t *co = json_object();
+        json_object_set_new(co, "re", json_real(in->re[k]));
+        json_object_set_new(co, "converged_points", json_integer((json_int_t)in->converged[k]));
+        json_object_set_new(co, "points", json_integer((json_int_t)in->points[k]));
+        json_array_append_new(ra, co);
+      }
+      json_object_set_new(so, "curves", ra);
+      json_array_append_new(sa, so);
+    }
+    json_object_set_new(o, "sections", sa);
+    json_t *pa = json_array();
+    for (size_t k = 0; k < npt; k++) {
+      const rotor_point *pt = &pts[k];
+      int ok = pt->solved && pt->r.converged;
+      json_t *po = json_object();
+      json_object_set_new(po, "rpm", cli_json_num(pt->solved, pt->r.rpm));
+      json_object_set_new(po, "speed_m_s", json_real(pt->r.speed_m_s));
+      json_object_set_new(po, "thrust_N", cli_json_num(ok, pt->r.thrust_N));
+      json_object_set_new(po, "torque_Nm", cli_json_num(ok, pt->r.torque_Nm));
+      json_object_set_new(po, "power_W", cli_json_num(ok, pt->r.power_W));
+      json_object_set_new(po, "CT", cli_json_num(ok, pt->r.CT));
+      json_object_set_new(po, "CP", cli_json_num(ok, pt->r.CP));
+      json_object_set_new(po, "CQ", cli_json_num(ok, pt->r.CQ));
+      json_object_set_new(po, "J", cli_json_num(pt->solved, pt->r.J));
+      json_object_set_new(po, "efficiency", cli_json_num(ok, pt->r.efficiency));
+      json_object_set_new(po, "figure_of_merit", cli_json_num(ok, pt->r.figure_of_merit));
+      json_object_set_new(po, "tip_mach", cli_json_num(pt->solved, pt->r.tip_mach));
+      json_object_set_new(po, "converged", json_boolean(ok));
+      json_object_set_new(po, "warnings", warnings_json(pt));
+      json_t *ea = json_array();
+      for (size_t i = 0; pt->solved && i < rp.n_elements; i++) {
+        const ascr_rotor_element *e = &pt->el[i];
+        int eok = ok && e->converged;
+        json_t *eo = json_object();
+        json_object_set_new(eo, "r_m", json_real(e->r_m));
+        json_object_set_new(eo, "r_over_R", json_real(e->r_m / blade->r_tip_m));
+        json_object_set_new(eo, "chord_m", json_real(e->chord_m));
+        json_object_set_new(eo, "alpha_deg", cli_json_num(eok, e->alpha_deg));
+        json_object_set_new(eo, "phi_deg", cli_json_num(eok, e->phi_deg));
+        json_object_set_new(eo, "re", cli_json_num(eok, e->re));
+        json_object_set_new(eo, "mach", cli_json_num(eok, e->mach));
+        json_object_set_new(eo, "cl", cli_json_num(eok, e->cl));
+        json_object_set_new(eo, "cd", cli_json_num(eok, e->cd));
+        json_object_set_new(eo, "dT_dr_N_per_m", cli_json_num(eok, e->dT_dr_N_m));
+        json_object_set_new(eo, "dQ_dr_Nm_per_m", cli_json_num(eok, e->dQ_dr_Nm_m));
+        json_object_set_new(eo, "stalled", json_boolean(e->stalled));
+        json_object_set_new(eo, "beyond_polar", json_boolean(e->region == ASCR_TABLE_EXTENDED));
+        json_array_append_new(ea, eo);
+      }
+      json_object_set_new(po, "stations", ea);
+      json_array_append_new(pa, po);
+    }
+    json_object_set_new(o, "points", pa);
+    json_t *ca = json_array();
+    for (size_t i = 0; rotor_cautions[i] != NULL; i++) json_array_append_new(ca, json_string(rotor_cautions[i]));
+    json_object_set_new(o, "cautions", ca);
+    json_dumpf(o, fp, JSON_REAL_PRECISION(10) | JSON_COMPACT);
+    fputc('\n', fp);
+    json_decref(o);
+  } else if (csv) {
+    fprintf(fp, "# blade: %s\n# inflow: %s\n", bname, inflow);
+    for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", rotor_cautions[i]);
+    fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,warnings\n", fp);
+    for (size_t k = 0; k < npt; k++) {
+      const rotor_point *pt = &pts[k];
+      int ok = pt->solved && pt->r.converged;
+      char w[512];
+      point_warnings(pt, w, sizeof w);
+      for (char *q = w; *q; q++) if (*q == ',' || *q == '"') *q = ' ';
+      if (pt->solved) fprintf(fp, "%.6g,%.6g,%.6f,", pt->r.rpm, pt->r.speed_m_s, pt->r.J);
+      else fprintf(fp, ",%.6g,,", pt->r.speed_m_s);
+      if (ok) {
+        fprintf(fp, "%.6g,%.6g,%.6g,%.6f,%.6f,", pt->r.thrust_N, pt->r.torque_Nm, pt->r.power_W, pt->r.CT, pt->r.CP);
+        if (isfinite(pt->r.efficiency)) fprintf(fp, "%.5f", pt->r.efficiency);
+        fputc(',', fp);
+        if (isfinite(pt->r.figure_of_merit)) fprintf(fp, "%.5f", pt->r.figure_of_merit);
+        fprintf(fp, ",%.4f,true,%s\n", pt->r.tip_mach, w);
+      } else {
+        fprintf(fp, ",,,,,,,,false,%s\n", w);
+      }
+    }
+  } else {
+    fprintf(fp, "blade    %s\n", bname);
+    fprintf(fp, "rotor    %d blades, diameter %.1f mm, inflow model %s\n", blade->n_blades,
+            2000.0 * blade->r_tip_m, inflow);
+    fprintf(fp, "air      density %.4f kg/m3, viscosity %.4g Pa s, speed of sound %.1f m/s\n",
+            rp.density_kg_m3, rp.viscosity_pa_s, rp.sound_speed_m_s);
+    for (size_t s = 0; s < tabs.n; s++) {
+      const cli_section_info *in = &tabs.info[s];
+      if (in->user_file) {
+        fprintf(fp, "section  %-10s table from %s\n", blade->section_name[s], in->user_file);
+      } else {
+        fprintf(fp, "section  %-10s Re %.3g .. %.3g needed; %zu curves (%zu from cache, %zu computed)\n",
+                blade->section_name[s], in->re_lo, in->re_hi, in->n_curves, in->from_cache, in->computed);
+      }
+    }
+    fprintf(fp, "\n%8s %7s %6s %9s %10s %9s %8s %8s %6s %6s  %s\n", "rpm", "V m/s", "J", "thrust N",
+            "torque Nm", "power W", "CT", "CP", "eta", "FM", "notes");
+    for (size_t k = 0; k < npt; k++) {
+      const rotor_point *pt = &pts[k];
+      char w[512];
+      point_warnings(pt, w, sizeof w);
+      if (!pt->solved) {
+        fprintf(fp, "%8s %7.2f   %s\n", "-", pt->r.speed_m_s, w);
+        continue;
+      }
+      if (!pt->r.converged) {
+        fprintf(fp, "%8.0f %7.2f %6.3f   not converged\n", pt->r.rpm, pt->r.speed_m_s, pt->r.J);
+        continue;
+      }
+      char eta[16] = "-", fm[16] = "-";
+      if (isfinite(pt->r.efficiency)) snprintf(eta, sizeof eta, "%.3f", pt->r.efficiency);
+      if (isfinite(pt->r.figure_of_merit)) snprintf(fm, sizeof fm, "%.3f", pt->r.figure_of_merit);
+      fprintf(fp, "%8.0f %7.2f %6.3f %9.4f %10.5f %9.3f %8.5f %8.5f %6s %6s  %s\n", pt->r.rpm,
+              pt->r.speed_m_s, pt->r.J, pt->r.thrust_N, pt->r.torque_Nm, pt->r.power_W, pt->r.CT,
+              pt->r.CP, eta, fm, w);
+      if (stations) {
+        fprintf(fp, "    %7s %7s %7s %9s %6s %7s %8s %9s %11s  %s\n", "r/R", "alpha", "phi", "Re",
+                "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");
+        for (size_t i = 0; i < rp.n_elements; i++) {
+          const ascr_rotor_element *e = &pt->el[i];
+          fprintf(fp, "    %7.4f %7.2f %7.2f %9.4g %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s\n",
+                  e->r_m / blade->r_tip_m, e->alpha_deg, e->phi_deg, e->re, e->mach, e->cl, e->cd,
+                  e->dT_dr_N_m, e->dQ_dr_Nm_m, e->stalled ? "stalled " : "",
+                  e->region == ASCR_TABLE_EXTENDED ? "beyond-polar" : "");
+        }
+      }
+    }
+    fputc('\n', fp);
+    for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "caution: %s\n", rotor_cautions[i]);
+  }
+  free(pts);
+  free(els);
+  cli_tables_free(&tabs);
+  ascr_blade_free(blade);
+  return cli_output_commit(&out);
+}
