@@ -509,7 +509,11 @@ void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double r
   }
   int r0 = curve_region(c0, a_deg), r1 = curve_region(c1, a_deg);
   out->region = r0 > r1 ? r0 : r1;
-  out->stalled = a_deg > fmin(c0->a_clmax, c1->a_clmax) || a_deg < fmax(c0->a_clmin, c1->a_clmin);
+  /* stalled: beyond the angle of cl_max (the post-stall extension counts), or below the
+   * angle of an interior cl minimum, or below the negative stall angle of the extension */
+  double neg0 = c0->a_clmin > c0->a_lo ? c0->a_clmin : c0->a_ns;
+  double neg1 = c1->a_clmin > c1->a_lo ? c1->a_clmin : c1->a_ns;
+  out->stalled = a_deg > fmin(c0->a_clmax, c1->a_clmax) || a_deg < fmax(neg0, neg1);
   /* Prandtl-Glauert on the lift of the computed range, fading out over 10 deg beyond it */
   double m = mach > 0.8 ? 0.8 : (mach > 0.0 ? mach : 0.0);
   double f = sqrt(1.0 - t->opt.mach * t->opt.mach) / sqrt(1.0 - m * m);
