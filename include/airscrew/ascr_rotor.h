@@ -8,7 +8,9 @@
  *   loss (Glauert 1935, in Durand, Aerodynamic Theory IV, div. L), one residual in the inflow
  *   angle per element solved inside a bracket (Ning 2014, Wind Energy 17:1327) with GSL's
  *   Brent solver; hover, climb and windmilling (Buhl 2005, NREL/TP-500-36834, for the
- *   turbulent-wake state). Our formulation: docs/theory/rotor.md.
+ *   turbulent-wake state).
+ * - Vortex (ascr_rotor_vortex): lifting line with a helical trailing wake.
+ * Our formulations: docs/theory/rotor.md.
  *
  * Conventions: SI units; twist and angles in degrees where the name says _deg; the blade
  * spans from its first to its last station; positive thrust pushes air downstream, torque is
@@ -102,8 +104,9 @@ typedef struct ascr_rotor_element {
   double alpha_deg;        /* angle of attack */
   double re, mach;         /* local chord Reynolds and Mach numbers */
   double cl, cd;
-  double a_axial, a_swirl; /* axial and tangential induction factors */
-  double loss;             /* Prandtl tip x hub factor */
+  double v_axial_m_s;      /* induced axial velocity at the blade (W sin phi - V) */
+  double v_swirl_m_s;      /* induced swirl velocity at the blade (Omega r - W cos phi) */
+  double loss;             /* Prandtl tip x hub factor (1 in the vortex model) */
   double dT_dr_N_m;        /* thrust per unit radius, all blades */
   double dQ_dr_Nm_m;       /* torque per unit radius, all blades */
   int region;              /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED */
@@ -130,6 +133,32 @@ ASCR_EXPORT ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_ta
                                         const ascr_rotor_params *p, double rpm, double speed_m_s,
                                         ascr_rotor_result *res, ascr_rotor_element *el,
                                         ascr_errbuf *err);
+
+/** Settings of the vortex (helical-wake lifting-line) model. Defaults from the convergence
+ *  study in docs/theory/rotor.md ("Vortex model: wake length and discretisation"). */
+typedef struct ascr_vortex_params {
+  double wake_length_radii;  /* axial length of the modelled wake, tip radii (default 12) */
+  double near_step_deg;      /* azimuth step of the wake segments over the first revolution
+                                (default 10; later segments grow by 5 % up to 45 deg) */
+  double core_widths;        /* vortex core radius, fraction of the narrower neighbouring element
+                                (default 0.25): a numerical regularisation, not a physical core */
+  int max_wake_iter;         /* wake-pitch updates (default 30) */
+} ascr_vortex_params;
+
+/** Defaults as documented above. */
+ASCR_EXPORT ascr_vortex_params ascr_vortex_params_defaults(void);
+
+/** Vortex model at one operating point: a lifting line on every blade (bound vortex on the
+ *  radial quarter-chord line, one horseshoe per element), trailing vortices on a rigid helical
+ *  wake of the blade's radius whose pitch follows the mean axial induced velocity at the blades
+ *  (iterated from the BEMT value), Biot-Savart for straight segments with a cut-off core (van
+ *  Garrel 2003, ECN-C--03-079), circulation solved with the section tables by Newton's method
+ *  (dense Jacobian, LAPACKE dgesv). Results as ascr_rotor_bemt; vp may be NULL.
+ *  @return ASCR_OK (converged or not: see res->converged), ASCR_EINVAL, ASCR_ENOMEM. */
+ASCR_EXPORT ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                          const ascr_rotor_params *p, const ascr_vortex_params *vp,
+                                          double rpm, double speed_m_s, ascr_rotor_result *res,
+                                          ascr_rotor_element *el, ascr_errbuf *err);
 
 /** Find the rpm in rpm_lo..rpm_hi at which the BEMT thrust equals thrust_N at axial speed
  *  speed_m_s (GSL's Brent solver on T(rpm) - thrust_N, to 1e-7 relative in rpm). res and el

@@ -304,8 +304,8 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
       o->mach = ok ? wrel / p.sound_speed_m_s : NAN;
       o->cl = ok ? e.smp.cl : NAN;
       o->cd = ok ? e.smp.cd : NAN;
-      o->a_axial = ok ? e.a : NAN;
-      o->a_swirl = ok ? e.ap : NAN;
+      o->v_axial_m_s = ok ? wrel * sp - e.vx : NAN;
+      o->v_swirl_m_s = ok ? e.vy - wrel * cp : NAN;
       o->loss = ok ? e.loss : NAN;
       o->dT_dr_N_m = ok ? dt : NAN;
       o->dQ_dr_Nm_m = ok ? dq : NAN;

@@ -1,0 +1,431 @@
+/* src/rotor/vortex.c
+ * Lifting-line rotor with a rigid helical wake (docs/theory/rotor.md, "Vortex model").
+ *
+ * Each blade carries n horseshoe vortices: a bound segment on the radial quarter-chord line
+ * from the element's outer edge to its inner edge, and two trailing filaments that follow a
+ * helix of the edge radius downstream, x = h psi, at azimuth theta_blade - psi (the wake stays
+ * where it was shed while the blade moves on). The helix pitch h = (V + w)/Omega takes the
+ * area-weighted mean axial induced velocity w at the blades and is iterated, starting from
+ * the BEMT solution. The flow is steady in the blade frame and the same at every blade, so
+ * the control points of blade 0 suffice. Velocities from straight segments by Biot-Savart
+ * (Katz & Plotkin, Low-Speed Aerodynamics, 2nd ed. 2001, eq. 10.115) with the cut-off core
+ * |r1 x r2|^2 + delta^2 |r0|^2 (as in van Garrel 2003, ECN-C--03-079). The circulations solve
+ * Gamma_i = W_i c_i cl_i / 2 with the section tables at the local alpha, Re and Mach by
+ * Newton's method: Jacobian I - dg/du_a A - dg/du_t T, the local derivatives by central
+ * differences, the dense system by LAPACKE dgesv.
+ */
+#include "rotor/rotor_impl.h"
+#include "core/core_impl.h"
+
+#include <lapacke.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define DEG (ASCR_PI / 180.0)
+
+ascr_vortex_params ascr_vortex_params_defaults(void)
+{
+  ascr_vortex_params v;
+  v.wake_length_radii = 12.0;
+  v.near_step_deg = 10.0;
+  v.core_widths = 0.25;
+  v.max_wake_iter = 30;
+  return v;
+}
+
+typedef struct vx {
+  const ascr_blade *b;
+  const ascr_polar_table *const *tables;
+  const ascr_rotor_params *p;
+  size_t n;
+  int nb;
+  double omega, v;
+  double *edge, *rc, *dr, *chord, *theta, *core; /* core: per edge */
+  size_t *s0, *s1;
+  double *w;
+  double *A, *T;      /* n x n: axial and swirl velocity at control i per unit Gamma_j */
+  double *fa, *ft;    /* n x (n+1): filament influences (work) */
+  double *psi;        /* wake azimuths */
+  size_t m;
+  /* per element state */
+  double *gam, *ua, *ut, *jac, *rhs, *dga, *dgt;
+  int *ipiv;
+} vx;
+
+/* Unit-strength straight segment a -> b at point p, added to out (Katz & Plotkin eq. 10.115
+ * with the cut-off core). */
+static void segment(const double p[3], const double a[3], const double b[3], double delta2,
+                    double out[3])
+{
+  double r1[3] = {p[0] - a[0], p[1] - a[1], p[2] - a[2]};
+  double r2[3] = {p[0] - b[0], p[1] - b[1], p[2] - b[2]};
+  double r0[3] = {b[0] - a[0], b[1] - a[1], b[2] - a[2]};
+  double c[3] = {r1[1] * r2[2] - r1[2] * r2[1], r1[2] * r2[0] - r1[0] * r2[2],
+                 r1[0] * r2[1] - r1[1] * r2[0]};
+  double c2 = c[0] * c[0] + c[1] * c[1] + c[2] * c[2];
+  double n1 = sqrt(r1[0] * r1[0] + r1[1] * r1[1] + r1[2] * r1[2]);
+  double n2 = sqrt(r2[0] * r2[0] + r2[1] * r2[1] + r2[2] * r2[2]);
+  double l2 = r0[0] * r0[0] + r0[1] * r0[1] + r0[2] * r0[2];
+  double den = c2 + delta2 * l2;
+  if (den < 1e-300 || n1 < 1e-300 || n2 < 1e-300) {
+    return;
+  }
+  double k = ((r0[0] * r1[0] + r0[1] * r1[1] + r0[2] * r1[2]) / n1 -
+              (r0[0] * r2[0] + r0[1] * r2[1] + r0[2] * r2[2]) / n2) /
+             (4.0 * ASCR_PI * den);
+  out[0] += k * c[0];
+  out[1] += k * c[1];
+  out[2] += k * c[2];
+}
+
+/* Wake azimuths: near_step over the first revolution, then growing by 5 % a step up to
+ * 45 deg, until the helix has travelled len axially at advance h per radian. */
+static size_t wake_angles(double near_step, double h, double len, double *psi, size_t max)
+{
+  size_t m = 0;
+  double a = 0.0, d = near_step;
+  if (psi != NULL) psi[0] = 0.0;
+  while (m + 1 < max) {
+    a += d;
+    m++;
+    if (psi != NULL) psi[m] = a;
+    if (h * a >= len) break;
+    if (a > 2.0 * ASCR_PI) d = fmin(d * 1.05, 45.0 * DEG);
+  }
+  return m; /* segments */
+}
+
+static void build_influence(vx *s, double h, const ascr_vortex_params *vp)
+{
+  size_t n = s->n, ne = n + 1;
+  s->m = wake_angles(vp->near_step_deg * DEG, h, vp->wake_length_radii * s->b->r_tip_m, s->psi, 4001);
+  memset(s->fa, 0, n * ne * sizeof *s->fa);
+  memset(s->ft, 0, n * ne * sizeof *s->ft);
+  memset(s->A, 0, n * n * sizeof *s->A);
+  memset(s->T, 0, n * n * sizeof *s->T);
+  for (int k = 0; k < s->nb; k++) {
+    double th = 2.0 * ASCR_PI * k / s->nb;
+    for (size_t e = 0; e < ne; e++) {
+      double re = s->edge[e], d2 = s->core[e] * s->core[e];
+      double a[3] = {0.0, re * cos(th), re * sin(th)};
+      for (size_t j = 1; j <= s->m; j++) {
+        double q = s->psi[j];
+        double bpt[3] = {h * q, re * cos(th - q), re * sin(th - q)};
+        for (size_t i = 0; i < n; i++) {
+          double pnt[3] = {0.0, s->rc[i], 0.0}, u[3] = {0.0, 0.0, 0.0};
+          segment(pnt, a, bpt, d2, u);
+          s->fa[i * ne + e] += u[0];
+          s->ft[i * ne + e] += u[2];
+        }
+        a[0] = bpt[0];
+        a[1] = bpt[1];
+        a[2] = bpt[2];
+      }
+    }
+    if (k == 0) {
+      continue; /* own bound vortex: collinear with the control points, no velocity */
+    }
+    for (size_t j = 0; j < n; j++) {
+      double pa[3] = {0.0, s->edge[j + 1] * cos(th), s->edge[j + 1] * sin(th)};
+      double pb[3] = {0.0, s->edge[j] * cos(th), s->edge[j] * sin(th)};
+      double d2 = 0.25 * (s->core[j] + s->core[j + 1]) * (s->core[j] + s->core[j + 1]);
+      for (size_t i = 0; i < n; i++) {
+        double pnt[3] = {0.0, s->rc[i], 0.0}, u[3] = {0.0, 0.0, 0.0};
+        segment(pnt, pa, pb, d2, u);
+        s->A[i * n + j] += u[0];
+        s->T[i * n + j] += u[2];
+      }
+    }
+  }
+  for (size_t i = 0; i < n; i++) {
+    for (size_t j = 0; j < n; j++) {
+      s->A[i * n + j] += s->fa[i * ne + j] - s->fa[i * ne + j + 1];
+      s->T[i * n + j] += s->ft[i * ne + j] - s->ft[i * ne + j + 1];
+    }
+  }
+}
+
+/* W c cl / 2 at element i for induced velocities (ua, ut); fills the sample and W. */
+static double local_g(const vx *s, size_t i, double ua, double ut, ascr_table_sample *smp,
+                      double *wrel, double *phi)
+{
+  double va = s->v + ua, vt = s->omega * s->rc[i] - ut;
+  double w = hypot(va, vt);
+  double ph = atan2(va, vt);
+  double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
+  double mach = w / s->p->sound_speed_m_s;
+  ascr_polar_table_eval(s->tables[s->s0[i]], s->theta[i] - ph, re, mach, smp);
+  if (s->s1[i] != s->s0[i] && s->w[i] > 0.0) {
+    ascr_table_sample q;
+    ascr_polar_table_eval(s->tables[s->s1[i]], s->theta[i] - ph, re, mach, &q);
+    double t = s->w[i];
+    smp->cl = (1.0 - t) * smp->cl + t * q.cl;
+    smp->cd = (1.0 - t) * smp->cd + t * q.cd;
+    smp->region = q.region > smp->region ? q.region : smp->region;
+    smp->stalled |= q.stalled;
+    smp->re_outside |= q.re_outside;
+  }
+  if (wrel != NULL) *wrel = w;
+  if (phi != NULL) *phi = ph;
+  return 0.5 * w * s->chord[i] * smp->cl;
+}
+
+static void induced(const vx *s)
+{
+  size_t n = s->n;
+  for (size_t i = 0; i < n; i++) {
+    double a = 0.0, t = 0.0;
+    for (size_t j = 0; j < n; j++) {
+      a += s->A[i * n + j] * s->gam[j];
+      t += s->T[i * n + j] * s->gam[j];
+    }
+    s->ua[i] = a;
+    s->ut[i] = t;
+  }
+}
+
+/* Newton on Gamma for the current wake; returns 1 when converged. */
+static int solve_gamma(vx *s)
+{
+  size_t n = s->n;
+  double scale = 0.0;
+  for (size_t i = 0; i < n; i++) {
+    scale = fmax(scale, 0.5 * hypot(s->v, s->omega * s->rc[i]) * s->chord[i]);
+  }
+  for (int it = 0; it < 60; it++) {
+    induced(s);
+    double rmax = 0.0;
+    for (size_t i = 0; i < n; i++) {
+      ascr_table_sample q;
+      double g = local_g(s, i, s->ua[i], s->ut[i], &q, NULL, NULL);
+      s->rhs[i] = -(s->gam[i] - g);
+      rmax = fmax(rmax, fabs(s->rhs[i]));
+      double h = 1e-6 * (fabs(s->v) + s->omega * s->rc[i]);
+      ascr_table_sample t;
+      s->dga[i] = (local_g(s, i, s->ua[i] + h, s->ut[i], &t, NULL, NULL) -
+                   local_g(s, i, s->ua[i] - h, s->ut[i], &t, NULL, NULL)) / (2.0 * h);
+      s->dgt[i] = (local_g(s, i, s->ua[i], s->ut[i] + h, &t, NULL, NULL) -
+                   local_g(s, i, s->ua[i], s->ut[i] - h, &t, NULL, NULL)) / (2.0 * h);
+    }
+    if (!isfinite(rmax)) {
+      return 0;
+    }
+    if (rmax <= 1e-10 * scale) {
+      return 1;
+    }
+    for (size_t i = 0; i < n; i++) {
+      for (size_t j = 0; j < n; j++) {
+        s->jac[i * n + j] = (i == j ? 1.0 : 0.0) - s->dga[i] * s->A[i * n + j] - s->dgt[i] * s->T[i * n + j];
+      }
+    }
+    lapack_int info = LAPACKE_dgesv(LAPACK_ROW_MAJOR, (lapack_int)n, 1, s->jac, (lapack_int)n,
+                                    s->ipiv, s->rhs, 1);
+    if (info != 0) {
+      return 0;
+    }
+    /* limit the step to a fifth of the circulation scale per element (kinks of the tables at
+     * the post-stall joins can otherwise throw the iterate far) */
+    double dmax = 0.0;
+    for (size_t i = 0; i < n; i++) dmax = fmax(dmax, fabs(s->rhs[i]));
+    double lim = 0.2 * scale;
+    double f = dmax > lim ? lim / dmax : 1.0;
+    for (size_t i = 0; i < n; i++) s->gam[i] += f * s->rhs[i];
+  }
+  return 0;
+}
+
+static void vx_free(vx *s)
+{
+  free(s->edge); free(s->rc); free(s->dr); free(s->chord); free(s->theta); free(s->core);
+  free(s->s0); free(s->s1); free(s->w); free(s->A); free(s->T); free(s->fa); free(s->ft);
+  free(s->psi); free(s->gam); free(s->ua); free(s->ut); free(s->jac); free(s->rhs);
+  free(s->dga); free(s->dgt); free(s->ipiv);
+}
+
+ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const *tables,
+                              const ascr_rotor_params *pin, const ascr_vortex_params *vpin,
+                              double rpm, double speed_m_s, ascr_rotor_result *res,
+                              ascr_rotor_element *el, ascr_errbuf *err)
+{
+  ascr_rotor_params p = pin != NULL ? *pin : ascr_rotor_params_defaults();
+  ascr_vortex_params vp = vpin != NULL ? *vpin : ascr_vortex_params_defaults();
+  if (res == NULL) {
+    return core_fail(err, ASCR_EINVAL, "vortex model: no result");
+  }
+  if (!(vp.wake_length_radii >= 1.0 && vp.wake_length_radii <= 200.0) ||
+      !(vp.near_step_deg >= 1.0 && vp.near_step_deg <= 45.0) ||
+      !(vp.core_widths > 0.0 && vp.core_widths <= 2.0) || vp.max_wake_iter < 1 ||
+      vp.max_wake_iter > 1000 || p.n_elements > 400) {
+    return core_fail(err, ASCR_EINVAL,
+                     "vortex model: settings out of range (wake 1..200 radii, step 1..45 deg, core "
+                     "0..2 element widths, 1..1000 wake updates, at most 400 elements)");
+  }
+  /* BEMT first: checks the input, and gives the starting circulation and wake pitch */
+  size_t n = p.n_elements;
+  ascr_rotor_element *bel = core_calloc(n, sizeof *bel);
+  if (bel == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
+  }
+  ascr_rotor_result br;
+  ascr_status st = ascr_rotor_bemt(b, tables, &p, rpm, speed_m_s, &br, bel, err);
+  if (st != ASCR_OK) {
+    free(bel);
+    return st;
+  }
+  vx s;
+  memset(&s, 0, sizeof s);
+  s.b = b;
+  s.tables = tables;
+  s.p = &p;
+  s.n = n;
+  s.nb = b->n_blades;
+  s.omega = rpm * 2.0 * ASCR_PI / 60.0;
+  s.v = speed_m_s;
+  s.edge = core_calloc(n + 1, sizeof *s.edge);
+  s.core = core_calloc(n + 1, sizeof *s.core);
+  s.rc = core_calloc(n, sizeof *s.rc);
+  s.dr = core_calloc(n, sizeof *s.dr);
+  s.chord = core_calloc(n, sizeof *s.chord);
+  s.theta = core_calloc(n, sizeof *s.theta);
+  s.s0 = core_calloc(n, sizeof *s.s0);
+  s.s1 = core_calloc(n, sizeof *s.s1);
+  s.w = core_calloc(n, sizeof *s.w);
+  s.A = core_calloc(n * n, sizeof *s.A);
+  s.T = core_calloc(n * n, sizeof *s.T);
+  s.fa = core_calloc(n * (n + 1), sizeof *s.fa);
+  s.ft = core_calloc(n * (n + 1), sizeof *s.ft);
+  s.psi = core_calloc(4002, sizeof *s.psi);
+  s.gam = core_calloc(n, sizeof *s.gam);
+  s.ua = core_calloc(n, sizeof *s.ua);
+  s.ut = core_calloc(n, sizeof *s.ut);
+  s.jac = core_calloc(n * n, sizeof *s.jac);
+  s.rhs = core_calloc(n, sizeof *s.rhs);
+  s.dga = core_calloc(n, sizeof *s.dga);
+  s.dgt = core_calloc(n, sizeof *s.dgt);
+  s.ipiv = core_calloc(n, sizeof *s.ipiv);
+  if (s.edge == NULL || s.core == NULL || s.rc == NULL || s.dr == NULL || s.chord == NULL ||
+      s.theta == NULL || s.s0 == NULL || s.s1 == NULL || s.w == NULL || s.A == NULL ||
+      s.T == NULL || s.fa == NULL || s.ft == NULL || s.psi == NULL || s.gam == NULL ||
+      s.ua == NULL || s.ut == NULL || s.jac == NULL || s.rhs == NULL || s.dga == NULL ||
+      s.dgt == NULL || s.ipiv == NULL) {
+    vx_free(&s);
+    free(bel);
+    return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
+  }
+  double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
+  for (size_t e = 0; e <= n; e++) {
+    s.edge[e] = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)e / (double)n));
+  }
+  /* core radius: a fraction of the narrower neighbouring element, so that the regularisation
+   * only removes the singularity and never hides the tip vortex from the elements next to it */
+  for (size_t e = 0; e <= n; e++) {
+    double wl = e > 0 ? s.edge[e] - s.edge[e - 1] : HUGE_VAL;
+    double wr = e < n ? s.edge[e + 1] - s.edge[e] : HUGE_VAL;
+    s.core[e] = vp.core_widths * fmin(wl, wr);
+  }
+  double wsum = 0.0, asum = 0.0;
+  for (size_t i = 0; i < n; i++) {
+    s.rc[i] = 0.5 * (s.edge[i] + s.edge[i + 1]);
+    s.dr[i] = s.edge[i + 1] - s.edge[i];
+    double tw;
+    rotor_blade_at(b, s.rc[i], &s.chord[i], &tw, &s.s0[i], &s.s1[i], &s.w[i]);
+    s.theta[i] = tw * DEG;
+    /* start: the BEMT circulation (W c cl / 2) and its mean axial induced velocity */
+    if (br.converged && bel[i].converged) {
+      double w = hypot(s.v + bel[i].v_axial_m_s, s.omega * s.rc[i] - bel[i].v_swirl_m_s);
+      s.gam[i] = 0.5 * w * s.chord[i] * bel[i].cl;
+      wsum += bel[i].v_axial_m_s * s.rc[i] * s.dr[i];
+    }
+    asum += s.rc[i] * s.dr[i];
+  }
+  free(bel);
+  double wbar = wsum / asum;
+  double hmin = 0.005 * b->r_tip_m; /* helix advance per radian: at least 0.5 % of the tip speed */
+  double h = fmax((s.v + wbar) / s.omega, hmin);
+  int ok = 0, wake_ok = 0;
+  for (int it = 0; it < vp.max_wake_iter; it++) {
+    build_influence(&s, h, &vp);
+    ok = solve_gamma(&s);
+    if (!ok) {
+      break;
+    }
+    induced(&s);
+    double ws = 0.0;
+    for (size_t i = 0; i < n; i++) ws += s.ua[i] * s.rc[i] * s.dr[i];
+    double hn = (s.v + ws / asum) / s.omega;
+    if (!(hn > hmin)) {
+      ok = 0; /* the wake does not leave the disc: outside what a rigid wake can model */
+      break;
+    }
+    if (fabs(hn - h) <= 1e-5 * (h + 1e-3 * b->r_tip_m)) {
+      wake_ok = 1;
+      h = hn;
+      break;
+    }
+    h = 0.5 * (h + hn);
+  }
+  int conv = ok && wake_ok;
+  /* loads */
+  memset(res, 0, sizeof *res);
+  double thrust = 0.0, torque = 0.0, rho = p.density_kg_m3;
+  if (ok) {
+    induced(&s);
+  }
+  for (size_t i = 0; i < n; i++) {
+    ascr_table_sample q;
+    double w = 0.0, ph = 0.0;
+    local_g(&s, i, s.ua[i], s.ut[i], &q, &w, &ph);
+    double va = s.v + s.ua[i], vt = s.omega * s.rc[i] - s.ut[i];
+    double dt = s.nb * (rho * s.gam[i] * vt - 0.5 * rho * w * s.chord[i] * q.cd * va);
+    double dq = s.nb * (rho * s.gam[i] * va + 0.5 * rho * w * s.chord[i] * q.cd * vt) * s.rc[i];
+    if (conv) {
+      thrust += dt * s.dr[i];
+      torque += dq * s.dr[i];
+      res->n_stalled += (size_t)q.stalled;
+      res->n_extended += (size_t)(q.region == ASCR_TABLE_EXTENDED);
+      res->n_re_outside += (size_t)q.re_outside;
+    }
+    if (el != NULL) {
+      ascr_rotor_element *o = &el[i];
+      memset(o, 0, sizeof *o);
+      o->r_m = s.rc[i];
+      o->dr_m = s.dr[i];
+      o->chord_m = s.chord[i];
+      o->converged = conv;
+      o->phi_deg = conv ? ph / DEG : NAN;
+      o->alpha_deg = conv ? (s.theta[i] - ph) / DEG : NAN;
+      o->re = conv ? rho * w * s.chord[i] / p.viscosity_pa_s : NAN;
+      o->mach = conv ? w / p.sound_speed_m_s : NAN;
+      o->cl = conv ? 2.0 * s.gam[i] / (w * s.chord[i]) : NAN;
+      o->cd = conv ? q.cd : NAN;
+      o->v_axial_m_s = conv ? s.ua[i] : NAN;
+      o->v_swirl_m_s = conv ? s.ut[i] : NAN;
+      o->loss = 1.0;
+      o->dT_dr_N_m = conv ? dt : NAN;
+      o->dQ_dr_Nm_m = conv ? dq : NAN;
+      o->region = q.region;
+      o->stalled = q.stalled;
+      o->re_outside = q.re_outside;
+    }
+  }
+  double nrev = rpm / 60.0, d = 2.0 * b->r_tip_m;
+  res->rpm = rpm;
+  res->speed_m_s = speed_m_s;
+  res->converged = conv;
+  res->thrust_N = thrust;
+  res->torque_Nm = torque;
+  res->power_W = torque * s.omega;
+  res->CT = thrust / (rho * nrev * nrev * pow(d, 4));
+  res->CP = res->power_W / (rho * nrev * nrev * nrev * pow(d, 5));
+  res->CQ = torque / (rho * nrev * nrev * pow(d, 5));
+  res->J = speed_m_s / (nrev * d);
+  res->efficiency = (conv && speed_m_s > 0.0 && thrust > 0.0 && res->power_W > 0.0)
+                        ? thrust * speed_m_s / res->power_W : NAN;
+  double area = ASCR_PI * b->r_tip_m * b->r_tip_m;
+  res->figure_of_merit = (conv && speed_m_s == 0.0 && thrust > 0.0 && res->power_W > 0.0)
+                             ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
+  res->tip_mach = hypot(s.omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
+  vx_free(&s);
+  return ASCR_OK;
+}
