@@ -73,7 +73,7 @@ typedef struct ascr_rotor_params {
   double density_kg_m3;     /* default 1.225 (ISA sea level) */
   double viscosity_pa_s;    /* dynamic viscosity, default 1.789e-5 (ISA sea level) */
   double sound_speed_m_s;   /* default 340.29 */
-  size_t n_elements;        /* blade elements, cosine-spaced (default 40) */
+  size_t n_elements;        /* blade elements, sine-spaced: fine at the tip (default 40) */
   int tip_loss, hub_loss;   /* Prandtl factors (default on) */
   int swirl;                /* swirl (tangential induction) in the momentum balance (default on) */
 } ascr_rotor_params;
@@ -160,18 +160,30 @@ ASCR_EXPORT ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_
                                           double rpm, double speed_m_s, ascr_rotor_result *res,
                                           ascr_rotor_element *el, ascr_errbuf *err);
 
-/** Find the rpm in rpm_lo..rpm_hi at which the BEMT thrust equals thrust_N at axial speed
- *  speed_m_s (GSL's Brent solver on T(rpm) - thrust_N, to 1e-7 relative in rpm). res and el
- *  (may be NULL) hold the solution at that rpm.
+/** Inflow models. */
+typedef enum ascr_inflow { ASCR_INFLOW_BEMT = 0, ASCR_INFLOW_VORTEX = 1 } ascr_inflow;
+
+/** One operating point with the chosen inflow model (vp used by the vortex model; may be
+ *  NULL). Returns as ascr_rotor_bemt / ascr_rotor_vortex. */
+ASCR_EXPORT ascr_status ascr_rotor_point(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                         const ascr_rotor_params *p, ascr_inflow model,
+                                         const ascr_vortex_params *vp, double rpm,
+                                         double speed_m_s, ascr_rotor_result *res,
+                                         ascr_rotor_element *el, ascr_errbuf *err);
+
+/** Find the rpm in rpm_lo..rpm_hi at which the thrust of the chosen model equals thrust_N at
+ *  axial speed speed_m_s (GSL's Brent solver on T(rpm) - thrust_N, to 1e-7 relative in rpm).
+ *  res and el (may be NULL) hold the solution at that rpm.
  *  @return ASCR_OK; ASCR_EDOM if the thrust is not reached within the rpm range (message gives
- *          the thrust at both ends); ASCR_EMAXITER if an element fails to converge on the way;
+ *          the thrust at both ends); ASCR_EMAXITER if the model fails to converge on the way;
  *          ASCR_EINVAL. */
-ASCR_EXPORT ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b,
-                                                       const ascr_polar_table *const *tables,
-                                                       const ascr_rotor_params *p, double thrust_N,
-                                                       double speed_m_s, double rpm_lo,
-                                                       double rpm_hi, ascr_rotor_result *res,
-                                                       ascr_rotor_element *el, ascr_errbuf *err);
+ASCR_EXPORT ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b,
+                                                  const ascr_polar_table *const *tables,
+                                                  const ascr_rotor_params *p, ascr_inflow model,
+                                                  const ascr_vortex_params *vp, double thrust_N,
+                                                  double speed_m_s, double rpm_lo, double rpm_hi,
+                                                  ascr_rotor_result *res, ascr_rotor_element *el,
+                                                  ascr_errbuf *err);
 
 #ifdef __cplusplus
 }

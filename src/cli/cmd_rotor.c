@@ -252,10 +252,7 @@ int cmd_rotor(int argc, char **argv)
     cli_error("rotor: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
-  if (strcmp(inflow, "vortex") == 0) {
-    cli_error("rotor: the vortex inflow model is not available in this version; use --inflow bemt");
-    return CLI_EXIT_USAGE;
-  }
+  ascr_inflow model = strcmp(inflow, "vortex") == 0 ? ASCR_INFLOW_VORTEX : ASCR_INFLOW_BEMT;
   if (!isnan(altitude)) {
     if (!isnan(density) || !isnan(viscosity) || !isnan(sound)) {
       cli_error("rotor: --altitude excludes --density, --viscosity and --sound-speed");
@@ -320,7 +317,8 @@ int cmd_rotor(int argc, char **argv)
     pt->el = els + k * rp.n_elements;
     double v = trim ? speeds[k] : speeds[k % nspeed];
     if (trim) {
-      st = ascr_rotor_bemt_rpm_for_thrust(blade, tv, &rp, thrust, v, rpm_lo, rpm_hi, &pt->r, pt->el, &err);
+      st = ascr_rotor_rpm_for_thrust(blade, tv, &rp, model, NULL, thrust, v, rpm_lo, rpm_hi, &pt->r,
+                                     pt->el, &err);
       if (st == ASCR_EDOM || st == ASCR_EMAXITER) {
         snprintf(pt->note, sizeof pt->note, "%s", err.msg);
         pt->r.speed_m_s = v;
@@ -329,7 +327,7 @@ int cmd_rotor(int argc, char **argv)
         continue;
       }
     } else {
-      st = ascr_rotor_bemt(blade, tv, &rp, rpms[k / nspeed], v, &pt->r, pt->el, &err);
+      st = ascr_rotor_point(blade, tv, &rp, model, NULL, rpms[k / nspeed], v, &pt->r, pt->el, &err);
     }
     if (st != ASCR_OK) {
       cli_error("%s", err.msg);

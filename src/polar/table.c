@@ -517,7 +517,11 @@ void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double r
   /* Prandtl-Glauert on the lift of the computed range, fading out over 10 deg beyond it */
   double m = mach > 0.8 ? 0.8 : (mach > 0.0 ? mach : 0.0);
   double f = sqrt(1.0 - t->opt.mach * t->opt.mach) / sqrt(1.0 - m * m);
-  double lo = fmax(c0->a_lo, c1->a_lo), hi = fmin(c0->a_hi, c1->a_hi);
+  /* computed range interpolated in log Re between the two curves, so the factor is
+   * continuous in Re (Newton solvers downstream need that) */
+  double u = c1->logre > c0->logre ? (y - c0->logre) / (c1->logre - c0->logre) : 0.0;
+  u = u < 0.0 ? 0.0 : (u > 1.0 ? 1.0 : u);
+  double lo = c0->a_lo + u * (c1->a_lo - c0->a_lo), hi = c0->a_hi + u * (c1->a_hi - c0->a_hi);
   double dist = a_deg > hi ? a_deg - hi : (a_deg < lo ? lo - a_deg : 0.0);
   double w = dist >= 10.0 ? 0.0 : 1.0 - dist / 10.0;
   out->cl *= 1.0 + w * (f - 1.0);

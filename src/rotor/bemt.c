@@ -242,9 +242,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   double thrust = 0.0, torque = 0.0;
   int all_ok = 1;
   for (size_t i = 0; i < ne; i++) {
-    /* cosine spacing: elements crowd at root and tip, where the loading changes fastest */
-    double ea = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)i / (double)ne));
-    double eb = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)(i + 1) / (double)ne));
+    double ea = rotor_edge(r0, r1, i, ne), eb = rotor_edge(r0, r1, i + 1, ne);
     elem_ctx e;
     memset(&e, 0, sizeof e);
     e.b = b;
@@ -356,8 +354,7 @@ ascr_status ascr_rotor_section_re_range(const ascr_blade *b, size_t section,
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
   size_t ne = p.n_elements;
   for (size_t i = 0; i < ne; i++) {
-    double ea = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)i / (double)ne));
-    double eb = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)(i + 1) / (double)ne));
+    double ea = rotor_edge(r0, r1, i, ne), eb = rotor_edge(r0, r1, i + 1, ne);
     double r = 0.5 * (ea + eb), chord, twist, w;
     size_t s0, s1;
     rotor_blade_at(b, r, &chord, &twist, &s0, &s1, &w);
@@ -378,10 +375,24 @@ ascr_status ascr_rotor_section_re_range(const ascr_blade *b, size_t section,
   return ASCR_OK;
 }
 
+ascr_status ascr_rotor_point(const ascr_blade *b, const ascr_polar_table *const *tables,
+                             const ascr_rotor_params *p, ascr_inflow model,
+                             const ascr_vortex_params *vp, double rpm, double speed_m_s,
+                             ascr_rotor_result *res, ascr_rotor_element *el, ascr_errbuf *err)
+{
+  switch (model) {
+  case ASCR_INFLOW_BEMT: return ascr_rotor_bemt(b, tables, p, rpm, speed_m_s, res, el, err);
+  case ASCR_INFLOW_VORTEX: return ascr_rotor_vortex(b, tables, p, vp, rpm, speed_m_s, res, el, err);
+  }
+  return core_fail(err, ASCR_EINVAL, "rotor: unknown inflow model %d", (int)model);
+}
+
 typedef struct trim_ctx {
   const ascr_blade *b;
   const ascr_polar_table *const *tables;
   const ascr_rotor_params *p;
+  ascr_inflow model;
+  const ascr_vortex_params *vp;
   double v, target;
   ascr_status st;
   int converged;
@@ -392,16 +403,17 @@ static double trim_fn(double rpm, void *ctx)
 {
   trim_ctx *t = ctx;
   ascr_rotor_result r;
-  t->st = ascr_rotor_bemt(t->b, t->tables, t->p, rpm, t->v, &r, NULL, t->err);
+  t->st = ascr_rotor_point(t->b, t->tables, t->p, t->model, t->vp, rpm, t->v, &r, NULL, t->err);
   t->converged &= t->st == ASCR_OK && r.converged;
   return t->st == ASCR_OK ? r.thrust_N - t->target : GSL_NAN;
 }
 
-ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b, const ascr_polar_table *const *tables,
-                                           const ascr_rotor_params *p, double thrust_N,
-                                           double speed_m_s, double rpm_lo, double rpm_hi,
-                                           ascr_rotor_result *res, ascr_rotor_element *el,
-                                           ascr_errbuf *err)
+ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b, const ascr_polar_table *const *tables,
+                                      const ascr_rotor_params *p, ascr_inflow model,
+                                      const ascr_vortex_params *vp, double thrust_N,
+                                      double speed_m_s, double rpm_lo, double rpm_hi,
+                                      ascr_rotor_result *res, ascr_rotor_element *el,
+                                      ascr_errbuf *err)
 {
   if (res == NULL || !(isfinite(thrust_N) && thrust_N > 0.0) ||
       !(rpm_lo > 0.0 && rpm_hi > rpm_lo && isfinite(rpm_hi))) {
@@ -410,9 +422,9 @@ ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b, const ascr_polar
                      thrust_N, rpm_lo, rpm_hi);
   }
   ascr_rotor_result rl, rh;
-  ascr_status st = ascr_rotor_bemt(b, tables, p, rpm_lo, speed_m_s, &rl, NULL, err);
+  ascr_status st = ascr_rotor_point(b, tables, p, model, vp, rpm_lo, speed_m_s, &rl, NULL, err);
   if (st == ASCR_OK) {
-    st = ascr_rotor_bemt(b, tables, p, rpm_hi, speed_m_s, &rh, NULL, err);
+    st = ascr_rotor_point(b, tables, p, model, vp, rpm_hi, speed_m_s, &rh, NULL, err);
   }
   if (st != ASCR_OK) {
     return st;
@@ -428,7 +440,7 @@ ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b, const ascr_polar
                      thrust_N, rpm_lo, rl.thrust_N, rpm_hi, rh.thrust_N);
   }
   /* T(rpm) is smooth and, for a fixed-pitch propeller, rises with rpm over the working range */
-  trim_ctx tc = {b, tables, p, speed_m_s, thrust_N, ASCR_OK, 1, err};
+  trim_ctx tc = {b, tables, p, model, vp, speed_m_s, thrust_N, ASCR_OK, 1, err};
   gsl_function fn = {trim_fn, &tc};
   gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
   if (s == NULL) {
@@ -454,14 +466,14 @@ ascr_status ascr_rotor_bemt_rpm_for_thrust(const ascr_blade *b, const ascr_polar
     return tc.st;
   }
   if (!tc.converged) {
-    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the BEMT did not converge on the way");
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the rotor model did not converge on the way");
   }
   if (isnan(rpm)) {
     return core_fail(err, ASCR_EMAXITER, "rpm for thrust: no convergence in 100 steps");
   }
-  st = ascr_rotor_bemt(b, tables, p, rpm, speed_m_s, res, el, err);
+  st = ascr_rotor_point(b, tables, p, model, vp, rpm, speed_m_s, res, el, err);
   if (st == ASCR_OK && !res->converged) {
-    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the BEMT did not converge at %g rpm", rpm);
+    return core_fail(err, ASCR_EMAXITER, "rpm for thrust: the rotor model did not converge at %g rpm", rpm);
   }
   return st;
 }

@@ -107,3 +107,8 @@ void ascr_blade_free(ascr_blade *b)
   free(b->name);
   free(b);
 }
+
+double rotor_edge(double r0, double r1, size_t i, size_t n)
+{
+  return r0 + (r1 - r0) * sin(0.5 * 3.14159265358979323846 * (double)i / (double)n);
+}

@@ -79,6 +79,30 @@ static void segment(const double p[3], const double a[3], const double b[3], dou
   out[2] += k * c[2];
 }
 
+/* The segment a -> b at every control point (0, rc[i], 0), axial and swirl components added
+ * to ua[i], ut[i]: the same formula as segment(), written out for points on the y axis so that
+ * the compiler can vectorise the loop (the hot spot of the model). */
+static void segment_row(const double *rc, size_t n, const double a[3], const double b[3],
+                        double delta2, double *restrict ua, double *restrict ut)
+{
+  const double r0x = b[0] - a[0], r0y = b[1] - a[1], r0z = b[2] - a[2];
+  const double l2 = r0x * r0x + r0y * r0y + r0z * r0z;
+  const double dl2 = delta2 * l2, k4 = 1.0 / (4.0 * ASCR_PI);
+  for (size_t i = 0; i < n; i++) {
+    double r1x = -a[0], r1y = rc[i] - a[1], r1z = -a[2];
+    double r2x = -b[0], r2y = rc[i] - b[1], r2z = -b[2];
+    double cx = r1y * r2z - r1z * r2y, cy = r1z * r2x - r1x * r2z, cz = r1x * r2y - r1y * r2x;
+    double c2 = cx * cx + cy * cy + cz * cz;
+    double n1 = sqrt(r1x * r1x + r1y * r1y + r1z * r1z);
+    double n2 = sqrt(r2x * r2x + r2y * r2y + r2z * r2z);
+    double d1 = r0x * r1x + r0y * r1y + r0z * r1z, dd2 = r0x * r2x + r0y * r2y + r0z * r2z;
+    double den = (c2 + dl2) * n1 * n2;
+    double k = den > 1e-300 ? k4 * (d1 * n2 - dd2 * n1) / den : 0.0;
+    ua[i] += k * cx;
+    ut[i] += k * cz;
+  }
+}
+
 /* Wake azimuths: near_step over the first revolution, then growing by 5 % a step up to
  * 45 deg, until the helix has travelled len axially at advance h per radian. */
 static size_t wake_angles(double near_step, double h, double len, double *psi, size_t max)
@@ -96,10 +120,12 @@ static size_t wake_angles(double near_step, double h, double len, double *psi, s
   return m; /* segments */
 }
 
-static void build_influence(vx *s, double h, const ascr_vortex_params *vp)
+static void build_influence(vx *s, const double *hedge, const ascr_vortex_params *vp)
 {
   size_t n = s->n, ne = n + 1;
-  s->m = wake_angles(vp->near_step_deg * DEG, h, vp->wake_length_radii * s->b->r_tip_m, s->psi, 4001);
+  double hmin = HUGE_VAL;
+  for (size_t e = 0; e < ne; e++) hmin = fmin(hmin, hedge[e]);
+  s->m = wake_angles(vp->near_step_deg * DEG, hmin, vp->wake_length_radii * s->b->r_tip_m, s->psi, 4001);
   memset(s->fa, 0, n * ne * sizeof *s->fa);
   memset(s->ft, 0, n * ne * sizeof *s->ft);
   memset(s->A, 0, n * n * sizeof *s->A);
@@ -107,17 +133,17 @@ static void build_influence(vx *s, double h, const ascr_vortex_params *vp)
   for (int k = 0; k < s->nb; k++) {
     double th = 2.0 * ASCR_PI * k / s->nb;
     for (size_t e = 0; e < ne; e++) {
-      double re = s->edge[e], d2 = s->core[e] * s->core[e];
+      double re = s->edge[e], d2 = s->core[e] * s->core[e], h = hedge[e];
       double a[3] = {0.0, re * cos(th), re * sin(th)};
+      double len = vp->wake_length_radii * s->b->r_tip_m;
+      double *fa = s->fa + e * n, *ft = s->ft + e * n; /* edge-major work rows */
       for (size_t j = 1; j <= s->m; j++) {
         double q = s->psi[j];
-        double bpt[3] = {h * q, re * cos(th - q), re * sin(th - q)};
-        for (size_t i = 0; i < n; i++) {
-          double pnt[3] = {0.0, s->rc[i], 0.0}, u[3] = {0.0, 0.0, 0.0};
-          segment(pnt, a, bpt, d2, u);
-          s->fa[i * ne + e] += u[0];
-          s->ft[i * ne + e] += u[2];
+        if (h * s->psi[j - 1] >= len) {
+          break; /* this filament has reached the wake length */
         }
+        double bpt[3] = {h * q, re * cos(th - q), re * sin(th - q)};
+        segment_row(s->rc, n, a, bpt, d2, fa, ft);
         a[0] = bpt[0];
         a[1] = bpt[1];
         a[2] = bpt[2];
@@ -140,8 +166,8 @@ static void build_influence(vx *s, double h, const ascr_vortex_params *vp)
   }
   for (size_t i = 0; i < n; i++) {
     for (size_t j = 0; j < n; j++) {
-      s->A[i * n + j] += s->fa[i * ne + j] - s->fa[i * ne + j + 1];
-      s->T[i * n + j] += s->ft[i * ne + j] - s->ft[i * ne + j + 1];
+      s->A[i * n + j] += s->fa[j * n + i] - s->fa[(j + 1) * n + i];
+      s->T[i * n + j] += s->ft[j * n + i] - s->ft[(j + 1) * n + i];
     }
   }
 }
@@ -185,7 +211,22 @@ static void induced(const vx *s)
   }
 }
 
-/* Newton on Gamma for the current wake; returns 1 when converged. */
+/* Residual Gamma_i - g_i at the current Gamma into res; returns its largest magnitude. */
+static double residual_all(vx *s, double *res)
+{
+  induced(s);
+  double rmax = 0.0;
+  for (size_t i = 0; i < s->n; i++) {
+    ascr_table_sample q;
+    res[i] = s->gam[i] - local_g(s, i, s->ua[i], s->ut[i], &q, NULL, NULL);
+    rmax = fmax(rmax, fabs(res[i]));
+  }
+  return rmax;
+}
+
+/* Newton on Gamma for the current wake, with a backtracking line search on the largest
+ * residual (the tables are smooth but their post-stall joins are only continuous); returns 1
+ * when the residual is below 1e-9 of the circulation scale. */
 static int solve_gamma(vx *s)
 {
   size_t n = s->n;
@@ -193,26 +234,24 @@ static int solve_gamma(vx *s)
   for (size_t i = 0; i < n; i++) {
     scale = fmax(scale, 0.5 * hypot(s->v, s->omega * s->rc[i]) * s->chord[i]);
   }
-  for (int it = 0; it < 60; it++) {
-    induced(s);
-    double rmax = 0.0;
+  double *r = s->rhs + n; /* second half of the work array */
+  double *g0 = r + n;
+  double rmax = residual_all(s, r);
+  for (int it = 0; it < 80; it++) {
+    if (!isfinite(rmax)) {
+      return 0;
+    }
+    if (rmax <= 1e-9 * scale) {
+      return 1;
+    }
     for (size_t i = 0; i < n; i++) {
-      ascr_table_sample q;
-      double g = local_g(s, i, s->ua[i], s->ut[i], &q, NULL, NULL);
-      s->rhs[i] = -(s->gam[i] - g);
-      rmax = fmax(rmax, fabs(s->rhs[i]));
       double h = 1e-6 * (fabs(s->v) + s->omega * s->rc[i]);
       ascr_table_sample t;
       s->dga[i] = (local_g(s, i, s->ua[i] + h, s->ut[i], &t, NULL, NULL) -
                    local_g(s, i, s->ua[i] - h, s->ut[i], &t, NULL, NULL)) / (2.0 * h);
       s->dgt[i] = (local_g(s, i, s->ua[i], s->ut[i] + h, &t, NULL, NULL) -
                    local_g(s, i, s->ua[i], s->ut[i] - h, &t, NULL, NULL)) / (2.0 * h);
-    }
-    if (!isfinite(rmax)) {
-      return 0;
-    }
-    if (rmax <= 1e-10 * scale) {
-      return 1;
+      s->rhs[i] = -r[i];
     }
     for (size_t i = 0; i < n; i++) {
       for (size_t j = 0; j < n; j++) {
@@ -224,15 +263,29 @@ static int solve_gamma(vx *s)
     if (info != 0) {
       return 0;
     }
-    /* limit the step to a fifth of the circulation scale per element (kinks of the tables at
-     * the post-stall joins can otherwise throw the iterate far) */
+    /* at most a fifth of the circulation scale per element and step */
     double dmax = 0.0;
     for (size_t i = 0; i < n; i++) dmax = fmax(dmax, fabs(s->rhs[i]));
-    double lim = 0.2 * scale;
-    double f = dmax > lim ? lim / dmax : 1.0;
-    for (size_t i = 0; i < n; i++) s->gam[i] += f * s->rhs[i];
+    double lam = dmax > 0.2 * scale ? 0.2 * scale / dmax : 1.0;
+    memcpy(g0, s->gam, n * sizeof *g0);
+    double rnew = HUGE_VAL;
+    for (int ls = 0; ls < 12; ls++) {
+      for (size_t i = 0; i < n; i++) s->gam[i] = g0[i] + lam * s->rhs[i];
+      rnew = residual_all(s, r);
+      if (rnew < (1.0 - 1e-4 * lam) * rmax) {
+        break;
+      }
+      lam *= 0.5;
+    }
+    if (!(rnew < rmax)) {
+      /* no descent along the Newton direction: accept a tiny residual, else give up */
+      memcpy(s->gam, g0, n * sizeof *g0);
+      rmax = residual_all(s, r);
+      return rmax <= 1e-6 * scale;
+    }
+    rmax = rnew;
   }
-  return 0;
+  return rmax <= 1e-6 * scale;
 }
 
 static void vx_free(vx *s)
@@ -300,7 +353,7 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   s.ua = core_calloc(n, sizeof *s.ua);
   s.ut = core_calloc(n, sizeof *s.ut);
   s.jac = core_calloc(n * n, sizeof *s.jac);
-  s.rhs = core_calloc(n, sizeof *s.rhs);
+  s.rhs = core_calloc(3 * n, sizeof *s.rhs);
   s.dga = core_calloc(n, sizeof *s.dga);
   s.dgt = core_calloc(n, sizeof *s.dgt);
   s.ipiv = core_calloc(n, sizeof *s.ipiv);
@@ -315,7 +368,7 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   }
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
   for (size_t e = 0; e <= n; e++) {
-    s.edge[e] = r0 + (r1 - r0) * 0.5 * (1.0 - cos(ASCR_PI * (double)e / (double)n));
+    s.edge[e] = rotor_edge(r0, r1, e, n);
   }
   /* core radius: a fraction of the narrower neighbouring element, so that the regularisation
    * only removes the singularity and never hides the tip vortex from the elements next to it */
@@ -339,32 +392,60 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     }
     asum += s.rc[i] * s.dr[i];
   }
+  /* helix advance per radian of every trailing filament: the local hydrodynamic pitch at its
+   * edge, h = r tan(phi) = r (V + u_a) / (Omega r - u_t), from the BEMT induced velocities first */
+  double *ue = core_calloc(2 * (n + 1), sizeof *ue);
+  double *hedge = core_calloc(2 * (n + 1), sizeof *hedge);
+  if (ue == NULL || hedge == NULL) {
+    free(ue);
+    free(hedge);
+    free(bel);
+    vx_free(&s);
+    return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
+  }
+  for (size_t i = 0; i < n; i++) {
+    s.ua[i] = br.converged && bel[i].converged ? bel[i].v_axial_m_s : wsum / asum;
+    s.ut[i] = br.converged && bel[i].converged ? bel[i].v_swirl_m_s : 0.0;
+  }
   free(bel);
-  double wbar = wsum / asum;
-  double hmin = 0.005 * b->r_tip_m; /* helix advance per radian: at least 0.5 % of the tip speed */
-  double h = fmax((s.v + wbar) / s.omega, hmin);
+  const double hmin = 0.005 * b->r_tip_m; /* at least 0.5 % of the tip speed */
   int ok = 0, wake_ok = 0;
-  for (int it = 0; it < vp.max_wake_iter; it++) {
-    build_influence(&s, h, &vp);
+  double *hnew = hedge + n + 1;
+  for (int it = 0; it <= vp.max_wake_iter; it++) {
+    int pitch_ok = 1;
+    for (size_t e = 0; e <= n; e++) {
+      double a = e == 0 ? s.ua[0] : (e == n ? s.ua[n - 1] : 0.5 * (s.ua[e - 1] + s.ua[e]));
+      double t = e == 0 ? s.ut[0] : (e == n ? s.ut[n - 1] : 0.5 * (s.ut[e - 1] + s.ut[e]));
+      double vt = s.omega * s.edge[e] - t;
+      double h = vt > 0.0 ? s.edge[e] * (s.v + a) / vt : 0.0;
+      pitch_ok &= h > hmin;
+      hnew[e] = fmax(h, hmin);
+    }
+    if (!pitch_ok) {
+      ok = 0; /* the wake does not leave the disc: outside what a rigid wake can model */
+      break;
+    }
+    if (it > 0) {
+      double dmax = 0.0;
+      for (size_t e = 0; e <= n; e++) dmax = fmax(dmax, fabs(hnew[e] - hedge[e]) / hedge[e]);
+      if (dmax <= 1e-4) {
+        wake_ok = 1;
+        break;
+      }
+      if (it == vp.max_wake_iter) {
+        break;
+      }
+    }
+    memcpy(hedge, hnew, (n + 1) * sizeof *hedge);
+    build_influence(&s, hedge, &vp);
     ok = solve_gamma(&s);
     if (!ok) {
       break;
     }
     induced(&s);
-    double ws = 0.0;
-    for (size_t i = 0; i < n; i++) ws += s.ua[i] * s.rc[i] * s.dr[i];
-    double hn = (s.v + ws / asum) / s.omega;
-    if (!(hn > hmin)) {
-      ok = 0; /* the wake does not leave the disc: outside what a rigid wake can model */
-      break;
-    }
-    if (fabs(hn - h) <= 1e-5 * (h + 1e-3 * b->r_tip_m)) {
-      wake_ok = 1;
-      h = hn;
-      break;
-    }
-    h = 0.5 * (h + hn);
   }
+  free(ue);
+  free(hedge);
   int conv = ok && wake_ok;
   /* loads */
   memset(res, 0, sizeof *res);

@@ -251,10 +251,10 @@ static void test_thrust_rpm_squared(void **state)
   /* the rpm for 2.25 x the 8000-rpm thrust is 12000 (T ~ rpm^2) */
   ascr_rotor_result rt;
   ascr_errbuf err;
-  assert_int_equal(ascr_rotor_bemt_rpm_for_thrust(&a.b, tabs, &p, 2.25 * r1.thrust_N, 0.0, 1000.0,
+  assert_int_equal(ascr_rotor_rpm_for_thrust(&a.b, tabs, &p, ASCR_INFLOW_BEMT, NULL, 2.25 * r1.thrust_N, 0.0, 1000.0,
                                                   40000.0, &rt, NULL, &err), ASCR_OK);
   ascr_assert_close(rt.rpm, 12000.0, 1e-6, 0.0, "rpm for a target thrust");
-  assert_int_equal(ascr_rotor_bemt_rpm_for_thrust(&a.b, tabs, &p, 1e4, 0.0, 1000.0, 40000.0, &rt,
+  assert_int_equal(ascr_rotor_rpm_for_thrust(&a.b, tabs, &p, ASCR_INFLOW_BEMT, NULL, 1e4, 0.0, 1000.0, 40000.0, &rt,
                                                   NULL, &err), ASCR_EDOM);
   assert_non_null(strstr(err.msg, "not reached"));
   ascr_polar_table_free(tab);
