@@ -237,7 +237,8 @@ static int solve_gamma(vx *s)
   double *r = s->rhs + n; /* second half of the work array */
   double *g0 = r + n;
   double rmax = residual_all(s, r);
-  for (int it = 0; it < 80; it++) {
+  int rescues = 0;
+  for (int it = 0; it < 120; it++) {
     if (!isfinite(rmax)) {
       return 0;
     }
@@ -278,10 +279,19 @@ static int solve_gamma(vx *s)
       lam *= 0.5;
     }
     if (!(rnew < rmax)) {
-      /* no descent along the Newton direction: accept a tiny residual, else give up */
+      /* no descent along the Newton direction (a fold of a wavy lift curve): a few damped
+       * fixed-point steps Gamma <- Gamma - 0.2 (Gamma - g) move the iterate off it, then Newton
+       * resumes; at most five such rescues */
       memcpy(s->gam, g0, n * sizeof *g0);
       rmax = residual_all(s, r);
-      return rmax <= 1e-6 * scale;
+      if (++rescues > 5) {
+        return rmax <= 1e-6 * scale;
+      }
+      for (int k = 0; k < 20; k++) {
+        for (size_t i = 0; i < n; i++) s->gam[i] -= 0.2 * r[i];
+        rmax = residual_all(s, r);
+      }
+      continue;
     }
     rmax = rnew;
   }
