@@ -31,6 +31,8 @@ static void polar_help(FILE *fp)
         "  -p, --panels N         panels on the contour (default 160)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
+        "      --table FILE       also write the polars as a polar-table file (for rotor\n"
+        "                         --polar-table; Mach 0 curves only)\n"
         "      --force            replace FILE if it exists\n"
         "  -h, --help             this help\n",
         fp);
@@ -57,6 +59,7 @@ int cmd_polar(int argc, char **argv)
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
+    {"table", required_argument, NULL, 'B'},
     {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -65,7 +68,7 @@ int cmd_polar(int argc, char **argv)
   double a0 = NAN, a1 = NAN, da = NAN;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int json = 0, csv = 0, force = 0, c;
-  const char *outpath = NULL;
+  const char *outpath = NULL, *tablepath = NULL;
   opterr = 0;
   optind = 1;
   while ((c = getopt_long(argc, argv, ":r:a:m:p:o:h", opts, NULL)) != -1) {
@@ -88,6 +91,7 @@ int cmd_polar(int argc, char **argv)
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
+    case 'B': tablepath = optarg; break;
     case 'F': force = 1; break;
     case 'h': polar_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("polar: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -109,6 +113,12 @@ int cmd_polar(int argc, char **argv)
   if (json && csv) {
     cli_error("polar: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
+  }
+  if (tablepath != NULL) {
+    cli_output probe;
+    int prc = cli_output_open(&probe, tablepath, force); /* refuses an existing file */
+    if (prc) return prc;
+    cli_output_discard(&probe);
   }
   cli_output out;
   int rc = cli_output_open(&out, outpath, force);
@@ -171,6 +181,57 @@ int cmd_polar(int argc, char **argv)
   }
   FILE *fp = out.fp;
   const char *name = ascr_geom_section_name(an.section);
+  if (tablepath != NULL) {
+    /* the Mach 0 curves (tables apply Mach by correction), converged points with numbers */
+    ascr_curve_data *cv = calloc(nre, sizeof *cv);
+    double *buf = calloc(4 * npts * nre, sizeof *buf);
+    int *ok = calloc(npts * nre, sizeof *ok);
+    size_t im0 = 0;
+    while (im0 < nmach && machs[im0] != 0.0) im0++;
+    if (cv == NULL || buf == NULL || ok == NULL || im0 == nmach) {
+      if (im0 == nmach) cli_error("polar: --table needs Mach 0 among --mach");
+      else cli_error("out of memory");
+      rc = im0 == nmach ? CLI_EXIT_USAGE : CLI_EXIT_INTERNAL;
+    }
+    for (size_t ir = 0; rc == 0 && ir < nre; ir++) {
+      ascr_visc_params vp = cli_visc_params(&vo, res[ir], 0.0);
+      size_t k = im0 * nre + ir;
+      cv[ir].re = res[ir];
+      cv[ir].mach = 0.0;
+      cv[ir].ncrit = vp.ncrit;
+      cv[ir].trip_upper = vp.trip_upper;
+      cv[ir].trip_lower = vp.trip_lower;
+      cv[ir].n = npts;
+      cv[ir].alpha_deg = buf + (4 * ir + 0) * npts;
+      cv[ir].cl = buf + (4 * ir + 1) * npts;
+      cv[ir].cd = buf + (4 * ir + 2) * npts;
+      cv[ir].cm = buf + (4 * ir + 3) * npts;
+      cv[ir].converged = ok + ir * npts;
+      for (size_t i = 0; i < npts; i++) {
+        const ascr_polar_point *q = &pts[k * npts + i];
+        cv[ir].alpha_deg[i] = q->alpha_deg;
+        cv[ir].converged[i] = q->converged;
+        cv[ir].cl[i] = q->cl;
+        cv[ir].cd[i] = q->cd;
+        cv[ir].cm[i] = q->cm;
+      }
+    }
+    ascr_errbuf err;
+    if (rc == 0 && ascr_table_file_write(tablepath, name, NULL, cv, nre, &err) != ASCR_OK) {
+      cli_error("%s", err.msg);
+      rc = CLI_EXIT_OUTPUT;
+    }
+    free(cv);
+    free(buf);
+    free(ok);
+    if (rc != 0) {
+      free(pts);
+      free(sums);
+      cli_analysis_close(&an);
+      cli_output_discard(&out);
+      return rc;
+    }
+  }
   if (json) {
     json_t *o = json_object(), *pl = json_array();
     json_object_set_new(o, "section", json_string(name));

@@ -18,6 +18,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #define TABLE_FORMAT "airscrew-polar-table-1"
@@ -294,6 +295,7 @@ ascr_status ascr_table_file_write(const char *path, const char *section_name, co
   if (fd < 0) {
     st = core_fail(err, ASCR_EIO, "%s: cannot create a temporary file: %s", path, strerror(errno));
   } else {
+    fchmod(fd, 0644); /* mkstemp makes 0600; a table is an ordinary output file */
     FILE *f = fdopen(fd, "w");
     int bad = f == NULL;
     if (!bad) {

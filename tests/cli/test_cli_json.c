@@ -216,6 +216,62 @@ static void test_cli_polar_json_contract(void **state)
   json_decref(j);
 }
 
+/* Rotor JSON contract (issue: points with rpm, speed_m_s, thrust_N, torque_Nm, power_W, CT,
+ * CP, J, efficiency, converged and per-station distributions), checked for internal
+ * consistency: CT = T/(rho n^2 D^4), CP = P/(rho n^3 D^5), P = 2 pi n Q, J = V/(n D),
+ * eta = T V / P, and the stations' dT/dr integrating to the thrust (midpoint rule on the
+ * element widths, within 2 %: the output carries r but not the element edges). */
+static void test_cli_rotor_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm 7000,8000 "
+                       "--speed 0,9 --polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json "
+                       "--json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  assert_string_equal(json_string_value(json_object_get(j, "inflow")), "bemt");
+  double d = num(j, "diameter_m");
+  double rho = num(json_object_get(j, "air"), "density_kg_m3");
+  assert_true(json_array_size(json_object_get(j, "cautions")) >= 2);
+  json_t *pts = json_object_get(j, "points");
+  assert_int_equal(json_array_size(pts), 4);
+  for (size_t k = 0; k < 4; k++) {
+    json_t *p = json_array_get(pts, k);
+    assert_true(json_is_true(json_object_get(p, "converged")));
+    double rpm = num(p, "rpm"), v = num(p, "speed_m_s"), t = num(p, "thrust_N");
+    double q = num(p, "torque_Nm"), pw = num(p, "power_W"), n = rpm / 60.0;
+    assert_true(t > 0.0 && q > 0.0);
+    ascr_assert_close(num(p, "CT"), t / (rho * n * n * pow(d, 4)), 1e-8, 0.0, "CT definition");
+    ascr_assert_close(num(p, "CP"), pw / (rho * n * n * n * pow(d, 5)), 1e-8, 0.0, "CP definition");
+    ascr_assert_close(pw, 2.0 * 3.14159265358979323846 * n * q, 1e-8, 0.0, "P = 2 pi n Q");
+    ascr_assert_close(num(p, "J"), v / (n * d), 1e-8, 1e-12, "J definition");
+    json_t *eta = json_object_get(p, "efficiency");
+    if (v > 0.0) {
+      ascr_assert_close(json_number_value(eta), t * v / pw, 1e-8, 0.0, "eta definition");
+    } else {
+      assert_true(json_is_null(eta));
+      assert_true(num(p, "figure_of_merit") > 0.3);
+    }
+    json_t *st = json_object_get(p, "stations");
+    size_t ns = json_array_size(st);
+    assert_int_equal(ns, 40);
+    double sum = 0.0;
+    for (size_t i = 0; i < ns; i++) {
+      json_t *e = json_array_get(st, i);
+      const char *keys[] = {"r_m", "alpha_deg", "re", "mach", "cl", "cd", "dT_dr_N_per_m", "dQ_dr_Nm_per_m"};
+      for (size_t m = 0; m < 8; m++) (void)num(e, keys[m]);
+      assert_true(json_is_boolean(json_object_get(e, "stalled")));
+      double r = num(e, "r_m");
+      double rl = i > 0 ? 0.5 * (r + num(json_array_get(st, i - 1), "r_m")) : 0.2 * d / 2.0;
+      double rr = i + 1 < ns ? 0.5 * (r + num(json_array_get(st, i + 1), "r_m")) : d / 2.0;
+      sum += num(e, "dT_dr_N_per_m") * (rr - rl);
+    }
+    ascr_assert_close(sum, t, 0.02, 0.0, "stations integrate to the thrust");
+  }
+  json_decref(j);
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
@@ -225,6 +281,7 @@ int main(void)
     cmocka_unit_test(test_cli_section_points_round_trip),
     cmocka_unit_test(test_cli_flow_viscous_json_contract),
     cmocka_unit_test(test_cli_polar_json_contract),
+    cmocka_unit_test(test_cli_rotor_json_contract),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
