@@ -7,6 +7,7 @@
  */
 #include "airscrew/ascr_table.h"
 #include "core/core_impl.h"
+#include "polar/polar_impl.h"
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_interp.h>
@@ -464,6 +465,12 @@ static int curve_region(const table_curve *c, double a_deg)
 void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double re, double mach,
                            ascr_table_sample *out)
 {
+  polar_table_lookup(t, alpha_rad, re, mach, 1, out);
+}
+
+void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, double mach,
+                        int want_cm, ascr_table_sample *out)
+{
   double a = remainder(alpha_rad, 2.0 * ASCR_PI); /* -pi..pi */
   memset(out, 0, sizeof *out);
   if (t->linear) {
@@ -503,7 +510,7 @@ void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double r
   }
   out->cl = gsl_interp2d_eval_extrap(t->icl, t->agrid, t->ygrid, t->zcl, a_deg, y, NULL, NULL);
   out->cd = gsl_interp2d_eval_extrap(t->icd, t->agrid, t->ygrid, t->zcd, a_deg, y, NULL, NULL);
-  out->cm = gsl_interp2d_eval_extrap(t->icm, t->agrid, t->ygrid, t->zcm, a_deg, y, NULL, NULL);
+  out->cm = want_cm ? gsl_interp2d_eval_extrap(t->icm, t->agrid, t->ygrid, t->zcm, a_deg, y, NULL, NULL) : NAN;
   if (out->cd < 1e-4) {
     out->cd = 1e-4; /* bicubic overshoot guard: drag never vanishes */
   }

@@ -18,6 +18,7 @@
  */
 #include "rotor/rotor_impl.h"
 #include "core/core_impl.h"
+#include "polar/polar_impl.h"
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
@@ -70,14 +71,13 @@ typedef struct elem_ctx {
 
 static void lookup(elem_ctx *e, double alpha)
 {
-  ascr_polar_table_eval(e->tables[e->s0], alpha, e->re, e->mach, &e->smp);
+  polar_table_lookup(e->tables[e->s0], alpha, e->re, e->mach, 0, &e->smp);
   if (e->s1 != e->s0 && e->w > 0.0) {
     ascr_table_sample q;
-    ascr_polar_table_eval(e->tables[e->s1], alpha, e->re, e->mach, &q);
+    polar_table_lookup(e->tables[e->s1], alpha, e->re, e->mach, 0, &q);
     double w = e->w;
     e->smp.cl = (1.0 - w) * e->smp.cl + w * q.cl;
     e->smp.cd = (1.0 - w) * e->smp.cd + w * q.cd;
-    e->smp.cm = (1.0 - w) * e->smp.cm + w * q.cm;
     e->smp.region = q.region > e->smp.region ? q.region : e->smp.region;
     e->smp.stalled |= q.stalled;
     e->smp.re_outside |= q.re_outside;
@@ -154,7 +154,28 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
 {
   const double eps = 1e-6;
   double lo, hi;
-  int found = scan(e, eps, 0.5 * ASCR_PI, 32, &lo, &hi) ||
+  /* Ning's bracket first: (0, pi/2] holds the root of a propeller in normal operation; the
+   * scans find the other states (and the lowest root where there are several) */
+  int found = 0;
+  if (isfinite(*phi)) {
+    /* a later pass (Re and Mach updated): the root moves little; a narrow bracket first */
+    double a = *phi - 0.01, b = *phi + 0.01;
+    double fa = residual(a, e), fb = residual(b, e);
+    if (isfinite(fa) && isfinite(fb) && fa * fb <= 0.0 && (a > 0.0) == (*phi > 0.0)) {
+      lo = a;
+      hi = b;
+      found = 1;
+    }
+  }
+  if (!found) {
+    double f0 = residual(eps, e), f1 = residual(0.5 * ASCR_PI, e);
+    if (isfinite(f0) && isfinite(f1) && f0 < 0.0 && f1 > 0.0) {
+      lo = eps;
+      hi = 0.5 * ASCR_PI;
+      found = 1;
+    }
+  }
+  found = found || scan(e, eps, 0.5 * ASCR_PI, 32, &lo, &hi) ||
               scan(e, 0.5 * ASCR_PI, ASCR_PI - eps, 16, &lo, &hi) ||
               scan(e, -eps, -0.5 * ASCR_PI, 16, &lo, &hi);
   if (!found) {
@@ -174,7 +195,7 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
       return 0;
     }
     double x0 = gsl_root_fsolver_x_lower(s), x1 = gsl_root_fsolver_x_upper(s);
-    if (gsl_root_test_interval(x0, x1, 1e-12, 0.0) == GSL_SUCCESS) {
+    if (gsl_root_test_interval(x0, x1, 1e-11, 0.0) == GSL_SUCCESS) {
       *phi = gsl_root_fsolver_root(s);
       double rr = residual(*phi, e); /* leaves the element state at the root */
       return isfinite(rr);
@@ -256,7 +277,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
     e.vx = speed_m_s;
     e.vy = omega * e.r;
     double wrel = hypot(e.vx, e.vy);
-    double phi = 0.0;
+    double phi = NAN;
     int ok = 0;
     for (int pass = 0; pass < 8; pass++) {
       e.re = p.density_kg_m3 * wrel * e.chord / p.viscosity_pa_s;

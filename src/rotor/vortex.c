@@ -16,6 +16,7 @@
  */
 #include "rotor/rotor_impl.h"
 #include "core/core_impl.h"
+#include "polar/polar_impl.h"
 
 #include <lapacke.h>
 #include <math.h>
@@ -181,10 +182,10 @@ static double local_g(const vx *s, size_t i, double ua, double ut, ascr_table_sa
   double ph = atan2(va, vt);
   double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
   double mach = w / s->p->sound_speed_m_s;
-  ascr_polar_table_eval(s->tables[s->s0[i]], s->theta[i] - ph, re, mach, smp);
+  polar_table_lookup(s->tables[s->s0[i]], s->theta[i] - ph, re, mach, 0, smp);
   if (s->s1[i] != s->s0[i] && s->w[i] > 0.0) {
     ascr_table_sample q;
-    ascr_polar_table_eval(s->tables[s->s1[i]], s->theta[i] - ph, re, mach, &q);
+    polar_table_lookup(s->tables[s->s1[i]], s->theta[i] - ph, re, mach, 0, &q);
     double t = s->w[i];
     smp->cl = (1.0 - t) * smp->cl + t * q.cl;
     smp->cd = (1.0 - t) * smp->cd + t * q.cd;
