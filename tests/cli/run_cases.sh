@@ -5,6 +5,8 @@ set -u
 exe=$1; cases=$2; src=$3
 tmp=$(mktemp -d) || exit 1
 trap 'rm -rf "$tmp"' EXIT
+# computed section tables go to a cache of this run, never the user's
+AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
 printf '\000\001\002binary' > "$tmp/binary.dat"
 : > "$tmp/empty.dat"
 echo "keep me" > "$tmp/existing.dat"
