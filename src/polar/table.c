@@ -341,8 +341,9 @@ ascr_status ascr_polar_table_build(const ascr_table_curve *curves, size_t n_curv
   qsort(sorted, n_curves, sizeof *sorted, cmp_curve_re);
   for (size_t k = 1; k < n_curves; k++) {
     if (sorted[k].re <= sorted[k - 1].re * (1.0 + 1e-9)) {
+      double re = sorted[k].re;
       free(sorted);
-      return core_fail(err, ASCR_EINVAL, "polar table: Re %g given twice", sorted[k].re);
+      return core_fail(err, ASCR_EINVAL, "polar table: Re %g given twice", re);
     }
   }
 

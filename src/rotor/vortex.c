@@ -52,6 +52,9 @@ typedef struct vx {
   /* per element state */
   double *gam, *ua, *ut, *jac, *rhs, *dga, *dgt;
   int *ipiv;
+  /* homotopy: induced velocity = hs (A Gamma) + (1 - hs) u0, hs = 1 for the model itself */
+  double hs;
+  double *ua0, *ut0, *gsave;
 } vx;
 
 /* Unit-strength straight segment a -> b at point p, added to out (Katz & Plotkin eq. 10.115
@@ -207,8 +210,8 @@ static void induced(const vx *s)
       a += s->A[i * n + j] * s->gam[j];
       t += s->T[i * n + j] * s->gam[j];
     }
-    s->ua[i] = a;
-    s->ut[i] = t;
+    s->ua[i] = s->hs * a + (1.0 - s->hs) * s->ua0[i];
+    s->ut[i] = s->hs * t + (1.0 - s->hs) * s->ut0[i];
   }
 }
 
@@ -257,7 +260,8 @@ static int solve_gamma(vx *s)
     }
     for (size_t i = 0; i < n; i++) {
       for (size_t j = 0; j < n; j++) {
-        s->jac[i * n + j] = (i == j ? 1.0 : 0.0) - s->dga[i] * s->A[i * n + j] - s->dgt[i] * s->T[i * n + j];
+        s->jac[i * n + j] = (i == j ? 1.0 : 0.0) -
+                            s->hs * (s->dga[i] * s->A[i * n + j] + s->dgt[i] * s->T[i * n + j]);
       }
     }
     lapack_int info = LAPACKE_dgesv(LAPACK_ROW_MAJOR, (lapack_int)n, 1, s->jac, (lapack_int)n,
@@ -299,12 +303,45 @@ static int solve_gamma(vx *s)
   return rmax <= 1e-6 * scale;
 }
 
+/* Homotopy from the start state: with the induced velocity hs (A Gamma) + (1 - hs) u0, hs = 0
+ * is solved element by element (Gamma = g(u0)) and hs is raised to 1 in adaptive steps, each
+ * solved by Newton from the last. It follows the branch of solutions that starts at the BEMT
+ * (or previous-wake) state, which is what the direct Newton iteration loses where stalled
+ * sections admit several circulation distributions. Returns 1 on reaching hs = 1. */
+static int solve_homotopy(vx *s)
+{
+  size_t n = s->n;
+  for (size_t i = 0; i < n; i++) {
+    ascr_table_sample q;
+    s->gam[i] = local_g(s, i, s->ua0[i], s->ut0[i], &q, NULL, NULL);
+  }
+  double h = 0.0, dh = 0.25;
+  while (h < 1.0) {
+    double target = fmin(1.0, h + dh);
+    memcpy(s->gsave, s->gam, n * sizeof *s->gam);
+    s->hs = target;
+    if (solve_gamma(s)) {
+      h = target;
+      dh = fmin(1.5 * dh, 0.5);
+    } else {
+      memcpy(s->gam, s->gsave, n * sizeof *s->gam);
+      dh *= 0.5;
+      if (dh < 1.0 / 256.0) {
+        s->hs = 1.0;
+        return 0;
+      }
+    }
+  }
+  s->hs = 1.0;
+  return 1;
+}
+
 static void vx_free(vx *s)
 {
   free(s->edge); free(s->rc); free(s->dr); free(s->chord); free(s->theta); free(s->core);
   free(s->s0); free(s->s1); free(s->w); free(s->A); free(s->T); free(s->fa); free(s->ft);
   free(s->psi); free(s->gam); free(s->ua); free(s->ut); free(s->jac); free(s->rhs);
-  free(s->dga); free(s->dgt); free(s->ipiv);
+  free(s->dga); free(s->dgt); free(s->ipiv); free(s->ua0); free(s->ut0); free(s->gsave);
 }
 
 ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const *tables,
@@ -368,11 +405,15 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   s.dga = core_calloc(n, sizeof *s.dga);
   s.dgt = core_calloc(n, sizeof *s.dgt);
   s.ipiv = core_calloc(n, sizeof *s.ipiv);
+  s.ua0 = core_calloc(n, sizeof *s.ua0);
+  s.ut0 = core_calloc(n, sizeof *s.ut0);
+  s.gsave = core_calloc(n, sizeof *s.gsave);
+  s.hs = 1.0;
   if (s.edge == NULL || s.core == NULL || s.rc == NULL || s.dr == NULL || s.chord == NULL ||
       s.theta == NULL || s.s0 == NULL || s.s1 == NULL || s.w == NULL || s.A == NULL ||
       s.T == NULL || s.fa == NULL || s.ft == NULL || s.psi == NULL || s.gam == NULL ||
       s.ua == NULL || s.ut == NULL || s.jac == NULL || s.rhs == NULL || s.dga == NULL ||
-      s.dgt == NULL || s.ipiv == NULL) {
+      s.dgt == NULL || s.ipiv == NULL || s.ua0 == NULL || s.ut0 == NULL || s.gsave == NULL) {
     vx_free(&s);
     free(bel);
     return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
@@ -423,19 +464,24 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   int ok = 0, wake_ok = 0;
   double *hnew = hedge + n + 1;
   for (int it = 0; it <= vp.max_wake_iter; it++) {
-    int pitch_ok = 1;
+    /* local pitch of every edge; the r-weighted mean decides whether the wake leaves the disc
+     * at all, and no edge goes below half of it (next to the tip and root vortices the
+     * lifting line's local induced velocity says little about how fast they convect) */
+    double hsum = 0.0, wsum2 = 0.0;
     for (size_t e = 0; e <= n; e++) {
       double a = e == 0 ? s.ua[0] : (e == n ? s.ua[n - 1] : 0.5 * (s.ua[e - 1] + s.ua[e]));
       double t = e == 0 ? s.ut[0] : (e == n ? s.ut[n - 1] : 0.5 * (s.ut[e - 1] + s.ut[e]));
       double vt = s.omega * s.edge[e] - t;
-      double h = vt > 0.0 ? s.edge[e] * (s.v + a) / vt : 0.0;
-      pitch_ok &= h > hmin;
-      hnew[e] = fmax(h, hmin);
+      hnew[e] = vt > 0.0 ? s.edge[e] * (s.v + a) / vt : 0.0;
+      hsum += hnew[e] * s.edge[e];
+      wsum2 += s.edge[e];
     }
-    if (!pitch_ok) {
+    double hbar = hsum / wsum2;
+    if (!(hbar > hmin)) {
       ok = 0; /* the wake does not leave the disc: outside what a rigid wake can model */
       break;
     }
+    for (size_t e = 0; e <= n; e++) hnew[e] = fmax(hnew[e], 0.5 * hbar);
     if (it > 0) {
       double dmax = 0.0;
       for (size_t e = 0; e <= n; e++) dmax = fmax(dmax, fabs(hnew[e] - hedge[e]) / hedge[e]);
@@ -449,7 +495,13 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     }
     memcpy(hedge, hnew, (n + 1) * sizeof *hedge);
     build_influence(&s, hedge, &vp);
+    memcpy(s.ua0, s.ua, n * sizeof *s.ua0); /* the start state's induced velocities */
+    memcpy(s.ut0, s.ut, n * sizeof *s.ut0);
+    memcpy(s.gsave, s.gam, n * sizeof *s.gam);
     ok = solve_gamma(&s);
+    if (!ok) {
+      ok = solve_homotopy(&s);
+    }
     if (!ok) {
       break;
     }
