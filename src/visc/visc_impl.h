@@ -88,6 +88,20 @@ struct ascr_visc_solver {
   /* Newton */
   double *J, *R, *dx;
   lapack_int *ipiv;
+  /* the Newton matrix in structured form, J = L + U D Q (solver.c, "structured solve"):
+   * L local (block lower triangular in station order), U the residuals' dependence on the edge
+   * velocities, D the mass-defect influence, Q the m columns */
+  int dense_jac;             /* 1: assemble writes the dense J instead (fallback) */
+  size_t *lst;               /* nst x 3: stations of each row-station's blocks (SIZE_MAX: none) */
+  double *lblk;              /* nst x 3 x 9: blocks, [e * 3 + var] */
+  size_t *uidx;              /* 3 nst x UMAX: D rows */
+  double *ucoef;             /* 3 nst x UMAX */
+  int *ucnt;                 /* 3 nst */
+  double *zm;                /* nst x nst, row-major: m rows of L^-1 U */
+  double *mmat;              /* nst x nst, row-major: I + D zm */
+  double *wv, *yv, *chk;     /* 3 nst, nst, 3 nst */
+  lapack_int *ipiv2;         /* nst */
+  double *dinv;              /* nst x 9: inverses of the diagonal blocks of L */
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
   /* saved converged states (visc_snapshot / visc_restore): slots 0 and 2 for callers
