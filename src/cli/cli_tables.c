@@ -80,6 +80,10 @@ void cli_tables_free(cli_tables *t)
   if (t == NULL) return;
   for (size_t i = 0; i < t->n; i++) {
     if (t->tables != NULL) ascr_polar_table_free(t->tables[i]);
+    if (t->info != NULL) {
+      for (size_t k = 0; k < t->info[i].n_curve; k++) ascr_curve_data_clear(&t->info[i].curve[k]);
+      free(t->info[i].curve);
+    }
   }
   free(t->tables);
   free(t->info);
@@ -264,8 +268,8 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
           for (size_t i = 0; i < cv[k].n; i++) in->converged[k] += (size_t)cv[k].converged[i];
         }
       }
-      for (size_t k = 0; k < nc; k++) ascr_curve_data_clear(&cv[k]);
-      free(cv);
+      in->curve = cv; /* kept for the caller (plots) */
+      in->n_curve = nc;
       if (st != ASCR_OK) {
         cli_error("--polar-table for section '%s': %s", b->section_name[s], err.msg);
         rc = st == ASCR_EDOM ? CLI_EXIT_ANALYSIS : CLI_EXIT_INPUT;
@@ -289,7 +293,12 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
       k++;
     }
     st = ascr_polar_table_from_curves(cv, k, NULL, &out->tables[s], &err);
-    free(cv);
+    /* the curves move to the section info (kept for plots) */
+    in->curve = cv;
+    in->n_curve = k;
+    for (size_t i = 0; i < njobs; i++) {
+      if (jobs[i].section == s) memset(&jobs[i].curve, 0, sizeof jobs[i].curve);
+    }
     if (st != ASCR_OK) {
       cli_error("section '%s': %s", b->section_name[s], err.msg);
       rc = st == ASCR_EDOM ? CLI_EXIT_ANALYSIS : cli_exit_for(st);

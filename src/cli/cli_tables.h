@@ -32,6 +32,8 @@ typedef struct cli_section_info {
   size_t converged[CLI_MAX_LIST], points[CLI_MAX_LIST];
   size_t from_cache, computed;
   const char *user_file;  /* NULL unless the user gave the table */
+  ascr_curve_data *curve; /* the curves of the table (owned) */
+  size_t n_curve;
 } cli_section_info;
 
 typedef struct cli_tables {

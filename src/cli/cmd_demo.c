@@ -99,18 +99,9 @@ done:
   return rc;
 }
 
-int cmd_demo(int argc, char **argv)
+static int demo_sections(int argc, char **argv)
 {
   for (int i = 1; i < argc; i++) {
-    if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
-      fputs("usage: airscrew demo [SECTION...]\n\n"
-            "Built-in demonstration: shape, inviscid lift and viscous polars (Re 60k and 200k)\n"
-            "of sample sections.\n"
-            "Without SECTION arguments it uses built-in sections: a thin cambered plate\n"
-            "designed for an indoor micro-drone propeller, NACA 4412 and NACA 0012.\n",
-            stdout);
-      return CLI_EXIT_OK;
-    }
     if (argv[i][0] == '-') {
       cli_error("demo: unknown option '%s' (see airscrew demo --help)", argv[i]);
       return CLI_EXIT_USAGE;
@@ -137,4 +128,27 @@ int cmd_demo(int argc, char **argv)
   fprintf(out.fp, "\nPredictions are estimates. Spinning propellers cut and blades can fail at "
           "speed:\ntest on a guarded thrust stand and follow local rules and qualified practice.\n");
   return cli_output_commit(&out);
+}
+
+int cmd_demo(int argc, char **argv)
+{
+  for (int i = 1; i < argc; i++) {
+    if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
+      fputs("usage: airscrew demo [--out DIR] [--force] [--cache-dir DIR | --no-cache]\n"
+            "       airscrew demo --sections [SECTION...]\n\n"
+            "Built-in demonstration. By default: a three-inch, three-blade propeller of our own\n"
+            "for an indoor inspection micro-drone, from its thin-plate sections to polars at the\n"
+            "blade Reynolds numbers, the rotor map over rpm and speed with both inflow models,\n"
+            "and the hover point for the craft's weight; written to DIR (default airscrew-demo)\n"
+            "as CSV/JSON, SVG and PNG plots and a one-page report (report.html).\n"
+            "With --sections: shape, inviscid lift and viscous polars (Re 60k and 200k) of\n"
+            "sample sections (built-in ones without SECTION arguments), printed.\n",
+            stdout);
+      return CLI_EXIT_OK;
+    }
+  }
+  if (argc > 1 && strcmp(argv[1], "--sections") == 0) {
+    return demo_sections(argc - 1, argv + 1);
+  }
+  return demo_prop(argc, argv);
 }

@@ -204,6 +204,8 @@ size_t ascr_table_re_ladder(double re_lo, double re_hi, double *out, size_t max)
   re_lo = fmax(re_lo, ASCR_TABLE_RE_FLOOR);
   re_hi = fmax(re_hi, ASCR_TABLE_RE_FLOOR);
   int k0 = (int)floor(4.0 * log10(re_lo) - 1e-9);
+  int kmin = (int)ceil(4.0 * log10(ASCR_TABLE_RE_FLOOR) - 1e-9);
+  if (k0 < kmin) k0 = kmin; /* no rung below the floor */
   int k1 = (int)ceil(4.0 * log10(re_hi) + 1e-9);
   size_t n = 0;
   for (int k = k0; k <= k1; k++) {

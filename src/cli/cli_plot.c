@@ -1,0 +1,169 @@
+/* src/cli/cli_plot.c
+ * Figures through PLplot's cairo drivers (svgcairo, pngcairo). Our look: white page, grey grid,
+ * a colour-blind-safe palette (Okabe & Ito 2008), labelled axes with units, a legend per panel.
+ */
+#define _POSIX_C_SOURCE 200809L
+#include "cli_plot.h"
+#include "cli.h"
+
+#include <math.h>
+#include <plplot.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Okabe-Ito: blue, vermillion, bluish green, orange, reddish purple, sky blue, yellow, black */
+static const int palette[8][3] = {{0, 114, 178},  {213, 94, 0},  {0, 158, 115}, {230, 159, 0},
+                                  {204, 121, 167}, {86, 180, 233}, {200, 170, 0}, {60, 60, 60}};
+
+static void data_range(const plot_panel *p, double *x0, double *x1, double *y0, double *y1)
+{
+  *x0 = *y0 = HUGE_VAL;
+  *x1 = *y1 = -HUGE_VAL;
+  for (size_t s = 0; s < p->n_series; s++) {
+    const plot_series *q = &p->series[s];
+    for (size_t i = 0; i < q->n; i++) {
+      if (!isfinite(q->x[i]) || !isfinite(q->y[i])) continue;
+      *x0 = fmin(*x0, q->x[i]);
+      *x1 = fmax(*x1, q->x[i]);
+      *y0 = fmin(*y0, q->y[i]);
+      *y1 = fmax(*y1, q->y[i]);
+    }
+  }
+  if (!(*x1 >= *x0)) {
+    *x0 = 0.0;
+    *x1 = 1.0;
+  }
+  if (!(*y1 >= *y0)) {
+    *y0 = 0.0;
+    *y1 = 1.0;
+  }
+  double dx = *x1 - *x0, dy = *y1 - *y0;
+  if (dx <= 0.0) dx = fabs(*x0) > 0.0 ? 0.1 * fabs(*x0) : 1.0;
+  if (dy <= 0.0) dy = fabs(*y0) > 0.0 ? 0.1 * fabs(*y0) : 1.0;
+  *x0 -= 0.04 * dx;
+  *x1 += 0.04 * dx;
+  *y0 -= 0.06 * dy;
+  *y1 += 0.06 * dy;
+}
+
+static void draw_panel(const plot_panel *p)
+{
+  double x0, x1, y0, y1;
+  data_range(p, &x0, &x1, &y0, &y1);
+  plvsta();
+  plwind(x0, x1, y0, y1);
+  plcol0(15);
+  plwidth(0.5);
+  plbox("g", 0.0, 0, "g", 0.0, 0);
+  plcol0(1);
+  plwidth(1.0);
+  plbox("bcnst", 0.0, 0, "bcnstv", 0.0, 0);
+  pllab(p->xlabel, p->ylabel, p->title);
+  PLINT opt[16], tcol[16], lcol[16], lsty[16], mcol[16], mnum[16];
+  PLFLT lw[16], msc[16];
+  const char *txt[16], *msym[16];
+  int nleg = 0;
+  for (size_t s = 0; s < p->n_series; s++) {
+    const plot_series *q = &p->series[s];
+    int c = 2 + (int)(s % 8);
+    plcol0(c);
+    plwidth(1.6);
+    if (q->marker) {
+      for (size_t i = 0; i < q->n; i++) {
+        if (isfinite(q->x[i]) && isfinite(q->y[i])) {
+          PLFLT xx = q->x[i], yy = q->y[i];
+          plstring(1, &xx, &yy, "#(840)");
+        }
+      }
+    } else {
+      size_t i = 0;
+      while (i < q->n) {
+        while (i < q->n && !(isfinite(q->x[i]) && isfinite(q->y[i]))) i++;
+        size_t j = i;
+        while (j < q->n && isfinite(q->x[j]) && isfinite(q->y[j])) j++;
+        if (j > i + 1) plline((PLINT)(j - i), (PLFLT *)q->x + i, (PLFLT *)q->y + i);
+        i = j;
+      }
+    }
+    if (q->label != NULL && nleg < 16) {
+      opt[nleg] = q->marker ? PL_LEGEND_SYMBOL : PL_LEGEND_LINE;
+      tcol[nleg] = 1;
+      lcol[nleg] = c;
+      lsty[nleg] = 1;
+      lw[nleg] = 1.6;
+      mcol[nleg] = c;
+      mnum[nleg] = 1;
+      msc[nleg] = 1.0;
+      msym[nleg] = "#(840)";
+      txt[nleg] = q->label;
+      nleg++;
+    }
+  }
+  if (nleg > 0) {
+    PLFLT w, h;
+    plwidth(1.0);
+    pllegend(&w, &h, PL_LEGEND_BACKGROUND | PL_LEGEND_BOUNDING_BOX,
+             PL_POSITION_TOP | PL_POSITION_RIGHT | PL_POSITION_INSIDE, 0.01, 0.01, 0.08, 0, 1, 1,
+             0, 0, nleg, opt, 0.8, 0.7, 1.6, 1.0, tcol, txt, NULL, NULL, NULL, NULL, lcol, lsty,
+             lw, mcol, msc, mnum, msym);
+  }
+}
+
+static int render(const char *dev, const char *path, const char *title, int nx, int ny,
+                  const plot_panel *panels, size_t n_panels)
+{
+  PLINT strm, old;
+  plgstrm(&old);
+  plmkstrm(&strm);
+  plsdev(dev);
+  plsfnam(path);
+  plspage(0, 0, 420 * nx + 80, 330 * ny + 90, 0, 0);
+  plscol0(0, 255, 255, 255);
+  plscol0(1, 20, 20, 20);
+  for (int c = 0; c < 8; c++) plscol0(2 + c, palette[c][0], palette[c][1], palette[c][2]);
+  plscol0(15, 215, 215, 215);
+  plinit();
+  plssub(nx, ny);
+  plschr(0.0, 0.85);
+  for (size_t i = 0; i < n_panels; i++) {
+    pladv((PLINT)i + 1);
+    draw_panel(&panels[i]);
+  }
+  if (title != NULL) {
+    pladv(1);
+    plvpor(0.0, 1.0, 0.0, 1.0);
+    plcol0(1);
+  }
+  plend1();
+  plsstrm(old);
+  FILE *f = fopen(path, "rb");
+  if (f == NULL) {
+    cli_error("%s: the plot was not written", path);
+    return 1;
+  }
+  fclose(f);
+  return 0;
+}
+
+int plot_figure(const char *base, const char *title, int nx, int ny, const plot_panel *panels,
+                size_t n_panels)
+{
+  static const char *const dev[2] = {"svgcairo", "pngcairo"};
+  static const char *const ext[2] = {"svg", "png"};
+  for (int k = 0; k < 2; k++) {
+    char tmp[4200], fin[4200];
+    snprintf(fin, sizeof fin, "%s.%s", base, ext[k]);
+    snprintf(tmp, sizeof tmp, "%s.part.%s", base, ext[k]);
+    if (render(dev[k], tmp, title, nx, ny, panels, n_panels) != 0) {
+      remove(tmp);
+      return 1;
+    }
+    if (rename(tmp, fin) != 0) {
+      cli_error("%s: cannot rename the plot into place", fin);
+      remove(tmp);
+      return 1;
+    }
+  }
+  return 0;
+}

@@ -1,0 +1,33 @@
+#!/bin/sh
+# The demo's report renders in a browser: run "airscrew demo" into a fresh folder (with a cache
+# of its own), check its outputs, open report.html in headless Chromium and take a screenshot.
+# usage: render_report.sh AIRSCREW CHROMIUM
+set -u
+exe=$1; browser=$2
+tmp=$(mktemp -d) || exit 1
+trap 'rm -rf "$tmp"' EXIT
+AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
+if ! "$exe" demo --out "$tmp/demo" > "$tmp/out" 2> "$tmp/err"; then
+  echo "FAIL: airscrew demo exited non-zero"; cat "$tmp/err"; exit 1
+fi
+fail=0
+for f in blade.json polars.csv rotor-map.csv hover.json report.html rotor-map.svg rotor-map.png \
+         hover-spanwise.svg hover-spanwise.png polars-blade.svg polars-blade.png; do
+  if [ ! -s "$tmp/demo/$f" ]; then echo "FAIL: $f missing or empty"; fail=1; fi
+done
+grep -q "outputs in" "$tmp/out" || { echo "FAIL: no output listing"; fail=1; }
+grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report lacks the cautions"; fail=1; }
+grep -q "<svg" "$tmp/demo/report.html" || { echo "FAIL: report has no inline figures"; fail=1; }
+# a second run into the same folder is refused without --force and leaves it as it was
+before=$(cksum < "$tmp/demo/report.html")
+if "$exe" demo --out "$tmp/demo" > /dev/null 2>&1; then echo "FAIL: demo overwrote its folder"; fail=1; fi
+[ "$(cksum < "$tmp/demo/report.html")" = "$before" ] || { echo "FAIL: report changed"; fail=1; }
+# headless render; Chromium's own noise on stderr is kept for the log only
+"$browser" --headless --no-sandbox --disable-gpu --hide-scrollbars --window-size=1200,3000 \
+  --screenshot="$tmp/shot.png" "file://$tmp/demo/report.html" > "$tmp/chromium.log" 2>&1
+rc=$?
+if [ $rc -ne 0 ]; then echo "FAIL: chromium exited $rc"; cat "$tmp/chromium.log"; fail=1; fi
+size=$(wc -c < "$tmp/shot.png" 2>/dev/null || echo 0)
+if [ "$size" -lt 20000 ]; then echo "FAIL: screenshot missing or too small ($size bytes)"; fail=1; fi
+[ $fail = 0 ] && echo "report rendered: screenshot $size bytes"
+exit $fail
