@@ -272,6 +272,45 @@ static void test_cli_rotor_json_contract(void **state)
   json_decref(j);
 }
 
+/* Determinism: the same input gives byte-identical output (a polar sweep and a rotor map with
+ * both inflow models, run twice). */
+static char *run_raw(const char *args, size_t *len)
+{
+  char cmd[1024];
+  snprintf(cmd, sizeof cmd, "'%s' %s 2>/dev/null", ASCR_CLI_PATH, args);
+  FILE *p = popen(cmd, "r");
+  assert_non_null(p);
+  char *buf = NULL;
+  FILE *m = open_memstream(&buf, len);
+  char chunk[4096];
+  size_t got;
+  while ((got = fread(chunk, 1, sizeof chunk, p)) > 0) fwrite(chunk, 1, got, m);
+  fclose(m);
+  assert_int_equal(pclose(p), 0);
+  return buf;
+}
+
+static void test_cli_output_is_deterministic(void **state)
+{
+  (void)state;
+  const char *cmds[] = {
+    "polar naca4412 --re 1e5 --alpha -2:6:1 --json",
+    "rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm 7000,9000 --speed 0,10 "
+    "--polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --json",
+    "rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm 7000,9000 --speed 10 "
+    "--inflow vortex --polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --csv"};
+  for (size_t i = 0; i < sizeof cmds / sizeof cmds[0]; i++) {
+    size_t n1 = 0, n2 = 0;
+    char *a = run_raw(cmds[i], &n1);
+    char *b = run_raw(cmds[i], &n2);
+    assert_true(n1 > 100);
+    assert_int_equal(n1, n2);
+    assert_memory_equal(a, b, n1);
+    free(a);
+    free(b);
+  }
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
@@ -282,6 +321,7 @@ int main(void)
     cmocka_unit_test(test_cli_flow_viscous_json_contract),
     cmocka_unit_test(test_cli_polar_json_contract),
     cmocka_unit_test(test_cli_rotor_json_contract),
+    cmocka_unit_test(test_cli_output_is_deterministic),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
