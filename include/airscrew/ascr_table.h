@@ -157,6 +157,11 @@ ASCR_EXPORT ascr_status ascr_table_file_read(const char *path, const char *key_t
                                              ascr_curve_data **curves, size_t *n,
                                              ascr_errbuf *err);
 
+/** As ascr_table_file_read from a text buffer; name labels messages (NULL: "(polar table)"). */
+ASCR_EXPORT ascr_status ascr_table_file_parse(const char *text, size_t len, const char *name,
+                                              const char *key_text, ascr_curve_data **curves,
+                                              size_t *n, ascr_errbuf *err);
+
 /** Build a table from computed curves (wrapper of ascr_polar_table_build). */
 ASCR_EXPORT ascr_status ascr_polar_table_from_curves(const ascr_curve_data *curves, size_t n,
                                                      const ascr_table_options *opt,

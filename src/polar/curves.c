@@ -372,9 +372,52 @@ ascr_status ascr_table_file_read(const char *path, const char *key_text, ascr_cu
   if (f == NULL) {
     return core_fail(err, ASCR_EIO, "%s: cannot open polar-table file", path);
   }
-  json_error_t je;
-  json_t *root = json_loadf(f, JSON_REJECT_DUPLICATES, &je);
+  char *buf = NULL;
+  size_t len = 0;
+  FILE *m = open_memstream(&buf, &len);
+  char chunk[65536];
+  size_t got;
+  int too_big = 0;
+  while (m != NULL && (got = fread(chunk, 1, sizeof chunk, f)) > 0) {
+    fwrite(chunk, 1, got, m);
+    if (len > (64u << 20)) {
+      too_big = 1;
+      break;
+    }
+  }
+  int bad = ferror(f);
   fclose(f);
+  if (m == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
+  }
+  fclose(m);
+  ascr_status st;
+  if (bad) {
+    st = core_fail(err, ASCR_EIO, "%s: read error", path);
+  } else if (too_big) {
+    st = core_fail(err, ASCR_EPARSE, "%s: larger than 64 MiB, not a polar-table file", path);
+  } else {
+    st = ascr_table_file_parse(buf, len, path, key_text, curves, n, err);
+  }
+  free(buf);
+  return st;
+}
+
+ascr_status ascr_table_file_parse(const char *text, size_t len, const char *name,
+                                  const char *key_text, ascr_curve_data **curves, size_t *n,
+                                  ascr_errbuf *err)
+{
+  if ((text == NULL && len > 0) || curves == NULL || n == NULL) {
+    return core_fail(err, ASCR_EINVAL, "polar-table file: bad arguments");
+  }
+  const char *path = name != NULL ? name : "(polar table)";
+  *curves = NULL;
+  *n = 0;
+  if (len > 0 && memchr(text, '\0', len) != NULL) {
+    return core_fail(err, ASCR_EPARSE, "%s: binary data (NUL byte), not a polar-table file", path);
+  }
+  json_error_t je;
+  json_t *root = json_loadb(text != NULL ? text : "", len, JSON_REJECT_DUPLICATES, &je);
   if (root == NULL) {
     return core_fail(err, ASCR_EPARSE, "%s:%d:%d: JSON syntax: %s", path, je.line, je.column, je.text);
   }
