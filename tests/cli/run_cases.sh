@@ -10,6 +10,10 @@ AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
 printf '\000\001\002binary' > "$tmp/binary.dat"
 : > "$tmp/empty.dat"
 echo "keep me" > "$tmp/existing.dat"
+# a blade file cut short, a blade in an unknown unit, and a 5 MiB "blade file"
+head -c 200 "$src/docs/examples/inspection-3in.json" > "$tmp/truncated.json"
+sed 's/"mm"/"furlong"/' "$src/docs/examples/inspection-3in.json" > "$tmp/unit.json"
+head -c 5300000 /dev/zero | tr '\000' ' ' > "$tmp/huge.json"
 pass=0; fail=0
 while IFS= read -r line; do
   case "$line" in ''|'#'*) continue ;; esac
