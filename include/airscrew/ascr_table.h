@@ -148,6 +148,12 @@ ASCR_EXPORT ascr_status ascr_table_file_write(const char *path, const char *sect
                                               const char *key_text, const ascr_curve_data *curves,
                                               size_t n, ascr_errbuf *err);
 
+/** The polar-table file text of curves (as ascr_table_file_write writes it), for callers that do
+ *  their own file handling; *text is allocated (free()). */
+ASCR_EXPORT ascr_status ascr_table_file_format(const char *section_name, const char *key_text,
+                                               const ascr_curve_data *curves, size_t n,
+                                               char **text, size_t *len, ascr_errbuf *err);
+
 /** Read a polar-table file. *curves is allocated (free each with ascr_curve_data_clear, then
  *  free()). If key_text is not NULL the file must carry exactly that key (cache use). The
  *  checksum inside the file is verified: a damaged file is refused, never trusted.

@@ -65,6 +65,17 @@ int cli_output_commit(cli_output *o);
 /* Drop collected output without writing anything. */
 void cli_output_discard(cli_output *o);
 
+/* Write a whole file through a temporary beside it, renamed into place (refused if the target
+ * appeared meanwhile, unless force). Returns 0 or CLI_EXIT_OUTPUT (message printed). */
+int cli_write_atomic(const char *path, const char *buf, size_t len, int force);
+
+/* SIGINT/SIGTERM/SIGHUP: remove the temporary being written (if any) and exit 128 + signal.
+ * Outputs exist only as temporaries until complete, so an interrupted run leaves nothing
+ * partial. cli_temp_begin/_end name the temporary of the moment. */
+void cli_signals_install(void);
+void cli_temp_begin(const char *path);
+void cli_temp_end(void);
+
 /* A JSON number, or null where ok is 0 or v is not finite (results never printed as numbers
  * when they are not results). Caller owns the reference. */
 json_t *cli_json_num(int ok, double v);

@@ -6,6 +6,7 @@
 
 #include <errno.h>
 #include <math.h>
+#include <signal.h>
 #include <stdarg.h>
 #include <stdlib.h>
 #include <string.h>
@@ -153,6 +154,89 @@ void cli_output_discard(cli_output *o)
   o->buf = NULL;
 }
 
+/* ---- temporaries and signals: an interrupted run leaves no temporary file behind ---------- */
+
+static char tmp_path[4200];
+static volatile sig_atomic_t tmp_active = 0;
+
+static void on_signal(int sig)
+{
+  if (tmp_active) unlink(tmp_path); /* async-signal-safe */
+  _exit(128 + sig);
+}
+
+void cli_signals_install(void)
+{
+  struct sigaction sa;
+  memset(&sa, 0, sizeof sa);
+  sa.sa_handler = on_signal;
+  sigemptyset(&sa.sa_mask);
+  sigaction(SIGINT, &sa, NULL);
+  sigaction(SIGTERM, &sa, NULL);
+  sigaction(SIGHUP, &sa, NULL);
+}
+
+void cli_temp_begin(const char *path)
+{
+  tmp_active = 0;
+  snprintf(tmp_path, sizeof tmp_path, "%s", path);
+  tmp_active = 1;
+}
+
+void cli_temp_end(void) { tmp_active = 0; }
+
+int cli_write_atomic(const char *path, const char *buf, size_t len, int force)
+{
+  size_t pl = strlen(path);
+  if (pl + 16 > sizeof tmp_path) {
+    cli_error("%s: path too long", path);
+    return CLI_EXIT_OUTPUT;
+  }
+  char tmp[sizeof tmp_path];
+  memcpy(tmp, path, pl);
+  memcpy(tmp + pl, ".tmp-XXXXXX", 12);
+  int fd = mkstemp(tmp);
+  if (fd < 0) {
+    cli_error("%s: cannot create a temporary file beside it: %s", path, strerror(errno));
+    return CLI_EXIT_OUTPUT;
+  }
+  cli_temp_begin(tmp);
+  int rc = 0;
+  size_t off = 0;
+  while (off < len) {
+    ssize_t w = write(fd, buf + off, len - off);
+    if (w < 0) {
+      if (errno == EINTR) continue;
+      break;
+    }
+    off += (size_t)w;
+  }
+  int ok = off == len && fsync(fd) == 0;
+  if (close(fd) != 0) ok = 0;
+  /* keep the permissions a new file would get (mkstemp makes it 0600) */
+  mode_t um = umask(0);
+  umask(um);
+  if (ok) chmod(tmp, 0666 & ~um);
+  if (!ok) {
+    cli_error("%s: write failed: %s", path, strerror(errno));
+    unlink(tmp);
+    rc = CLI_EXIT_OUTPUT;
+  } else {
+    struct stat sb;
+    if (!force && stat(path, &sb) == 0) {
+      cli_error("%s: appeared while running; not overwritten (add --force)", path);
+      unlink(tmp);
+      rc = CLI_EXIT_OUTPUT;
+    } else if (rename(tmp, path) != 0) {
+      cli_error("%s: cannot move the finished output into place: %s", path, strerror(errno));
+      unlink(tmp);
+      rc = CLI_EXIT_OUTPUT;
+    }
+  }
+  cli_temp_end();
+  return rc;
+}
+
 int cli_output_commit(cli_output *o)
 {
   if (fclose(o->fp) != 0) {
@@ -169,54 +253,7 @@ int cli_output_commit(cli_output *o)
       rc = CLI_EXIT_OUTPUT;
     }
   } else {
-    size_t pl = strlen(o->path);
-    char *tmp = malloc(pl + 16);
-    if (tmp == NULL) {
-      free(o->buf);
-      cli_error("out of memory");
-      return CLI_EXIT_INTERNAL;
-    }
-    memcpy(tmp, o->path, pl);
-    memcpy(tmp + pl, ".tmp-XXXXXX", 12);
-    int fd = mkstemp(tmp);
-    if (fd < 0) {
-      cli_error("%s: cannot create a temporary file beside it: %s", o->path, strerror(errno));
-      rc = CLI_EXIT_OUTPUT;
-    } else {
-      size_t off = 0;
-      while (off < o->len) {
-        ssize_t w = write(fd, o->buf + off, o->len - off);
-        if (w < 0) {
-          if (errno == EINTR) continue;
-          break;
-        }
-        off += (size_t)w;
-      }
-      int ok = off == o->len && fsync(fd) == 0;
-      if (close(fd) != 0) ok = 0;
-      /* keep the permissions a new file would get (mkstemp makes it 0600) */
-      mode_t um = umask(0);
-      umask(um);
-      if (ok) chmod(tmp, 0666 & ~um);
-      if (!ok) {
-        cli_error("%s: write failed: %s", o->path, strerror(errno));
-        unlink(tmp);
-        rc = CLI_EXIT_OUTPUT;
-      } else {
-        struct stat sb;
-        if (!o->force && stat(o->path, &sb) == 0) {
-          cli_error("%s: appeared while running; not overwritten (add --force)", o->path);
-          unlink(tmp);
-          rc = CLI_EXIT_OUTPUT;
-        } else if (rename(tmp, o->path) != 0) {
-          cli_error("%s: cannot move the finished output into place: %s", o->path,
-                    strerror(errno));
-          unlink(tmp);
-          rc = CLI_EXIT_OUTPUT;
-        }
-      }
-    }
-    free(tmp);
+    rc = cli_write_atomic(o->path, o->buf, o->len, o->force);
   }
   free(o->buf);
   o->buf = NULL;

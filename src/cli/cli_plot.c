@@ -155,15 +155,19 @@ int plot_figure(const char *base, const char *title, int nx, int ny, const plot_
     char tmp[4200], fin[4200];
     snprintf(fin, sizeof fin, "%s.%s", base, ext[k]);
     snprintf(tmp, sizeof tmp, "%s.part.%s", base, ext[k]);
+    cli_temp_begin(tmp);
     if (render(dev[k], tmp, title, nx, ny, panels, n_panels) != 0) {
       remove(tmp);
+      cli_temp_end();
       return 1;
     }
     if (rename(tmp, fin) != 0) {
       cli_error("%s: cannot rename the plot into place", fin);
       remove(tmp);
+      cli_temp_end();
       return 1;
     }
+    cli_temp_end();
   }
   return 0;
 }

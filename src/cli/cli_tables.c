@@ -243,10 +243,15 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
       }
       if (!j->from_cache && j->path[0] != '\0') {
         ascr_errbuf err;
-        if (ascr_table_file_write(j->path, b->section_name[j->section], j->key_text, &j->curve, 1,
-                                  &err) != ASCR_OK) {
+        char *text = NULL;
+        size_t len = 0;
+        if (ascr_table_file_format(b->section_name[j->section], j->key_text, &j->curve, 1, &text,
+                                   &len, &err) != ASCR_OK) {
           cli_warn("cache entry not stored: %s", err.msg);
+        } else if (cli_write_atomic(j->path, text, len, 1) != 0) {
+          cli_warn("cache entry not stored (see above); the result is not affected");
         }
+        free(text);
       }
     }
   }

@@ -59,21 +59,9 @@ static const char *const cautions[] = {
 
 static int write_text(const char *dir, const char *name, const char *text, size_t len)
 {
-  char path[4200], tmp[4300];
+  char path[4200];
   snprintf(path, sizeof path, "%s/%s", dir, name);
-  snprintf(tmp, sizeof tmp, "%s.part", path);
-  FILE *f = fopen(tmp, "wb");
-  if (f == NULL || fwrite(text, 1, len, f) != len || fclose(f) != 0) {
-    cli_error("%s: cannot write: %s", path, strerror(errno));
-    remove(tmp);
-    return CLI_EXIT_OUTPUT;
-  }
-  if (rename(tmp, path) != 0) {
-    cli_error("%s: cannot write: %s", path, strerror(errno));
-    remove(tmp);
-    return CLI_EXIT_OUTPUT;
-  }
-  return 0;
+  return cli_write_atomic(path, text, len, 1);
 }
 
 /* memory stream helpers */

@@ -217,10 +217,14 @@ int cmd_polar(int argc, char **argv)
       }
     }
     ascr_errbuf err;
-    if (rc == 0 && ascr_table_file_write(tablepath, name, NULL, cv, nre, &err) != ASCR_OK) {
+    char *text = NULL;
+    size_t tlen = 0;
+    if (rc == 0 && ascr_table_file_format(name, NULL, cv, nre, &text, &tlen, &err) != ASCR_OK) {
       cli_error("%s", err.msg);
-      rc = CLI_EXIT_OUTPUT;
+      rc = CLI_EXIT_INTERNAL;
     }
+    if (rc == 0) rc = cli_write_atomic(tablepath, text, tlen, force);
+    free(text);
     free(cv);
     free(buf);
     free(ok);

@@ -35,6 +35,7 @@ void openblas_set_num_threads(int num_threads);
 int main(int argc, char **argv)
 {
   gsl_set_error_handler_off();
+  cli_signals_install();
   /* the dense systems here are a few hundred unknowns: one thread is faster than several */
   openblas_set_num_threads(1);
   if (argc < 2) {

@@ -265,12 +265,15 @@ static void checksum_of(json_t *curves, char out[32])
   snprintf(out, 32, "fnv1a64:%016llx", (unsigned long long)h);
 }
 
-ascr_status ascr_table_file_write(const char *path, const char *section_name, const char *key_text,
-                                  const ascr_curve_data *curves, size_t n, ascr_errbuf *err)
+ascr_status ascr_table_file_format(const char *section_name, const char *key_text,
+                                   const ascr_curve_data *curves, size_t n, char **text,
+                                   size_t *len, ascr_errbuf *err)
 {
-  if (path == NULL || curves == NULL || n == 0) {
+  if (curves == NULL || n == 0 || text == NULL || len == NULL) {
     return core_fail(err, ASCR_EINVAL, "polar-table file: nothing to write");
   }
+  *text = NULL;
+  *len = 0;
   json_t *root = json_object();
   json_t *cj = curves_to_json(curves, n);
   if (root == NULL || cj == NULL) {
@@ -285,35 +288,66 @@ ascr_status ascr_table_file_write(const char *path, const char *section_name, co
   json_object_set_new(root, "key", key_text != NULL ? json_string(key_text) : json_null());
   json_object_set_new(root, "curves", cj);
   json_object_set_new(root, "checksum", json_string(sum));
+  char *s = json_dumps(root, JSON_INDENT(1) | JSON_REAL_PRECISION(17));
+  json_decref(root);
+  if (s == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "polar-table file: out of memory");
+  }
+  size_t l = strlen(s);
+  char *t = realloc(s, l + 2);
+  if (t == NULL) {
+    free(s);
+    return core_fail(err, ASCR_ENOMEM, "polar-table file: out of memory");
+  }
+  t[l] = '\n';
+  t[l + 1] = '\0';
+  *text = t;
+  *len = l + 1;
+  return ASCR_OK;
+}
+
+ascr_status ascr_table_file_write(const char *path, const char *section_name, const char *key_text,
+                                  const ascr_curve_data *curves, size_t n, ascr_errbuf *err)
+{
+  if (path == NULL) {
+    return core_fail(err, ASCR_EINVAL, "polar-table file: no path");
+  }
+  char *text = NULL;
+  size_t len = 0;
+  ascr_status st = ascr_table_file_format(section_name, key_text, curves, n, &text, &len, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
   size_t pl = strlen(path);
   char *tmp = malloc(pl + 8);
   if (tmp == NULL) {
-    json_decref(root);
+    free(text);
     return core_fail(err, ASCR_ENOMEM, "polar-table file: out of memory");
   }
   snprintf(tmp, pl + 8, "%s.XXXXXX", path);
   int fd = mkstemp(tmp);
-  ascr_status st = ASCR_OK;
   if (fd < 0) {
     st = core_fail(err, ASCR_EIO, "%s: cannot create a temporary file: %s", path, strerror(errno));
   } else {
     fchmod(fd, 0644); /* mkstemp makes 0600; a table is an ordinary output file */
-    FILE *f = fdopen(fd, "w");
-    int bad = f == NULL;
-    if (!bad) {
-      bad = json_dumpf(root, f, JSON_INDENT(1) | JSON_REAL_PRECISION(17)) != 0;
-      bad |= fputc('\n', f) == EOF;
-      bad |= fclose(f) != 0;
-    } else {
-      close(fd);
+    size_t off = 0;
+    while (off < len) {
+      ssize_t w = write(fd, text + off, len - off);
+      if (w < 0) {
+        if (errno == EINTR) continue;
+        break;
+      }
+      off += (size_t)w;
     }
+    int bad = off != len;
+    bad |= close(fd) != 0;
     if (bad || rename(tmp, path) != 0) {
       st = core_fail(err, ASCR_EIO, "%s: cannot write: %s", path, strerror(errno));
       remove(tmp);
     }
   }
   free(tmp);
-  json_decref(root);
+  free(text);
   return st;
 }
 
