@@ -278,6 +278,18 @@ ascr_status geom_build(const double *x, const double *y, const long *line, size_
                    src);
     goto done;
   }
+  /* ---- a wing section lies within half a chord of its chord line (the thickest sections in
+   * use are near 40 % thick) and between its nose and tail: a far-off point is a typo or a
+   * stray number (and would make the arc length lose its precision) */
+  for (size_t i = 0; i < m; i++) {
+    if (!(fabs(cy[i]) <= 0.5) || !(cx[i] >= -0.1 && cx[i] <= 1.1)) {
+      st = core_fail(err, ASCR_EGEOM,
+                     "%s:%ld: point lies at (%.4g, %.4g) chords from the nose, far outside a wing "
+                     "section (within 0.5 chord of the chord line expected)",
+                     src, cl[i], cx[i], cy[i]);
+      goto done;
+    }
+  }
   /* ---- surfaces must run forward from the nose */
   st = geom_check_monotone(cx, cl, m, ile, src, err);
   if (st != ASCR_OK) {

@@ -27,9 +27,11 @@ ascr_status geom_spline_init(geom_spline *sp, const double *x, const double *y, 
   sp->s[0] = 0.0;
   for (size_t i = 1; i < n; i++) {
     double ds = hypot(x[i] - x[i - 1], y[i] - y[i - 1]);
-    if (!(ds > 0.0)) {
+    if (!(ds > 0.0) || !isfinite(ds) || !(sp->s[i - 1] + ds > sp->s[i - 1])) {
+      /* coincident, or so close that the arc length cannot tell them apart: GSL would abort */
       geom_spline_free(sp);
-      return core_fail(err, ASCR_EGEOM, "spline: nodes %zu and %zu coincide", i - 1, i);
+      return core_fail(err, ASCR_EGEOM, "spline: nodes %zu and %zu coincide to working precision",
+                       i - 1, i);
     }
     sp->s[i] = sp->s[i - 1] + ds;
   }
