@@ -130,7 +130,13 @@ static double residual(double phi, void *ctx)
   }
   e->a = fabs(inv1pa) > 1e-12 ? 1.0 / inv1pa - 1.0 : HUGE_VAL;
   e->ap = kp / (1.0 + kp);
-  return sp * inv1pa - (e->vx / e->vy) * cp * (1.0 + kp);
+  double r = sp * inv1pa - (e->vx / e->vy) * cp * (1.0 + kp);
+  /* GSL's solvers call the error handler (abort by default) on a non-finite value: the library
+   * must not depend on its caller switching that off, so the residual stays finite */
+  if (!isfinite(r)) {
+    r = r < 0.0 ? -1e300 : 1e300;
+  }
+  return r;
 }
 
 /* Find a bracket in (lo, hi) by scanning n sub-intervals from lo towards hi. */
@@ -140,7 +146,7 @@ static int scan(elem_ctx *e, double lo, double hi, int n, double *x0, double *x1
   for (int i = 1; i <= n; i++) {
     double x = lo + (hi - lo) * i / n;
     double fx = residual(x, e);
-    if (isfinite(fl) && isfinite(fx) && ((fl <= 0.0 && fx >= 0.0) || (fl >= 0.0 && fx <= 0.0))) {
+    if (fabs(fl) < 1e299 && fabs(fx) < 1e299 && ((fl <= 0.0 && fx >= 0.0) || (fl >= 0.0 && fx <= 0.0))) {
       *x0 = lo + (hi - lo) * (i - 1) / n;
       *x1 = x;
       return 1;
@@ -161,7 +167,7 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
     /* a later pass (Re and Mach updated): the root moves little; a narrow bracket first */
     double a = *phi - 0.01, b = *phi + 0.01;
     double fa = residual(a, e), fb = residual(b, e);
-    if (isfinite(fa) && isfinite(fb) && fa * fb <= 0.0 && (a > 0.0) == (*phi > 0.0)) {
+    if (fabs(fa) < 1e299 && fabs(fb) < 1e299 && fa * fb <= 0.0 && (a > 0.0) == (*phi > 0.0)) {
       lo = a;
       hi = b;
       found = 1;
@@ -169,7 +175,7 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
   }
   if (!found) {
     double f0 = residual(eps, e), f1 = residual(0.5 * ASCR_PI, e);
-    if (isfinite(f0) && isfinite(f1) && f0 < 0.0 && f1 > 0.0) {
+    if (fabs(f0) < 1e299 && fabs(f1) < 1e299 && f0 < 0.0 && f1 > 0.0) {
       lo = eps;
       hi = 0.5 * ASCR_PI;
       found = 1;
@@ -198,7 +204,7 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
     if (gsl_root_test_interval(x0, x1, 1e-11, 0.0) == GSL_SUCCESS) {
       *phi = gsl_root_fsolver_root(s);
       double rr = residual(*phi, e); /* leaves the element state at the root */
-      return isfinite(rr);
+      return fabs(rr) < 1e299;
     }
   }
   return 0;
@@ -254,8 +260,6 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   if (solver == NULL) {
     return core_fail(err, ASCR_ENOMEM, "rotor: out of memory");
   }
-  gsl_error_handler_t *old = gsl_set_error_handler_off();
-
   memset(res, 0, sizeof *res);
   double omega = rpm * 2.0 * ASCR_PI / 60.0;
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
@@ -333,7 +337,6 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
       o->re_outside = e.smp.re_outside;
     }
   }
-  gsl_set_error_handler(old);
   gsl_root_fsolver_free(solver);
 
   double n = rpm / 60.0, d = 2.0 * b->r_tip_m, rho = p.density_kg_m3;
@@ -426,7 +429,9 @@ static double trim_fn(double rpm, void *ctx)
   ascr_rotor_result r;
   t->st = ascr_rotor_point(t->b, t->tables, t->p, t->model, t->vp, rpm, t->v, &r, NULL, t->err);
   t->converged &= t->st == ASCR_OK && r.converged;
-  return t->st == ASCR_OK ? r.thrust_N - t->target : GSL_NAN;
+  /* a failed evaluation returns 0 (finite, so GSL does not call its error handler); the flags
+   * above make the caller report it */
+  return t->st == ASCR_OK && r.converged ? r.thrust_N - t->target : 0.0;
 }
 
 ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b, const ascr_polar_table *const *tables,
@@ -467,7 +472,6 @@ ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b, const ascr_polar_tabl
   if (s == NULL) {
     return core_fail(err, ASCR_ENOMEM, "rpm for thrust: out of memory");
   }
-  gsl_error_handler_t *old = gsl_set_error_handler_off();
   double rpm = NAN;
   if (gsl_root_fsolver_set(s, &fn, rpm_lo, rpm_hi) == GSL_SUCCESS) {
     for (int it = 0; it < 100 && tc.st == ASCR_OK && tc.converged; it++) {
@@ -481,7 +485,6 @@ ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b, const ascr_polar_tabl
       }
     }
   }
-  gsl_set_error_handler(old);
   gsl_root_fsolver_free(s);
   if (tc.st != ASCR_OK) {
     return tc.st;
