@@ -3,7 +3,11 @@
  */
 #define _GNU_SOURCE
 #include "cli.h"
+#include "cli_plot.h"
 #include "commands.h"
+
+#include <errno.h>
+#include <sys/stat.h>
 
 #include <getopt.h>
 #include <jansson.h>
@@ -31,6 +35,8 @@ static void polar_help(FILE *fp)
         "  -p, --panels N         panels on the contour (default 160)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
+        "      --plot DIR         also draw the polars (cl-alpha, drag polar, cm-alpha, L/D;\n"
+        "                         every Re and Mach on one figure) as DIR/polar.svg and .png\n"
         "      --table FILE       also write the polars as a polar-table file (for rotor\n"
         "                         --polar-table; Mach 0 curves only)\n"
         "      --force            replace FILE if it exists\n"
@@ -59,7 +65,7 @@ int cmd_polar(int argc, char **argv)
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
-    {"table", required_argument, NULL, 'B'},
+    {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
     {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -68,7 +74,7 @@ int cmd_polar(int argc, char **argv)
   double a0 = NAN, a1 = NAN, da = NAN;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int json = 0, csv = 0, force = 0, c;
-  const char *outpath = NULL, *tablepath = NULL;
+  const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
   opterr = 0;
   optind = 1;
   while ((c = getopt_long(argc, argv, ":r:a:m:p:o:h", opts, NULL)) != -1) {
@@ -92,6 +98,7 @@ int cmd_polar(int argc, char **argv)
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
     case 'B': tablepath = optarg; break;
+    case 'P': plotdir = optarg; break;
     case 'F': force = 1; break;
     case 'h': polar_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("polar: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -113,6 +120,19 @@ int cmd_polar(int argc, char **argv)
   if (json && csv) {
     cli_error("polar: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
+  }
+  if (plotdir != NULL) {
+    struct stat sb;
+    if (stat(plotdir, &sb) != 0 && mkdir(plotdir, 0755) != 0) {
+      cli_error("--plot: cannot create folder %s: %s", plotdir, strerror(errno));
+      return CLI_EXIT_OUTPUT;
+    }
+    char probe_path[4200];
+    snprintf(probe_path, sizeof probe_path, "%s/polar.svg", plotdir);
+    if (!force && stat(probe_path, &sb) == 0) {
+      cli_error("%s: exists; not overwritten (add --force to replace it)", probe_path);
+      return CLI_EXIT_OUTPUT;
+    }
   }
   if (tablepath != NULL) {
     cli_output probe;
@@ -332,6 +352,54 @@ int cmd_polar(int argc, char **argv)
       }
     }
     fprintf(fp, "\nnote: %s\n", CLI_ESTIMATE_NOTE);
+  }
+  if (plotdir != NULL) {
+    size_t nk = nre * nmach;
+    plot_series *sr = calloc(4 * nk, sizeof *sr);
+    double *buf = calloc(5 * npts * nk, sizeof *buf);
+    char (*lab)[64] = calloc(nk, sizeof *lab);
+    if (sr == NULL || buf == NULL || lab == NULL) {
+      cli_error("out of memory");
+      rc = CLI_EXIT_INTERNAL;
+    }
+    for (size_t k = 0; rc == 0 && k < nk; k++) {
+      double *al = buf + (5 * k) * npts, *l = al + npts, *d = l + npts, *m = d + npts, *ld = m + npts;
+      for (size_t i = 0; i < npts; i++) {
+        const ascr_polar_point *q = &pts[k * npts + i];
+        al[i] = q->alpha_deg;
+        l[i] = q->converged ? q->cl : NAN;
+        d[i] = q->converged ? q->cd : NAN;
+        m[i] = q->converged ? q->cm : NAN;
+        ld[i] = q->converged ? q->cl / q->cd : NAN;
+      }
+      ascr_visc_params vp = cli_visc_params(&vo, res[k % nre], machs[k / nre]);
+      snprintf(lab[k], sizeof lab[k], "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
+               machs[k / nre], vp.ncrit);
+      sr[k] = (plot_series){lab[k], npts, al, l, 0};
+      sr[nk + k] = (plot_series){NULL, npts, l, d, 0};
+      sr[2 * nk + k] = (plot_series){NULL, npts, al, m, 0};
+      sr[3 * nk + k] = (plot_series){NULL, npts, al, ld, 0};
+    }
+    if (rc == 0) {
+      char t0[200], base[4200];
+      snprintf(t0, sizeof t0, "lift, %s", name);
+      plot_panel pan[4] = {{t0, "angle of attack #ga (deg)", "lift coefficient c#dl#u", sr, nk},
+                           {"drag polar", "lift coefficient c#dl#u", "drag coefficient c#dd#u", sr + nk, nk},
+                           {"pitching moment", "angle of attack #ga (deg)", "c#dm#u (quarter chord)", sr + 2 * nk, nk},
+                           {"lift-to-drag ratio", "angle of attack #ga (deg)", "c#dl#u / c#dd#u", sr + 3 * nk, nk}};
+      snprintf(base, sizeof base, "%s/polar", plotdir);
+      if (plot_figure(base, NULL, 2, 2, pan, 4) != 0) rc = CLI_EXIT_OUTPUT;
+    }
+    free(sr);
+    free(buf);
+    free(lab);
+    if (rc != 0) {
+      free(pts);
+      free(sums);
+      cli_analysis_close(&an);
+      cli_output_discard(&out);
+      return rc;
+    }
   }
   free(pts);
   free(sums);
