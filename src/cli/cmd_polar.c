@@ -3,11 +3,9 @@
  */
 #define _GNU_SOURCE
 #include "cli.h"
-#include "cli_plot.h"
+#include "cli_figures.h"
 #include "commands.h"
 
-#include <errno.h>
-#include <sys/stat.h>
 
 #include <getopt.h>
 #include <jansson.h>
@@ -122,17 +120,8 @@ int cmd_polar(int argc, char **argv)
     return CLI_EXIT_USAGE;
   }
   if (plotdir != NULL) {
-    struct stat sb;
-    if (stat(plotdir, &sb) != 0 && mkdir(plotdir, 0755) != 0) {
-      cli_error("--plot: cannot create folder %s: %s", plotdir, strerror(errno));
-      return CLI_EXIT_OUTPUT;
-    }
-    char probe_path[4200];
-    snprintf(probe_path, sizeof probe_path, "%s/polar.svg", plotdir);
-    if (!force && stat(probe_path, &sb) == 0) {
-      cli_error("%s: exists; not overwritten (add --force to replace it)", probe_path);
-      return CLI_EXIT_OUTPUT;
-    }
+    int prc = fig_prepare_dir(plotdir, "polar", force);
+    if (prc) return prc;
   }
   if (tablepath != NULL) {
     cli_output probe;
@@ -355,44 +344,33 @@ int cmd_polar(int argc, char **argv)
   }
   if (plotdir != NULL) {
     size_t nk = nre * nmach;
-    plot_series *sr = calloc(4 * nk, sizeof *sr);
-    double *buf = calloc(5 * npts * nk, sizeof *buf);
-    char (*lab)[64] = calloc(nk, sizeof *lab);
-    if (sr == NULL || buf == NULL || lab == NULL) {
+    fig_polar *fp2 = calloc(nk, sizeof *fp2);
+    double *buf = calloc(4 * npts * nk + 1, sizeof *buf);
+    if (fp2 == NULL || buf == NULL) {
       cli_error("out of memory");
       rc = CLI_EXIT_INTERNAL;
     }
     for (size_t k = 0; rc == 0 && k < nk; k++) {
-      double *al = buf + (5 * k) * npts, *l = al + npts, *d = l + npts, *m = d + npts, *ld = m + npts;
+      fig_polar *f = &fp2[k];
+      f->n = npts;
+      f->alpha = buf + (4 * k) * npts;
+      f->cl = f->alpha + npts;
+      f->cd = f->cl + npts;
+      f->cm = f->cd + npts;
       for (size_t i = 0; i < npts; i++) {
         const ascr_polar_point *q = &pts[k * npts + i];
-        al[i] = q->alpha_deg;
-        l[i] = q->converged ? q->cl : NAN;
-        d[i] = q->converged ? q->cd : NAN;
-        m[i] = q->converged ? q->cm : NAN;
-        ld[i] = q->converged ? q->cl / q->cd : NAN;
+        f->alpha[i] = q->alpha_deg;
+        f->cl[i] = q->converged ? q->cl : NAN;
+        f->cd[i] = q->converged ? q->cd : NAN;
+        f->cm[i] = q->converged ? q->cm : NAN;
       }
       ascr_visc_params vp = cli_visc_params(&vo, res[k % nre], machs[k / nre]);
-      snprintf(lab[k], sizeof lab[k], "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
+      snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
                machs[k / nre], vp.ncrit);
-      sr[k] = (plot_series){lab[k], npts, al, l, 0};
-      sr[nk + k] = (plot_series){NULL, npts, l, d, 0};
-      sr[2 * nk + k] = (plot_series){NULL, npts, al, m, 0};
-      sr[3 * nk + k] = (plot_series){NULL, npts, al, ld, 0};
     }
-    if (rc == 0) {
-      char t0[200], base[4200];
-      snprintf(t0, sizeof t0, "lift, %s", name);
-      plot_panel pan[4] = {{t0, "angle of attack #ga (deg)", "lift coefficient c#dl#u", sr, nk},
-                           {"drag polar", "lift coefficient c#dl#u", "drag coefficient c#dd#u", sr + nk, nk},
-                           {"pitching moment", "angle of attack #ga (deg)", "c#dm#u (quarter chord)", sr + 2 * nk, nk},
-                           {"lift-to-drag ratio", "angle of attack #ga (deg)", "c#dl#u / c#dd#u", sr + 3 * nk, nk}};
-      snprintf(base, sizeof base, "%s/polar", plotdir);
-      if (plot_figure(base, NULL, 2, 2, pan, 4) != 0) rc = CLI_EXIT_OUTPUT;
-    }
-    free(sr);
+    if (rc == 0) rc = fig_polars(plotdir, name, fp2, nk);
+    free(fp2);
     free(buf);
-    free(lab);
     if (rc != 0) {
       free(pts);
       free(sums);

@@ -4,6 +4,7 @@
  */
 #define _GNU_SOURCE
 #include "cli.h"
+#include "cli_figures.h"
 #include "cli_tables.h"
 #include "commands.h"
 
@@ -53,6 +54,8 @@ static void rotor_help(FILE *fp)
         "  -e, --elements N        blade elements (default 40)\n"
         "output:\n"
         "      --stations          print the spanwise distributions in the table output\n"
+        "      --plot DIR          also draw CT, CP, efficiency against J, thrust against rpm and\n"
+        "                          the spanwise loading (DIR/rotor*.svg and .png)\n"
         "      --json, --csv       machine-readable output (JSON carries the distributions)\n"
         "  -o, --output FILE       write to FILE (whole or not at all)\n"
         "      --force             replace FILE if it exists\n"
@@ -169,6 +172,7 @@ int cmd_rotor(int argc, char **argv)
     {"elements", required_argument, NULL, 'e'},     {"stations", no_argument, NULL, 's'},
     {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
+    {"plot", required_argument, NULL, 'G'},
     {"help", no_argument, NULL, 'h'},               {NULL, 0, NULL, 0}};
   double rpms[ROTOR_MAX_VALUES], speeds[ROTOR_MAX_VALUES] = {0.0};
   size_t nrpm = 0, nspeed = 1;
@@ -178,7 +182,7 @@ int cmd_rotor(int argc, char **argv)
   cli_table_opts to;
   cli_table_opts_init(&to);
   int no_cache = 0, stations = 0, json = 0, csv = 0, force = 0, c;
-  const char *cache_dir = NULL, *outpath = NULL;
+  const char *cache_dir = NULL, *outpath = NULL, *plotdir = NULL;
   ascr_rotor_params rp = ascr_rotor_params_defaults();
   opterr = 0;
   optind = 1;
@@ -222,6 +226,7 @@ int cmd_rotor(int argc, char **argv)
     case 'X': no_cache = 1; break;
     case 'e': if (cli_parse_size("--elements", optarg, 8, 400, &rp.n_elements)) return CLI_EXIT_USAGE; break;
     case 's': stations = 1; break;
+    case 'G': plotdir = optarg; break;
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
@@ -270,6 +275,10 @@ int cmd_rotor(int argc, char **argv)
   if (!isnan(sound)) rp.sound_speed_m_s = sound;
   to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
 
+  if (plotdir != NULL) {
+    int prc = fig_prepare_dir(plotdir, "rotor", force);
+    if (prc) return prc;
+  }
   cli_output out;
   int rc = cli_output_open(&out, outpath, force);
   if (rc) return rc;
@@ -355,6 +364,46 @@ int cmd_rotor(int argc, char **argv)
 
   FILE *fp = out.fp;
   const char *bname = blade->name != NULL ? blade->name : argv[optind];
+  if (plotdir != NULL) {
+    fig_rotor_point *fr = calloc(npt, sizeof *fr);
+    double *sb = calloc(2 * npt * rp.n_elements + 1, sizeof *sb);
+    if (fr == NULL || sb == NULL) {
+      cli_error("out of memory");
+      rc = CLI_EXIT_INTERNAL;
+    }
+    for (size_t k = 0; rc == 0 && k < npt; k++) {
+      const rotor_point *pt = &pts[k];
+      int ok = pt->solved && pt->r.converged;
+      fr[k].rpm = pt->r.rpm;
+      fr[k].speed = pt->r.speed_m_s;
+      fr[k].J = ok ? pt->r.J : NAN;
+      fr[k].CT = ok ? pt->r.CT : NAN;
+      fr[k].CP = ok ? pt->r.CP : NAN;
+      fr[k].eta = ok ? pt->r.efficiency : NAN;
+      fr[k].thrust = ok ? pt->r.thrust_N : NAN;
+      fr[k].power = ok ? pt->r.power_W : NAN;
+      if (ok) {
+        fr[k].ns = rp.n_elements;
+        fr[k].r_over_R = sb + 2 * k * rp.n_elements;
+        fr[k].dT_dr = fr[k].r_over_R + rp.n_elements;
+        for (size_t i = 0; i < rp.n_elements; i++) {
+          fr[k].r_over_R[i] = pt->el[i].r_m / blade->r_tip_m;
+          fr[k].dT_dr[i] = pt->el[i].dT_dr_N_m;
+        }
+      }
+    }
+    if (rc == 0) rc = fig_rotor(plotdir, bname, fr, npt);
+    free(fr);
+    free(sb);
+    if (rc != 0) {
+      free(pts);
+      free(els);
+      cli_tables_free(&tabs);
+      ascr_blade_free(blade);
+      cli_output_discard(&out);
+      return rc;
+    }
+  }
   if (json) {
     json_t *o = json_object();
     json_object_set_new(o, "blade", json_string(bname));

@@ -19,6 +19,7 @@ static void main_help(FILE *fp)
         "  polar     viscous polars over angle of attack for several Reynolds numbers\n"
         "  rotor     propeller thrust, torque, power and efficiency from a blade file\n"
         "  cache     show or clear the cache of computed section polars\n"
+        "  plot      draw the figures of a saved polar or rotor result (JSON)\n"
         "  demo      built-in demonstration on sample sections\n"
         "\n"
         "  airscrew COMMAND --help    options of a command\n"
@@ -64,10 +65,11 @@ int main(int argc, char **argv)
   if (strcmp(cmd, "polar") == 0) return cmd_polar(argc - 1, argv + 1);
   if (strcmp(cmd, "rotor") == 0) return cmd_rotor(argc - 1, argv + 1);
   if (strcmp(cmd, "cache") == 0) return cmd_cache(argc - 1, argv + 1);
+  if (strcmp(cmd, "plot") == 0) return cmd_plot(argc - 1, argv + 1);
   if (cmd[0] == '-') {
     cli_error("unknown option '%s' (see airscrew --help)", cmd);
   } else {
-    cli_error("unknown command '%s' (commands: section, flow, polar, rotor, cache, demo; see airscrew --help)", cmd);
+    cli_error("unknown command '%s' (commands: section, flow, polar, rotor, cache, plot, demo; see airscrew --help)", cmd);
   }
   return CLI_EXIT_USAGE;
 }

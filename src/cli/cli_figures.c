@@ -1,0 +1,171 @@
+/* src/cli/cli_figures.c
+ * The standard figures of the CLI (see cli_figures.h), through cli_plot.
+ */
+#define _POSIX_C_SOURCE 200809L
+#include "cli_figures.h"
+#include "cli.h"
+#include "cli_plot.h"
+
+#include <errno.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+
+int fig_prepare_dir(const char *dir, const char *name, int force)
+{
+  struct stat sb;
+  if (stat(dir, &sb) != 0) {
+    if (mkdir(dir, 0755) != 0) {
+      cli_error("cannot create the plot folder %s: %s", dir, strerror(errno));
+      return CLI_EXIT_OUTPUT;
+    }
+  } else if (!S_ISDIR(sb.st_mode)) {
+    cli_error("%s: exists and is not a folder", dir);
+    return CLI_EXIT_OUTPUT;
+  }
+  char path[4200];
+  snprintf(path, sizeof path, "%s/%s.svg", dir, name);
+  if (!force && stat(path, &sb) == 0) {
+    cli_error("%s: exists; not overwritten (add --force to replace it)", path);
+    return CLI_EXIT_OUTPUT;
+  }
+  return 0;
+}
+
+int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np)
+{
+  plot_series *sr = calloc(4 * np + 1, sizeof *sr);
+  double **ld = calloc(np + 1, sizeof *ld);
+  int rc = sr == NULL || ld == NULL;
+  for (size_t k = 0; rc == 0 && k < np; k++) {
+    ld[k] = calloc(p[k].n + 1, sizeof **ld);
+    if (ld[k] == NULL) {
+      rc = 1;
+      break;
+    }
+    for (size_t i = 0; i < p[k].n; i++) ld[k][i] = p[k].cl[i] / p[k].cd[i];
+    sr[k] = (plot_series){p[k].label, p[k].n, p[k].alpha, p[k].cl, 0};
+    sr[np + k] = (plot_series){NULL, p[k].n, p[k].cl, p[k].cd, 0};
+    sr[2 * np + k] = (plot_series){NULL, p[k].n, p[k].alpha, p[k].cm, 0};
+    sr[3 * np + k] = (plot_series){NULL, p[k].n, p[k].alpha, ld[k], 0};
+  }
+  if (rc == 0) {
+    char t0[200], base[4200];
+    snprintf(t0, sizeof t0, "lift, %s", section);
+    plot_panel pan[4] = {{t0, "angle of attack #ga (deg)", "lift coefficient c#dl#u", sr, np},
+                         {"drag polar", "lift coefficient c#dl#u", "drag coefficient c#dd#u", sr + np, np},
+                         {"pitching moment", "angle of attack #ga (deg)", "c#dm#u (quarter chord)", sr + 2 * np, np},
+                         {"lift-to-drag ratio", "angle of attack #ga (deg)", "c#dl#u / c#dd#u", sr + 3 * np, np}};
+    snprintf(base, sizeof base, "%s/polar", dir);
+    rc = plot_figure(base, NULL, 2, 2, pan, 4);
+  } else {
+    cli_error("out of memory");
+  }
+  for (size_t k = 0; ld != NULL && k < np; k++) free(ld[k]);
+  free(ld);
+  free(sr);
+  return rc ? CLI_EXIT_OUTPUT : 0;
+}
+
+/* distinct values of v (at most max), ascending */
+static size_t distinct(const fig_rotor_point *p, size_t np, int which, double *out, size_t max)
+{
+  size_t n = 0;
+  for (size_t i = 0; i < np; i++) {
+    double v = which ? p[i].speed : p[i].rpm;
+    if (!isfinite(v)) continue;
+    size_t k = 0;
+    while (k < n && fabs(out[k] - v) > 1e-9 * (1.0 + fabs(v))) k++;
+    if (k == n && n < max) out[n++] = v;
+  }
+  for (size_t i = 1; i < n; i++) {
+    for (size_t j = i; j > 0 && out[j] < out[j - 1]; j--) {
+      double t = out[j];
+      out[j] = out[j - 1];
+      out[j - 1] = t;
+    }
+  }
+  return n;
+}
+
+int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np)
+{
+  enum { MAXG = 12 };
+  double rpms[MAXG], spds[MAXG];
+  size_t nr = distinct(p, np, 0, rpms, MAXG), nv = distinct(p, np, 1, spds, MAXG);
+  double *buf = calloc(7 * np + 1, sizeof *buf);
+  plot_series *sr = calloc(3 * MAXG + 2 * MAXG + 1, sizeof *sr);
+  char (*lab)[48] = calloc(2 * MAXG, sizeof *lab);
+  if (buf == NULL || sr == NULL || lab == NULL) {
+    free(buf);
+    free(sr);
+    free(lab);
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  /* by rpm: J, CT, CP, eta ordered by speed; by speed: rpm, thrust ordered by rpm */
+  double *J = buf, *CT = buf + np, *CP = buf + 2 * np, *ET = buf + 3 * np;
+  double *RP = buf + 4 * np, *TH = buf + 5 * np;
+  size_t off = 0;
+  for (size_t g = 0; g < nr; g++) {
+    size_t start = off;
+    for (size_t v = 0; v < nv; v++) {
+      for (size_t i = 0; i < np; i++) {
+        if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
+          J[off] = p[i].J;
+          CT[off] = p[i].CT;
+          CP[off] = p[i].CP;
+          ET[off] = p[i].eta;
+          off++;
+        }
+      }
+    }
+    snprintf(lab[g], sizeof lab[g], "%.0f rpm", rpms[g]);
+    sr[g] = (plot_series){lab[g], off - start, J + start, CT + start, off - start < 2};
+    sr[MAXG + g] = (plot_series){NULL, off - start, J + start, CP + start, off - start < 2};
+    sr[2 * MAXG + g] = (plot_series){NULL, off - start, J + start, ET + start, off - start < 2};
+  }
+  off = 0;
+  for (size_t v = 0; v < nv; v++) {
+    size_t start = off;
+    for (size_t g = 0; g < nr; g++) {
+      for (size_t i = 0; i < np; i++) {
+        if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
+          RP[off] = p[i].rpm;
+          TH[off] = p[i].thrust;
+          off++;
+        }
+      }
+    }
+    snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "%.3g m/s", spds[v]);
+    sr[3 * MAXG + v] = (plot_series){lab[MAXG + v], off - start, RP + start, TH + start, off - start < 2};
+  }
+  char t0[160], base[4200];
+  snprintf(t0, sizeof t0, "thrust coefficient, %.28s", blade);
+  plot_panel pan[4] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
+                       {"power coefficient", "advance ratio J", "C#dP#u = P/(#gr n#u3#d D#u5#d)", sr + MAXG, nr},
+                       {"efficiency", "advance ratio J", "#gy = T V / P", sr + 2 * MAXG, nr},
+                       {"thrust", "shaft speed (rpm)", "thrust (N)", sr + 3 * MAXG, nv}};
+  snprintf(base, sizeof base, "%s/rotor", dir);
+  int rc = plot_figure(base, NULL, 2, 2, pan, 4);
+  /* spanwise loading of up to eight points with stations */
+  plot_series ss[8];
+  char sl[8][48];
+  size_t ns = 0;
+  for (size_t i = 0; rc == 0 && i < np && ns < 8; i++) {
+    if (p[i].ns == 0 || p[i].r_over_R == NULL || !isfinite(p[i].thrust)) continue;
+    snprintf(sl[ns], sizeof sl[ns], "%.0f rpm, %.3g m/s", p[i].rpm, p[i].speed);
+    ss[ns] = (plot_series){sl[ns], p[i].ns, p[i].r_over_R, p[i].dT_dr, 0};
+    ns++;
+  }
+  if (rc == 0 && ns > 0) {
+    plot_panel sp[1] = {{"spanwise thrust loading", "r/R", "dT/dr, all blades (N/m)", ss, ns}};
+    snprintf(base, sizeof base, "%s/rotor-spanwise", dir);
+    rc = plot_figure(base, NULL, 1, 1, sp, 1);
+  }
+  free(buf);
+  free(sr);
+  free(lab);
+  return rc ? CLI_EXIT_OUTPUT : 0;
+}

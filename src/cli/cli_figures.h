@@ -1,0 +1,35 @@
+/* src/cli/cli_figures.h
+ * The standard figures of the CLI, drawn from plain arrays (so that an analysis command and the
+ * plot command, which reads a saved JSON result, draw the same pictures).
+ */
+#ifndef ASCR_CLI_FIGURES_H
+#define ASCR_CLI_FIGURES_H
+
+#include <stddef.h>
+
+/* one polar: NaN where a point did not converge */
+typedef struct fig_polar {
+  char label[96];
+  size_t n;
+  double *alpha, *cl, *cd, *cm;
+} fig_polar;
+
+/* Polars of one section: DIR/polar.svg and .png (cl-alpha, drag polar, cm-alpha, L/D). */
+int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np);
+
+/* one rotor operating point (numbers NaN where not converged); stations optional */
+typedef struct fig_rotor_point {
+  double rpm, speed, J, CT, CP, eta, thrust, power;
+  size_t ns;
+  double *r_over_R, *dT_dr; /* ns entries or NULL */
+} fig_rotor_point;
+
+/* Rotor results: DIR/rotor.svg and .png (CT, CP, efficiency against J by rpm; thrust against
+ * rpm by speed) and, when stations are given, DIR/rotor-spanwise.svg/.png (dT/dr of up to eight
+ * points). */
+int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np);
+
+/* Create DIR if needed and refuse to replace DIR/<name>.svg unless force; 0 or an exit code. */
+int fig_prepare_dir(const char *dir, const char *name, int force);
+
+#endif
