@@ -11,11 +11,12 @@ AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
 OPENBLAS_NUM_THREADS=1; export OPENBLAS_NUM_THREADS
 "$exe" demo --out "$tmp/warmup" > /dev/null 2>&1 || { echo "FAIL: demo (warm-up) failed"; exit 1; }
 "$vg" --error-exitcode=9 --leak-check=full --errors-for-leak-kinds=definite \
+  --suppressions="$(dirname "$0")/valgrind.supp" \
   --show-leak-kinds=definite -q "$exe" demo --out "$tmp/checked" > "$tmp/out" 2> "$tmp/vg"
 rc=$?
 if [ $rc -ne 0 ]; then
   echo "FAIL: valgrind reported errors or definite leaks (exit $rc)"
-  head -60 "$tmp/vg"
+  grep -B2 -A14 -E "definitely lost|Invalid|uninitialised" "$tmp/vg" | head -80
   exit 1
 fi
 [ -s "$tmp/checked/report.html" ] || { echo "FAIL: no report"; exit 1; }
