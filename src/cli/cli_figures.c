@@ -169,3 +169,71 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   free(lab);
   return rc ? CLI_EXIT_OUTPUT : 0;
 }
+
+int fig_flow(const char *dir, const char *title, size_t ns, const int *side, const double *x,
+             const double *cp, const double *dstar, const double *h, const double *cf,
+             const int *turb, size_t n_inv, const double *x_inv, const double *cp_inv)
+{
+  /* per side: x, -Cp, dstar, H, Cf (NaN elsewhere, so each side is its own line) */
+  double *b = calloc(17 * (ns + 1) + n_inv + 1, sizeof *b);
+  if (b == NULL) {
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  double *xs[3], *mcp[3], *dss[3], *hs[3], *cfs[3];
+  for (int q = 0; q < 3; q++) {
+    xs[q] = b + (5 * (size_t)q + 0) * ns;
+    mcp[q] = b + (5 * (size_t)q + 1) * ns;
+    dss[q] = b + (5 * (size_t)q + 2) * ns;
+    hs[q] = b + (5 * (size_t)q + 3) * ns;
+    cfs[q] = b + (5 * (size_t)q + 4) * ns;
+  }
+  double *tx = b + 15 * ns, *ty = tx + 4, *sx = b + 16 * ns, *sy = sx + ns / 2 + 1;
+  double *mci = b + 17 * (ns + 1);
+  size_t cnt[3] = {0, 0, 0}, ntr = 0, nsep = 0;
+  for (size_t k = 0; k < ns; k++) {
+    int q = side[k] < 0 || side[k] > 2 ? 2 : side[k];
+    size_t i = cnt[q]++;
+    xs[q][i] = x[k];
+    mcp[q][i] = q < 2 ? -cp[k] : NAN;
+    dss[q][i] = dstar[k];
+    hs[q][i] = h[k];
+    /* skin friction from x/c 0.02: at the stagnation point it grows without bound and would
+     * flatten the rest of the curve */
+    cfs[q][i] = q < 2 && x[k] >= 0.02 ? cf[k] : NAN;
+    if (q < 2 && k > 0 && side[k - 1] == q && turb[k] && !turb[k - 1] && ntr < 2) {
+      tx[ntr] = x[k];
+      ty[ntr] = -cp[k];
+      ntr++;
+    }
+    if (q < 2 && cf[k] < 0.0 && nsep < ns / 2) {
+      sx[nsep] = x[k];
+      sy[nsep] = -cp[k];
+      nsep++;
+    }
+  }
+  for (size_t i = 0; i < n_inv; i++) mci[i] = -cp_inv[i];
+  plot_series cps[5] = {{"viscous, upper", cnt[0], xs[0], mcp[0], 0},
+                        {"viscous, lower", cnt[1], xs[1], mcp[1], 0},
+                        {"inviscid", n_inv, x_inv, mci, 0},
+                        {"transition", ntr, tx, ty, 1},
+                        {"separated (C#df#u < 0)", nsep, sx, sy, 1}};
+  plot_panel pc[1] = {{title, "x/c", "-C#dp#u", cps, nsep > 0 ? 5 : 4}};
+  char base[4200];
+  snprintf(base, sizeof base, "%s/flow-cp", dir);
+  int rc = plot_figure(base, NULL, 1, 1, pc, 1);
+  if (rc == 0) {
+    plot_series sd[3] = {{"upper", cnt[0], xs[0], dss[0], 0}, {"lower", cnt[1], xs[1], dss[1], 0},
+                         {"wake", cnt[2], xs[2], dss[2], 0}};
+    plot_series sh[3] = {{NULL, cnt[0], xs[0], hs[0], 0}, {NULL, cnt[1], xs[1], hs[1], 0},
+                         {NULL, cnt[2], xs[2], hs[2], 0}};
+    plot_series sc[2] = {{NULL, cnt[0], xs[0], cfs[0], 0}, {NULL, cnt[1], xs[1], cfs[1], 0}};
+    plot_panel pb[3] = {{"displacement thickness", "x/c", "#gd#u*#d/c", sd, 3},
+                        {"shape factor", "x/c", "H = #gd#u*#d/#gh", sh, 3},
+                        {"skin friction (from x/c 0.02)", "x/c", "C#df#u", sc, 2}};
+    snprintf(base, sizeof base, "%s/flow-bl", dir);
+    rc = plot_figure(base, NULL, 3, 1, pb, 3);
+  }
+  free(b);
+  return rc ? CLI_EXIT_OUTPUT : 0;
+}

@@ -29,6 +29,14 @@ typedef struct fig_rotor_point {
  * points). */
 int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np);
 
+/* One viscous solution: DIR/flow-cp.svg/.png (-Cp over x/c, viscous and inviscid, transition and
+ * separated stations marked) and DIR/flow-bl.svg/.png (displacement thickness, shape factor and
+ * skin friction along both surfaces and the wake). Stations in the solver's order (side 0
+ * upper, 1 lower, 2 wake); the inviscid Cp at the n_inv section nodes. */
+int fig_flow(const char *dir, const char *title, size_t ns, const int *side, const double *x,
+             const double *cp, const double *dstar, const double *h, const double *cf,
+             const int *turb, size_t n_inv, const double *x_inv, const double *cp_inv);
+
 /* Create DIR if needed and refuse to replace DIR/<name>.svg unless force; 0 or an exit code. */
 int fig_prepare_dir(const char *dir, const char *name, int force);
 

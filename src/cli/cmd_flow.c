@@ -4,6 +4,7 @@
  */
 #define _GNU_SOURCE
 #include "cli.h"
+#include "cli_figures.h"
 #include "commands.h"
 
 #include <getopt.h>
@@ -34,6 +35,8 @@ static void flow_help(FILE *fp)
         "      --json         JSON output\n"
         "      --csv          CSV output (surface table; summary in '#' lines)\n"
         "  -o, --output FILE  write to FILE (whole or not at all) instead of standard output\n"
+        "      --plot DIR     viscous: also draw -Cp (with the inviscid curve, transition and\n"
+        "                     separation marked) and the boundary layer, DIR/flow-cp and flow-bl\n"
         "      --force        replace FILE if it exists\n"
         "  -h, --help         this help\n",
         fp);
@@ -139,7 +142,7 @@ static json_t *darray(const double *v, size_t n)
 
 /* Viscous analysis of one point; output to fp. Returns an exit code. */
 static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_visc_params *vp,
-                        size_t panels, int json, int csv)
+                        size_t panels, int json, int csv, const char *plotdir)
 {
   cli_analysis an;
   int rc = cli_analysis_open(&an, arg, panels);
@@ -171,6 +174,27 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
   ascr_visc_solver_cp(an.visc, cp);
   for (size_t k = 0; k < ns; k++) cps[k] = 1.0 - ue[k] * ue[k];
   const char *name = ascr_geom_section_name(an.section);
+  if (ok && plotdir != NULL) {
+    double *cpi = calloc(n, sizeof *cpi);
+    ascr_panel_result pr;
+    ascr_errbuf perr;
+    if (cpi == NULL || ascr_panel_solver_solve(an.panel, alpha_deg * FLOW_PI / 180.0, vp->mach, &pr,
+                                               cpi, NULL, &perr) != ASCR_OK) {
+      cli_error("flow --plot: the inviscid Cp for the figure could not be computed");
+      rc = CLI_EXIT_INTERNAL;
+    } else {
+      char title[200];
+      snprintf(title, sizeof title, "%.40s: #ga %.2f deg, Re %.3g", name, alpha_deg, vp->re);
+      rc = fig_flow(plotdir, title, ns, side, x, cps, ds, h, cf, turb, n,
+                    ascr_geom_section_x(an.section), cpi);
+    }
+    free(cpi);
+    if (rc != 0) {
+      free(side); free(turb); free(buf);
+      cli_analysis_close(&an);
+      return rc;
+    }
+  }
   if (!ok) {
     cli_error("flow: %s at alpha %.2f deg, Re %.4g did not converge after %d iterations "
               "(largest relative update %.2e); no result is reported", name, alpha_deg, vp->re,
@@ -288,6 +312,7 @@ int cmd_flow(int argc, char **argv)
     {"re", required_argument, NULL, 'R'},     {"help", no_argument, NULL, 'h'},
     {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
     {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
+    {"plot", required_argument, NULL, 'G'},
     {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -296,7 +321,7 @@ int cmd_flow(int argc, char **argv)
   double alpha_deg = NAN, mach = 0.0;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int inviscid = 0, json = 0, csv = 0, force = 0, have_re = 0;
-  const char *outpath = NULL;
+  const char *outpath = NULL, *plotdir = NULL;
   int c;
   opterr = 0;
   optind = 1;
@@ -324,6 +349,7 @@ int cmd_flow(int argc, char **argv)
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
+    case 'G': plotdir = optarg; break;
     case 'F': force = 1; break;
     case 'h': flow_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("flow: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -350,6 +376,14 @@ int cmd_flow(int argc, char **argv)
     cli_error("flow: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
+  if (plotdir != NULL && inviscid) {
+    cli_error("flow: --plot draws viscous solutions (give --re)");
+    return CLI_EXIT_USAGE;
+  }
+  if (plotdir != NULL) {
+    int prc = fig_prepare_dir(plotdir, "flow-cp", force);
+    if (prc) return prc;
+  }
   if (!inviscid) {
     if (mach > 0.7) {
       cli_error("flow: --mach %g is outside the viscous range 0 .. 0.7", mach);
@@ -367,7 +401,7 @@ int cmd_flow(int argc, char **argv)
     int vrc = cli_output_open(&vout, outpath, force);
     if (vrc) return vrc;
     ascr_visc_params vp = cli_visc_params(&vo, re, mach);
-    vrc = flow_viscous(vout.fp, argv[optind], alpha_deg, &vp, panels, json, csv);
+    vrc = flow_viscous(vout.fp, argv[optind], alpha_deg, &vp, panels, json, csv, plotdir);
     if (vrc != 0 && !(vrc == CLI_EXIT_ANALYSIS && json)) {
       cli_output_discard(&vout);
       return vrc;
