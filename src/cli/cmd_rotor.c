@@ -133,7 +133,7 @@ static json_t *warnings_json(const rotor_point *pt)
   json_t *a = json_array();
   char b[160];
   if (!pt->solved) {
-    snprintf(b, sizeof b, "no solution: %s", pt->note);
+    snprintf(b, sizeof b, "no solution: %.140s", pt->note);
     json_array_append_new(a, json_string(b));
     return a;
   }
