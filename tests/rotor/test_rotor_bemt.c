@@ -161,6 +161,9 @@ static void test_closed_form_hover(void **state)
     double ct_rot = r.thrust_N / (p.density_kg_m3 * ad * tip * tip);
     double cp_rot = r.power_W / (p.density_kg_m3 * ad * tip * tip * tip);
     char desc[96];
+    ascr_validation_row("closed_form_hover", "closed-form BEMT hover (reference/closed_form_bemt_hover_check_CT_geometry.csv), sigma 0.1061, no losses",
+                        "lift_slope,theta_deg,CT_reference,CT_airscrew,CPi_reference,CP_airscrew",
+                        "%s,%g,%.5f,%.5f,%.6f,%.6f", slope_s, th, ct_ref, ct_rot, cpi_ref, cp_rot);
     snprintf(desc, sizeof desc, "closed-form hover CT, a %s, theta %g", slope_s, th);
     ascr_assert_close(ct_rot, ct_ref, 0.015, 0.000005, desc);
     snprintf(desc, sizeof desc, "closed-form hover CP induced, a %s, theta %g", slope_s, th);

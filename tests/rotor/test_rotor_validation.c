@@ -164,6 +164,11 @@ static void test_da4002(void **state)
     assert_int_equal(ascr_rotor_vortex(&b, tabs, &p, NULL, rpm, v, &rv, NULL, &err), ASCR_OK);
     assert_true(rv.converged);
     print_message("        vortex: CT %.4f  CP %.4f\n", rv.CT, rv.CP);
+    ascr_validation_row("da4002_9in_5000rpm",
+                        "Deters, Ananda & Selig, AIAA 2014-2151, Figs. 58-60 (read by eye, +-0.003 in CT and CP); airscrew from the SDA1075 coordinates",
+                        "J,CT_measured,CT_bemt,CT_vortex,CP_measured,CP_bemt,CP_vortex,eta_measured,eta_bemt",
+                        "%.3f,%.4f,%.4f,%.4f,%.4f,%.4f,%.4f,%.3f,%.3f", m[i].j, m[i].ct, r.CT, rv.CT,
+                        m[i].cp, r.CP, rv.CP, m[i].eta, r.efficiency);
     char vdesc[64];
     snprintf(vdesc, sizeof vdesc, "DA4002 vortex CT at J %.3f", m[i].j);
     ascr_assert_close(rv.CT, m[i].ct, 0.12, 0.003, vdesc);

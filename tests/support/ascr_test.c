@@ -3,6 +3,10 @@
  */
 #include "ascr_test.h"
 
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+
 #include <math.h>
 #include <stdio.h>
 
@@ -19,3 +23,24 @@ void ascr_assert_close_impl(double obs, double exp, double epsrel, double epsabs
   }
 }
 
+
+void ascr_validation_row(const char *name, const char *source, const char *header,
+                         const char *fmt, ...)
+{
+  const char *dir = getenv("AIRSCREW_VALIDATION_OUT");
+  if (dir == NULL || dir[0] == '\0') return;
+  char path[1024];
+  snprintf(path, sizeof path, "%s/%s.csv", dir, name);
+  FILE *f = fopen(path, "r");
+  int fresh = f == NULL;
+  if (f != NULL) fclose(f);
+  f = fopen(path, "a");
+  if (f == NULL) return;
+  if (fresh) fprintf(f, "# source: %s\n%s\n", source, header);
+  va_list ap;
+  va_start(ap, fmt);
+  vfprintf(f, fmt, ap);
+  va_end(ap);
+  fputc('\n', f);
+  fclose(f);
+}

@@ -66,7 +66,8 @@ static double cd_at_cl(const polar *pl, double cl)
 /* Compare the polar's cd at each reference cl within [cl_lo, cl_hi] with the reference cd,
  * relative tolerance tol. Returns the number of points compared. */
 static int compare_cd(const polar *pl, const double *cl, const double *cd, size_t nr,
-                      double cl_lo, double cl_hi, double tol, const char *what, const char *ref)
+                      double cl_lo, double cl_hi, double tol, const char *what, const char *ref,
+                      const char *vname, const char *vsource)
 {
   int checked = 0;
   for (size_t i = 0; i < nr; i++) {
@@ -75,6 +76,9 @@ static int compare_cd(const polar *pl, const double *cl, const double *cd, size_
     char d[96];
     snprintf(d, sizeof d, "%s cd at cl %.3f", what, cl[i]);
     print_message("%s: airscrew %.5f, %s %.5f\n", d, c, ref, cd[i]);
+    ascr_validation_row(vname, vsource, "cl,cd_reference,cd_airscrew,difference_percent,tolerance_percent",
+                        "%.3f,%.5f,%.5f,%+.1f,%.0f", cl[i], cd[i], c, 100.0 * (c / cd[i] - 1.0),
+                        100.0 * tol);
     ascr_assert_close(c, cd[i], tol, 0.0, d);
     checked++;
   }
@@ -135,11 +139,16 @@ static void test_visc_naca0012_re6e6_drag_matches_abbott(void **state)
   double cl[40], cd[40];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cd_cl_digitized.csv", -1, 0, 0, 1, cl, cd, 40);
   assert_true(nr > 10);
-  assert_true(compare_cd(&pl, cl, cd, nr, 0.0, 0.7, 0.12, "NACA 0012 Re 6e6", "Abbott") >= 5);
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.0, 0.7, 0.12, "NACA 0012 Re 6e6", "Abbott",
+                         "naca0012_re6e6_smooth", "Abbott & von Doenhoff, Theory of Wing Sections, App. IV, NACA 0012 Re 6e6 smooth (digitised)") >= 5);
   /* lift slope: McCroskey (1987) best fit dcl/dalpha = (0.1025 + 0.00485 log10(Re/1e6))/deg
    * (reference/naca0012_mccroskey_lift_slope.csv header); its data scatter about +-4 %, and
    * we take the slope between 0 and 4 deg; tolerance 6 % */
   double slope = (cl_at_alpha(&pl, 4.0) - cl_at_alpha(&pl, 0.0)) / 4.0;
+  ascr_validation_row("naca0012_lift_slope", "McCroskey (1987) best-fit lift slope, NACA 0012, Re 6e6",
+                      "lift_slope_reference_per_deg,lift_slope_airscrew_per_deg,difference_percent,tolerance_percent",
+                      "%.4f,%.4f,%+.1f,6", 0.1025 + 0.00485 * log10(6.0), slope,
+                      100.0 * (slope / (0.1025 + 0.00485 * log10(6.0)) - 1.0));
   ascr_assert_close(slope, 0.1025 + 0.00485 * log10(6.0), 0.06, 0.0, "NACA 0012 lift slope /deg");
   free(pl.p);
   ascr_geom_section_free(raw);
@@ -161,7 +170,8 @@ static void test_visc_naca0012_tripped_drag_matches_ladson(void **state)
   size_t nr = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 3, al, cd, 40);
   size_t nr2 = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 2, al2, cl, 40);
   assert_true(nr > 5 && nr2 == nr);
-  assert_true(compare_cd(&pl, cl, cd, nr, -0.2, 0.8, 0.10, "NACA 0012 tripped", "Ladson") >= 4);
+  assert_true(compare_cd(&pl, cl, cd, nr, -0.2, 0.8, 0.10, "NACA 0012 tripped", "Ladson",
+                         "naca0012_re6e6_tripped", "Ladson, NASA TM-4074 (1988), NACA 0012 Re 6e6, 120 grit") >= 4);
   free(pl.p);
   ascr_geom_section_free(raw);
 }
@@ -182,7 +192,8 @@ static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
   double cl[40], cd[40];
   size_t nr = read_ref("sd7003_uiuc_lsat_drag.csv", 0, 101600.0, 2, 3, cl, cd, 40);
   assert_true(nr >= 8);
-  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, "SD7003 Re 1e5", "UIUC") >= 3);
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, "SD7003 Re 1e5", "UIUC",
+                         "sd7003_re1e5", "UIUC low-speed airfoil tests (Selig et al.), SD7003 Re 1.016e5") >= 3);
   free(pl.p);
   ascr_geom_section_free(raw);
 }

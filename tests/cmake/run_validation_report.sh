@@ -1,0 +1,16 @@
+#!/bin/sh
+# The validation report is generated from the validation tests: every comparison table present.
+# usage: run_validation_report.sh SOURCE_DIR BUILD_DIR
+set -u
+tmp=$(mktemp -d) || exit 1
+trap 'rm -rf "$tmp"' EXIT
+sh "$1/tools/validation-report.sh" "$2" "$tmp/report" || { echo "FAIL: report script failed"; exit 1; }
+md="$tmp/report/validation.md"
+fail=0
+for t in closed_form_hover da4002_9in_5000rpm naca0012_re6e6_smooth naca0012_re6e6_tripped \
+         naca0012_lift_slope sd7003_re1e5; do
+  grep -q "^## $t\$" "$md" || { echo "FAIL: table $t missing"; fail=1; }
+done
+grep -q "FAILED" "$md" && { echo "FAIL: a validation test failed"; fail=1; }
+[ $fail = 0 ] && echo "validation report complete: $(grep -c '^## ' "$md") tables"
+exit $fail
