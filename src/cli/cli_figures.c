@@ -95,7 +95,7 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   double rpms[MAXG], spds[MAXG];
   size_t nr = distinct(p, np, 0, rpms, MAXG), nv = distinct(p, np, 1, spds, MAXG);
   double *buf = calloc(7 * np + 1, sizeof *buf);
-  plot_series *sr = calloc(3 * MAXG + 2 * MAXG + 1, sizeof *sr);
+  plot_series *sr = calloc(5 * MAXG + 1, sizeof *sr);
   char (*lab)[48] = calloc(2 * MAXG, sizeof *lab);
   if (buf == NULL || sr == NULL || lab == NULL) {
     free(buf);
@@ -106,7 +106,7 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   }
   /* by rpm: J, CT, CP, eta ordered by speed; by speed: rpm, thrust ordered by rpm */
   double *J = buf, *CT = buf + np, *CP = buf + 2 * np, *ET = buf + 3 * np;
-  double *RP = buf + 4 * np, *TH = buf + 5 * np;
+  double *RP = buf + 4 * np, *TH = buf + 5 * np, *PW = buf + 6 * np;
   size_t off = 0;
   for (size_t g = 0; g < nr; g++) {
     size_t start = off;
@@ -134,21 +134,25 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
         if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
           RP[off] = p[i].rpm;
           TH[off] = p[i].thrust;
+          PW[off] = p[i].power;
           off++;
         }
       }
     }
     snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "%.3g m/s", spds[v]);
     sr[3 * MAXG + v] = (plot_series){lab[MAXG + v], off - start, RP + start, TH + start, off - start < 2};
+    sr[4 * MAXG + v] = (plot_series){NULL, off - start, RP + start, PW + start, off - start < 2};
   }
   char t0[160], base[4200];
   snprintf(t0, sizeof t0, "thrust coefficient, %.28s", blade);
-  plot_panel pan[4] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
+  plot_panel pan[6] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
                        {"power coefficient", "advance ratio J", "C#dP#u = P/(#gr n#u3#d D#u5#d)", sr + MAXG, nr},
                        {"efficiency", "advance ratio J", "#gy = T V / P", sr + 2 * MAXG, nr},
-                       {"thrust", "shaft speed (rpm)", "thrust (N)", sr + 3 * MAXG, nv}};
+                       {"thrust", "shaft speed (rpm)", "thrust (N)", sr + 3 * MAXG, nv},
+                       {"shaft power", "shaft speed (rpm)", "power (W)", sr + 4 * MAXG, nv},
+                       {"", "", "", NULL, 0}};
   snprintf(base, sizeof base, "%s/rotor", dir);
-  int rc = plot_figure(base, NULL, 2, 2, pan, 4);
+  int rc = plot_figure(base, NULL, 2, 3, pan, 5);
   /* spanwise loading of up to eight points with stations */
   plot_series ss[8];
   char sl[8][48];
