@@ -181,13 +181,7 @@ int cmd_polar(int argc, char **argv)
     cli_error("polar: no point converged");
     rc = CLI_EXIT_ANALYSIS;
   }
-  if (rc != 0) {
-    free(pts);
-    free(sums);
-    cli_analysis_close(&an);
-    cli_output_discard(&out);
-    return rc;
-  }
+  if (rc != 0) goto fail;
   FILE *fp = out.fp;
   const char *name = ascr_geom_section_name(an.section);
   if (tablepath != NULL) {
@@ -237,13 +231,7 @@ int cmd_polar(int argc, char **argv)
     free(cv);
     free(buf);
     free(ok);
-    if (rc != 0) {
-      free(pts);
-      free(sums);
-      cli_analysis_close(&an);
-      cli_output_discard(&out);
-      return rc;
-    }
+    if (rc != 0) goto fail;
   }
   if (json) {
     json_t *o = json_object(), *pl = json_array();
@@ -371,16 +359,17 @@ int cmd_polar(int argc, char **argv)
     if (rc == 0) rc = fig_polars(plotdir, name, fp2, nk);
     free(fp2);
     free(buf);
-    if (rc != 0) {
-      free(pts);
-      free(sums);
-      cli_analysis_close(&an);
-      cli_output_discard(&out);
-      return rc;
-    }
+    if (rc != 0) goto fail;
   }
   free(pts);
   free(sums);
   cli_analysis_close(&an);
   return cli_output_commit(&out);
+
+fail: /* an error was printed: nothing is written */
+  free(pts);
+  free(sums);
+  cli_analysis_close(&an);
+  cli_output_discard(&out);
+  return rc;
 }
