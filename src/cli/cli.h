@@ -80,6 +80,18 @@ void cli_temp_end(void);
  * when they are not results). Caller owns the reference. */
 json_t *cli_json_num(int ok, double v);
 
+/* Set only by the command-line fuzz target: every command returns CLI_EXIT_OK once its options
+ * are checked, before it reads a file, creates a folder or computes anything. */
+extern int cli_check_options_only;
+
+/* The program behind main(): dispatch on argv[1] (main() also installs the signal handlers and
+ * sets the BLAS threads). */
+int cli_main(int argc, char **argv);
+
+/* Restart getopt_long for a new argument vector (full reset under glibc, which otherwise keeps
+ * its position inside the previous vector's last option cluster). */
+void cli_getopt_reset(void);
+
 /* 1 if the stream is a terminal. */
 int cli_isatty(FILE *fp);
 

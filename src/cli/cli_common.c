@@ -262,6 +262,15 @@ int cli_output_commit(cli_output *o)
 
 int cli_isatty(FILE *fp) { return isatty(fileno(fp)); }
 
+void cli_getopt_reset(void)
+{
+#if defined(__GLIBC__)
+  optind = 0; /* glibc: reinitialise completely */
+#else
+  optind = 1;
+#endif
+}
+
 int cli_parse_list(const char *opt, const char *text, double lo, double hi, double *out,
                    size_t *n)
 {

@@ -63,6 +63,7 @@ int cmd_cache(int argc, char **argv)
     cli_error("cache: no cache folder (set AIRSCREW_CACHE_DIR or HOME)");
     return CLI_EXIT_USAGE;
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   DIR *d = opendir(dir);
   if (d == NULL) {
     if (errno == ENOENT) {

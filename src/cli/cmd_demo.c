@@ -107,6 +107,7 @@ static int demo_sections(int argc, char **argv)
       return CLI_EXIT_USAGE;
     }
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   cli_output out;
   int rc = cli_output_open(&out, NULL, 0);
   if (rc) return rc;

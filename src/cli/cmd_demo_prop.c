@@ -131,6 +131,7 @@ int demo_prop(int argc, char **argv)
       return CLI_EXIT_USAGE;
     }
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   /* the output folder: created, or empty, or replaced file by file with --force */
   struct stat sb;
   if (stat(outdir, &sb) == 0) {

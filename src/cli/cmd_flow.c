@@ -324,7 +324,7 @@ int cmd_flow(int argc, char **argv)
   const char *outpath = NULL, *plotdir = NULL;
   int c;
   opterr = 0;
-  optind = 1;
+  cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":a:m:p:o:r:h", opts, NULL)) != -1) {
     switch (c) {
     case 'a':
@@ -380,10 +380,6 @@ int cmd_flow(int argc, char **argv)
     cli_error("flow: --plot draws viscous solutions (give --re)");
     return CLI_EXIT_USAGE;
   }
-  if (plotdir != NULL) {
-    int prc = fig_prepare_dir(plotdir, "flow-cp", force);
-    if (prc) return prc;
-  }
   if (!inviscid) {
     if (mach > 0.7) {
       cli_error("flow: --mach %g is outside the viscous range 0 .. 0.7", mach);
@@ -397,6 +393,13 @@ int cmd_flow(int argc, char **argv)
       cli_error("flow: --panels %zu is outside the viscous range 40 .. 400", panels);
       return CLI_EXIT_USAGE;
     }
+  }
+  if (cli_check_options_only) return CLI_EXIT_OK;
+  if (plotdir != NULL) {
+    int prc = fig_prepare_dir(plotdir, "flow-cp", force);
+    if (prc) return prc;
+  }
+  if (!inviscid) {
     cli_output vout;
     int vrc = cli_output_open(&vout, outpath, force);
     if (vrc) return vrc;

@@ -146,6 +146,7 @@ int cmd_plot(int argc, char **argv)
     cli_error("plot: give RESULT.json and --out DIR (see airscrew plot --help)");
     return CLI_EXIT_USAGE;
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   json_error_t je;
   json_t *root = json_load_file(file, JSON_REJECT_DUPLICATES, &je);
   if (root == NULL) {

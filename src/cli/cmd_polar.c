@@ -74,7 +74,7 @@ int cmd_polar(int argc, char **argv)
   int json = 0, csv = 0, force = 0, c;
   const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
   opterr = 0;
-  optind = 1;
+  cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":r:a:m:p:o:h", opts, NULL)) != -1) {
     switch (c) {
     case 'r':
@@ -119,6 +119,7 @@ int cmd_polar(int argc, char **argv)
     cli_error("polar: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, "polar", force);
     if (prc) return prc;

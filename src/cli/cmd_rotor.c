@@ -185,7 +185,7 @@ int cmd_rotor(int argc, char **argv)
   const char *cache_dir = NULL, *outpath = NULL, *plotdir = NULL;
   ascr_rotor_params rp = ascr_rotor_params_defaults();
   opterr = 0;
-  optind = 1;
+  cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":n:v:i:p:e:o:h", opts, NULL)) != -1) {
     switch (c) {
     case 'n': if (parse_values("--rpm", optarg, 1.0, 1e6, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
@@ -275,6 +275,7 @@ int cmd_rotor(int argc, char **argv)
   if (!isnan(sound)) rp.sound_speed_m_s = sound;
   to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
 
+  if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, "rotor", force);
     if (prc) return prc;

@@ -92,7 +92,7 @@ int cmd_section(int argc, char **argv)
   const char *outpath = NULL;
   int c;
   opterr = 0;
-  optind = 1;
+  cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":p:o:h", opts, NULL)) != -1) {
     switch (c) {
     case 'p':
@@ -116,6 +116,7 @@ int cmd_section(int argc, char **argv)
     cli_error("section: give exactly one SECTION (file or spec); see airscrew section --help");
     return CLI_EXIT_USAGE;
   }
+  if (cli_check_options_only) return CLI_EXIT_OK;
   cli_output out;
   int rc = cli_output_open(&out, outpath, force);
   if (rc) return rc;

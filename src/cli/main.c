@@ -33,12 +33,10 @@ static void main_help(FILE *fp)
 /* OpenBLAS (Debian's libopenblas) */
 void openblas_set_num_threads(int num_threads);
 
-int main(int argc, char **argv)
+int cli_check_options_only = 0;
+
+int cli_main(int argc, char **argv)
 {
-  gsl_set_error_handler_off();
-  cli_signals_install();
-  /* the dense systems here are a few hundred unknowns: one thread is faster than several */
-  openblas_set_num_threads(1);
   if (argc < 2) {
     main_help(stderr);
     return CLI_EXIT_USAGE;
@@ -73,3 +71,14 @@ int main(int argc, char **argv)
   }
   return CLI_EXIT_USAGE;
 }
+
+#ifndef CLI_NO_MAIN
+int main(int argc, char **argv)
+{
+  gsl_set_error_handler_off();
+  cli_signals_install();
+  /* the dense systems here are a few hundred unknowns: one thread is faster than several */
+  openblas_set_num_threads(1);
+  return cli_main(argc, argv);
+}
+#endif
