@@ -47,6 +47,51 @@ static void data_range(const plot_panel *p, double *x0, double *x1, double *y0, 
   *y1 += 0.06 * dy;
 }
 
+/* Points of the panel's curves (vertices and, for lines, 8 samples per segment) that fall in the
+ * box [bx0, bx1] x [by0, by1] of world coordinates. */
+static size_t crowding(const plot_panel *p, double bx0, double bx1, double by0, double by1)
+{
+  size_t count = 0;
+  for (size_t s = 0; s < p->n_series; s++) {
+    const plot_series *q = &p->series[s];
+    for (size_t i = 0; i < q->n; i++) {
+      if (!isfinite(q->x[i]) || !isfinite(q->y[i])) continue;
+      int seg = !q->marker && i + 1 < q->n && isfinite(q->x[i + 1]) && isfinite(q->y[i + 1]);
+      int nsub = seg ? 8 : 1;
+      for (int k = 0; k < nsub; k++) {
+        double t = (double)k / nsub;
+        double x = seg ? q->x[i] + t * (q->x[i + 1] - q->x[i]) : q->x[i];
+        double y = seg ? q->y[i] + t * (q->y[i + 1] - q->y[i]) : q->y[i];
+        if (x >= bx0 && x <= bx1 && y >= by0 && y <= by1) count++;
+      }
+    }
+  }
+  return count;
+}
+
+/* The inside corner where a legend of nleg entries covers the fewest curve points (top right
+ * first on ties), as a PLplot position. */
+static PLINT legend_corner(const plot_panel *p, int nleg, double x0, double x1, double y0,
+                           double y1)
+{
+  static const PLINT pos[4] = {PL_POSITION_TOP | PL_POSITION_RIGHT, PL_POSITION_TOP | PL_POSITION_LEFT,
+                               PL_POSITION_BOTTOM | PL_POSITION_RIGHT,
+                               PL_POSITION_BOTTOM | PL_POSITION_LEFT};
+  double w = 0.45 * (x1 - x0), h = fmin(0.9, 0.02 + 0.075 * nleg) * (y1 - y0);
+  size_t best = (size_t)-1;
+  PLINT where = pos[0];
+  for (int k = 0; k < 4; k++) {
+    int right = k == 0 || k == 2, top = k < 2;
+    double bx0 = right ? x1 - w : x0, by0 = top ? y1 - h : y0;
+    size_t c = crowding(p, bx0, bx0 + w, by0, by0 + h);
+    if (c < best) {
+      best = c;
+      where = pos[k];
+    }
+  }
+  return where;
+}
+
 static void draw_panel(const plot_panel *p)
 {
   double x0, x1, y0, y1;
@@ -104,7 +149,7 @@ static void draw_panel(const plot_panel *p)
     PLFLT w, h;
     plwidth(1.0);
     pllegend(&w, &h, PL_LEGEND_BACKGROUND | PL_LEGEND_BOUNDING_BOX,
-             PL_POSITION_TOP | PL_POSITION_RIGHT | PL_POSITION_INSIDE, 0.01, 0.01, 0.08, 0, 1, 1,
+             legend_corner(p, nleg, x0, x1, y0, y1) | PL_POSITION_INSIDE, 0.01, 0.01, 0.08, 0, 1, 1,
              0, 0, nleg, opt, 0.8, 0.7, 1.6, 1.0, tcol, txt, NULL, NULL, NULL, NULL, lcol, lsty,
              lw, mcol, msc, mnum, msym);
   }
