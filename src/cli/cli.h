@@ -38,6 +38,8 @@ int cli_exit_for(ascr_status st);
 
 /* Strict number parsing for option values; on failure print a usage error naming the option
  * and return nonzero. */
+/* Silent variant: 0 and *out when TEXT is one whole finite number, else 1. */
+int cli_parse_number(const char *text, double *out);
 int cli_parse_double(const char *opt, const char *text, double lo, double hi, double *out);
 int cli_parse_size(const char *opt, const char *text, size_t lo, size_t hi, size_t *out);
 

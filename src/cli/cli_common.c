@@ -50,6 +50,16 @@ int cli_exit_for(ascr_status st)
   return CLI_EXIT_INTERNAL;
 }
 
+int cli_parse_number(const char *text, double *out)
+{
+  char *end = NULL;
+  errno = 0;
+  double v = strtod(text, &end);
+  if (end == text || *end != '\0' || !isfinite(v) || errno == ERANGE) return 1;
+  *out = v;
+  return 0;
+}
+
 int cli_parse_double(const char *opt, const char *text, double lo, double hi, double *out)
 {
   char *end = NULL;

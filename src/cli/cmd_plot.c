@@ -3,8 +3,11 @@
  */
 #define _POSIX_C_SOURCE 200809L
 #include "cli.h"
+#include "cli_csv.h"
 #include "cli_figures.h"
 #include "commands.h"
+
+#include <strings.h>
 
 #include <jansson.h>
 #include <math.h>
@@ -13,11 +16,14 @@
 
 static void plot_help(FILE *fp)
 {
-  fputs("usage: airscrew plot RESULT.json --out DIR [--force]\n"
+  fputs("usage: airscrew plot RESULT.json|RESULT.csv --out DIR [--model NAME] [--force]\n"
         "\n"
-        "Draw the figures of a result saved with --json by 'airscrew polar' (polars: DIR/polar)\n"
-        "or 'airscrew rotor' (CT, CP, efficiency and thrust: DIR/rotor; spanwise loading:\n"
-        "DIR/rotor-spanwise), as SVG and PNG. Unconverged points (null) are left out.\n",
+        "Draw the figures of a result saved with --json or --csv by 'airscrew polar' (polars:\n"
+        "DIR/polar) or 'airscrew rotor' (CT, CP, efficiency, thrust and power: DIR/rotor;\n"
+        "spanwise loading: DIR/rotor-spanwise, from JSON with --stations), as SVG and PNG.\n"
+        "Files ending in .csv are read as CSV, others as JSON. Unconverged points (null in\n"
+        "JSON, converged=false or empty in CSV) are left out. A rotor CSV with a model column\n"
+        "(the demo's rotor-map.csv) is drawn for one model: --model NAME, default the first.\n",
         fp);
 }
 
@@ -63,8 +69,16 @@ static int plot_polars(const char *file, json_t *root, const char *dir)
       f[k].cd[i] = jnum(q, "cd");
       f[k].cm[i] = jnum(q, "cm");
     }
-    snprintf(f[k].label, sizeof f[k].label, "Re %.3gk, M %.2g, N#dcrit#u %.3g",
-             jnum(po, "re") / 1000.0, jnum(po, "mach"), jnum(po, "ncrit"));
+    json_t *sec = json_object_get(po, "section");
+    int n0 = json_is_string(sec) ? snprintf(f[k].label, sizeof f[k].label, "%.40s, ", json_string_value(sec)) : 0;
+    double mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
+    int n1 = snprintf(f[k].label + n0, sizeof f[k].label - (size_t)n0, "Re %.3gk", jnum(po, "re") / 1000.0);
+    if (isfinite(mach) && mach > 0.0) {
+      n1 += snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", M %.2g", mach);
+    }
+    if (isfinite(ncrit)) {
+      snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", N#dcrit#u %.3g", ncrit);
+    }
   }
   if (rc == 0) {
     json_t *sec = json_object_get(root, "section");
@@ -123,9 +137,150 @@ static int plot_rotor(const char *file, json_t *root, const char *dir)
   return rc;
 }
 
+/* One CSV cell as a JSON number: null where empty, where the row is not converged, or "nan";
+ * an error naming the line and column where it is not a number. */
+static int csv_num(const char *file, const cli_csv *t, size_t r, int col, int conv_col, json_t **out)
+{
+  *out = NULL;
+  if (col < 0) return 0;
+  const char *v = t->cell[r * t->ncol + (size_t)col];
+  const char *cv = conv_col >= 0 ? t->cell[r * t->ncol + (size_t)conv_col] : NULL;
+  if (cv != NULL && strcmp(cv, "true") != 0 && strcmp(cv, "false") != 0) {
+    cli_error("%s:%zu: converged: '%s' is not true or false", file, t->line[r], cv);
+    return CLI_EXIT_INPUT;
+  }
+  double x;
+  if (v == NULL || strcmp(v, "nan") == 0) {
+    *out = json_null();
+    return 0;
+  }
+  if (cli_parse_number(v, &x) != 0) {
+    cli_error("%s:%zu: %s: '%s' is not a number", file, t->line[r], t->head[col], v);
+    return CLI_EXIT_INPUT;
+  }
+  *out = (cv != NULL && strcmp(cv, "false") == 0) ? json_null() : json_real(x);
+  return *out == NULL ? CLI_EXIT_INTERNAL : 0;
+}
+
+static int same(double a, double b) { return a == b || (isnan(a) && isnan(b)); }
+
+/* Rebuild the JSON shape of a polar or rotor result from its CSV form, so that both draw
+ * through the same code. Polar CSV: re, alpha_deg, cl, cd, cm required; mach, ncrit, section
+ * optional (rows grouped into polars where re, mach, ncrit or section change). Rotor CSV: rpm,
+ * speed_m_s, J, CT, CP, efficiency, thrust_N, power_W required; with a model column only the
+ * rows of MODEL (default: the first row's) are drawn. */
+static int csv_to_result(const char *file, const char *model, json_t **out)
+{
+  cli_csv t;
+  int rc = cli_csv_read(file, &t);
+  if (rc) return rc;
+  static const char *const pcols[] = {"re", "mach", "ncrit", "alpha_deg", "cl", "cd", "cm"};
+  static const char *const rcols[] = {"rpm", "speed_m_s", "J", "CT", "CP", "efficiency", "thrust_N", "power_W"};
+  int polar = cli_csv_col(&t, "alpha_deg") >= 0, rotor = cli_csv_col(&t, "CT") >= 0;
+  const char *const *need = polar ? pcols : rcols;
+  size_t nneed = polar ? sizeof pcols / sizeof *pcols : sizeof rcols / sizeof *rcols;
+  if (polar == rotor) {
+    cli_error("%s: header is neither a polar result (alpha_deg, cl, cd ...) nor a rotor result "
+              "(rpm, J, CT, CP ...)", file);
+    cli_csv_free(&t);
+    return CLI_EXIT_INPUT;
+  }
+  int col[8];
+  for (size_t k = 0; k < nneed; k++) {
+    col[k] = cli_csv_col(&t, need[k]);
+    if (col[k] < 0 && !(polar && (k == 1 || k == 2))) {
+      cli_error("%s: column '%s' missing from the header", file, need[k]);
+      cli_csv_free(&t);
+      return CLI_EXIT_INPUT;
+    }
+  }
+  if (t.nrow == 0) {
+    cli_error("%s: no result rows", file);
+    cli_csv_free(&t);
+    return CLI_EXIT_INPUT;
+  }
+  int conv = cli_csv_col(&t, "converged"), csec = cli_csv_col(&t, "section");
+  int cmodel = polar ? -1 : cli_csv_col(&t, "model");
+  if (model != NULL && cmodel < 0) {
+    cli_error("%s: --model given but the file has no model column", file);
+    cli_csv_free(&t);
+    return CLI_EXIT_USAGE;
+  }
+  if (cmodel >= 0 && model == NULL) model = t.cell[(size_t)cmodel] != NULL ? t.cell[(size_t)cmodel] : "";
+  json_t *root = json_object(), *list = json_array(), *cur = NULL;
+  if (root == NULL || list == NULL) rc = CLI_EXIT_INTERNAL;
+  const char *name = cli_csv_meta(&t, polar ? "section" : "blade");
+  if (rc == 0 && name != NULL) json_object_set_new(root, polar ? "section" : "blade", json_string(name));
+  if (rc == 0) json_object_set(root, polar ? "polars" : "points", list);
+  double key[3] = {NAN, NAN, NAN};
+  const char *keysec = NULL;
+  size_t kept = 0;
+  for (size_t r = 0; r < t.nrow && rc == 0; r++) {
+    if (cmodel >= 0) {
+      const char *m = t.cell[r * t.ncol + (size_t)cmodel];
+      if (strcmp(m != NULL ? m : "", model) != 0) continue;
+    }
+    kept++;
+    json_t *v[8];
+    for (size_t k = 0; k < nneed; k++) v[k] = NULL;
+    for (size_t k = 0; k < nneed && rc == 0; k++) {
+      /* the polar's identity (re, mach, ncrit) is needed even where the point failed */
+      rc = csv_num(file, &t, r, col[k], polar && k < 3 ? -1 : conv, &v[k]);
+    }
+    if (rc == 0 && polar) {
+      double kv[3];
+      for (int k = 0; k < 3; k++) kv[k] = json_is_number(v[k]) ? json_number_value(v[k]) : NAN;
+      const char *sec = csec >= 0 ? t.cell[r * t.ncol + (size_t)csec] : NULL;
+      if (!json_is_number(v[0])) {
+        cli_error("%s:%zu: re: a polar row needs its Reynolds number", file, t.line[r]);
+        rc = CLI_EXIT_INPUT;
+      } else if (cur == NULL || !same(kv[0], key[0]) || !same(kv[1], key[1]) || !same(kv[2], key[2]) ||
+                 (sec != keysec && (sec == NULL || keysec == NULL || strcmp(sec, keysec) != 0))) {
+        cur = json_object();
+        json_object_set(cur, "re", v[0]);
+        if (v[1] != NULL) json_object_set(cur, "mach", v[1]);
+        if (v[2] != NULL) json_object_set(cur, "ncrit", v[2]);
+        if (sec != NULL) json_object_set_new(cur, "section", json_string(sec));
+        json_object_set_new(cur, "points", json_array());
+        json_array_append_new(list, cur);
+        memcpy(key, kv, sizeof key);
+        keysec = sec;
+      }
+      if (rc == 0) {
+        json_t *pt = json_object();
+        for (size_t k = 3; k < nneed; k++) json_object_set(pt, need[k], v[k]);
+        json_array_append_new(json_object_get(cur, "points"), pt);
+      }
+    } else if (rc == 0) {
+      json_t *pt = json_object();
+      for (size_t k = 0; k < nneed; k++) json_object_set(pt, need[k], v[k]);
+      json_array_append_new(list, pt);
+    }
+    for (size_t k = 0; k < nneed; k++) json_decref(v[k]);
+  }
+  if (rc == 0 && kept == 0) {
+    cli_error("%s: no rows of model '%s'", file, model);
+    rc = CLI_EXIT_INPUT;
+  }
+  if (rc == 0 && !polar) {
+    char bl[300];
+    snprintf(bl, sizeof bl, "%s%s%s%s", name != NULL ? name : file, cmodel >= 0 ? " (" : "",
+             cmodel >= 0 ? model : "", cmodel >= 0 ? ")" : "");
+    json_object_set_new(root, "blade", json_string(bl));
+  }
+  json_decref(list);
+  cli_csv_free(&t);
+  if (rc) {
+    json_decref(root);
+    return rc;
+  }
+  *out = root;
+  return 0;
+}
+
 int cmd_plot(int argc, char **argv)
 {
-  const char *file = NULL, *dir = NULL;
+  const char *file = NULL, *dir = NULL, *model = NULL;
   int force = 0;
   for (int i = 1; i < argc; i++) {
     if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
@@ -135,6 +290,8 @@ int cmd_plot(int argc, char **argv)
       dir = argv[++i];
     } else if (strcmp(argv[i], "--force") == 0) {
       force = 1;
+    } else if (strcmp(argv[i], "--model") == 0 && i + 1 < argc) {
+      model = argv[++i];
     } else if (argv[i][0] != '-' && file == NULL) {
       file = argv[i];
     } else {
@@ -147,13 +304,25 @@ int cmd_plot(int argc, char **argv)
     return CLI_EXIT_USAGE;
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
-  json_error_t je;
-  json_t *root = json_load_file(file, JSON_REJECT_DUPLICATES, &je);
-  if (root == NULL) {
-    cli_error("%s:%d:%d: %s", file, je.line, je.column, je.text);
-    return CLI_EXIT_INPUT;
-  }
+  size_t flen = strlen(file);
+  json_t *root = NULL;
   int rc;
+  int is_csv = flen > 4 && strcasecmp(file + flen - 4, ".csv") == 0;
+  if (model != NULL && !is_csv) {
+    cli_error("plot: --model selects rows of a rotor CSV file with a model column");
+    return CLI_EXIT_USAGE;
+  }
+  if (is_csv) {
+    rc = csv_to_result(file, model, &root);
+    if (rc) return rc;
+  } else {
+    json_error_t je;
+    root = json_load_file(file, JSON_REJECT_DUPLICATES, &je);
+    if (root == NULL) {
+      cli_error("%s:%d:%d: %s", file, je.line, je.column, je.text);
+      return CLI_EXIT_INPUT;
+    }
+  }
   if (json_is_array(json_object_get(root, "polars"))) {
     rc = fig_prepare_dir(dir, "polar", force);
     if (rc == 0) rc = plot_polars(file, root, dir);

@@ -14,6 +14,13 @@ echo "keep me" > "$tmp/existing.dat"
 head -c 200 "$src/docs/examples/inspection-3in.json" > "$tmp/truncated.json"
 sed 's/"mm"/"furlong"/' "$src/docs/examples/inspection-3in.json" > "$tmp/unit.json"
 head -c 5300000 /dev/zero | tr '\000' ' ' > "$tmp/huge.json"
+# result CSV files that the plot command must refuse, each with its line
+printf '# section: x\nre,alpha_deg,cl,cd,cm,converged\n1e5,0,0.1,0.01,0,true\n1e5,1,0.2,abc,0,true\n' > "$tmp/badnum.csv"
+printf 're,alpha_deg,cl,cd,cm\n1e5,0,0.1,0.01,0\n\n1e5,1,0.2\n' > "$tmp/ragged.csv"
+printf 'time,voltage\n0,1\n' > "$tmp/foreign.csv"
+printf 'rpm,speed_m_s,J,CT,CP,efficiency,thrust_N,power_W,converged\n5000,0,0,0.1,0.05,,1,2,maybe\n' > "$tmp/badconv.csv"
+printf 're,alpha_deg,cl,cd,cm\n1e5,"0,0.1,0.01,0\n' > "$tmp/quote.csv"
+printf 'rpm,speed_m_s,J,CT,CP,efficiency,power_W\n5000,0,0,0.1,0.05,,2\n' > "$tmp/nothrust.csv"
 pass=0; fail=0
 while IFS= read -r line; do
   case "$line" in ''|'#'*) continue ;; esac
