@@ -1,7 +1,7 @@
 #!/bin/sh
 # Validation report: run the validation tests with AIRSCREW_VALIDATION_OUT set, so that each
 # comparison with a published reference writes its rows, and gather them into one Markdown page
-# (OUT/validation.md, data in OUT/data/). usage: tools/validation-report.sh [BUILD_DIR [OUT_DIR]]
+# (OUT/validation.md, data in OUT/data/, figures in OUT/figures/). usage: tools/validation-report.sh [BUILD_DIR [OUT_DIR]]
 set -u
 build=${1:-build}; out=${2:-validation-report}
 mkdir -p "$out/data" || exit 1
@@ -15,6 +15,12 @@ for t in test_visc_validation test_rotor_bemt test_rotor_validation; do
     status=1
   fi
 done
+# figures (published values as markers, airscrew as lines) by the build's validation_figures
+figs=0
+if [ -x "$build/validation_figures" ]; then
+  if "$build/validation_figures" "$out/data" "$out/figures"; then figs=1; else
+    echo "validation-report: figures FAILED" >&2; status=1; fi
+fi
 md="$out/validation.md"
 {
   echo "# airscrew validation report"
@@ -34,6 +40,10 @@ md="$out/validation.md"
     echo
     sed -n 's/^# source: /Source: /p' "$f"
     echo
+    if [ $figs = 1 ] && [ -e "$out/figures/$name.svg" ]; then
+      echo "![$name: published values as markers, airscrew as lines](figures/$name.svg)"
+      echo
+    fi
     awk -F, '!/^#/ { line = "|"; for (i = 1; i <= NF; i++) line = line " " $i " |"; print line;
                      if (!hdr) { sep = "|"; for (i = 1; i <= NF; i++) sep = sep "---|"; print sep; hdr = 1 } }' "$f"
     echo

@@ -11,6 +11,11 @@ for t in closed_form_hover da4002_9in_5000rpm naca0012_re6e6_smooth naca0012_re6
          naca0012_lift_slope sd7003_re1e5; do
   grep -q "^## $t\$" "$md" || { echo "FAIL: table $t missing"; fail=1; }
 done
+# every comparison with a curve has its figure, linked from the page
+for t in closed_form_hover da4002_9in_5000rpm naca0012_re6e6_smooth naca0012_re6e6_tripped sd7003_re1e5; do
+  [ -s "$tmp/report/figures/$t.svg" ] && [ -s "$tmp/report/figures/$t.png" ] || { echo "FAIL: figure $t missing"; fail=1; }
+  grep -q "(figures/$t.svg)" "$md" || { echo "FAIL: figure $t not linked"; fail=1; }
+done
 grep -q "FAILED" "$md" && { echo "FAIL: a validation test failed"; fail=1; }
 [ $fail = 0 ] && echo "validation report complete: $(grep -c '^## ' "$md") tables"
 exit $fail
