@@ -1,7 +1,8 @@
 /* bench/study_visc_convergence.c
  * The converged share of the viscous polar sweep on the full grid of issue 3: the sample
  * sections and NACA 0012, 2412, 4412 at Re 30k, 60k, 100k, 200k and 1e6, alpha -6 to 16 deg
- * by 0.5 deg. Prints a table and the total; takes minutes. Figures only.
+ * by 0.5 deg. Prints a table and the total; takes minutes. Figures only. With STUDY_LIST_FAILED
+ * set, the angles that failed are listed on stderr.
  */
 #include <airscrew/airscrew.h>
 #include <gsl/gsl_errno.h>
@@ -47,6 +48,13 @@ int main(int argc, char **argv)
       ascr_polar_sweep(v, -6.0, 16.0, 0.5, pts, &sum, NULL, NULL, NULL);
       printf("  %3zu/%-3zu", sum.n_converged, sum.n_points);
       fflush(stdout);
+      if (getenv("STUDY_LIST_FAILED") != NULL) { /* where the failures are, on stderr */
+        fprintf(stderr, "%s Re %.0f failed at:", secs[is], res[ir]);
+        for (size_t i = 0; i < np; i++) {
+          if (!pts[i].converged) fprintf(stderr, " %.1f", pts[i].alpha_deg);
+        }
+        fprintf(stderr, "\n");
+      }
       total += sum.n_points;
       conv += sum.n_converged;
       free(pts);

@@ -22,6 +22,9 @@
 
 #include <math.h>
 
+/* width (in interval fractions) of the smooth minimum that keeps the transition point within
+ * its interval; it lies below min(f, 1) by at most TR_SMOOTH/2 of the interval */
+#define TR_SMOOTH 0.1
 #define LAG_K 2.8 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 
 typedef struct vev {
@@ -165,8 +168,11 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   eval(cx, a, 0, 0, &ea);
   double f = 1.0;
   if (ea.amp > 0.0 && dxi > 0.0) {
-    f = (cx->ncrit - a->c) / (ea.amp * dxi);
-    if (f > 1.0) f = 1.0;
+    /* the crossing point, held inside the interval by a smooth minimum: a hard clamp at the
+     * interval's end puts a kink in the residual across which the Newton iteration cycles
+     * (when the interval ends at a laminar separation, N need not reach N_crit in it) */
+    double fr = (cx->ncrit - a->c) / (ea.amp * dxi);
+    f = 0.5 * (fr + 1.0 - sqrt((fr - 1.0) * (fr - 1.0) + TR_SMOOTH * TR_SMOOTH));
   }
   vstate t;
   vev et;

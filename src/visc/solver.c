@@ -915,6 +915,10 @@ static int solve_structured(ascr_visc_solver *v)
  * and the edge velocity feed back on each other and the interval can cycle between two
  * neighbours; the clamped result is then off by at most one panel. */
 #define TR_MAX_MOVES 8
+/* An iteration whose residual has not fallen for this many steps is cycling across the kink of
+ * a transition interval whose crossing point sits at one of its ends: the interval may then
+ * move although the updates are not small. */
+#define TR_STUCK_ITERS 6
 static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
 {
   int changed = 0;
@@ -1316,7 +1320,8 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
   int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0, fine = 0, it_fine = 0;
-  double rel = INFINITY;
+  int since_best = 0; /* iterations since the residual last fell below 0.7 of its best */
+  double rel = INFINITY, rbest = INFINITY;
   update_ue(v);
   relocate_stagnation(v);
   if (!use_warm) {
@@ -1343,11 +1348,22 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     /* transition moves only once the iteration has settled with the present intervals:
      * moving it while far from a solution makes the Newton iteration chase a moving target */
     int tchange = 0;
-    if ((rel < 0.05 || it == 1) && n_moves < (fine ? TR_FINE_MOVES : TR_MAX_MOVES)) {
+    if ((rel < 0.05 || it == 1 || since_best >= TR_STUCK_ITERS) &&
+        n_moves < (fine ? TR_FINE_MOVES : TR_MAX_MOVES)) {
       tchange = update_transition(v, cxs, fine ? TR_HYST_FINE : TR_HYST);
       n_moves += tchange;
+      if (since_best >= TR_STUCK_ITERS) {
+        since_best = 0;
+        rbest = INFINITY;
+      }
     }
     double rmax = assemble(v, cxs);
+    if (rmax < 0.7 * rbest) {
+      rbest = rmax;
+      since_best = 0;
+    } else {
+      since_best++;
+    }
     /* unknowns in log form: theta, m, and sqrt(Ctau) where turbulent: the update of the log
      * unknown is the plain update divided by the unknown */
     int structured_ok = !v->dense_jac && solve_structured(v);
