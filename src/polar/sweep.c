@@ -82,19 +82,6 @@ static int solve_point(ascr_visc_solver *v, int have_last, double alast, double 
       return 1;
     }
   }
-  /* last resort: a fresh start at the target (transition placed by a direct march on the
-   * inviscid edge velocity), for when the converged neighbour's transition intervals are far
-   * from where this angle needs them */
-  ascr_visc_result rf;
-  if (getenv("NOFRESH")) { r->iterations = total_its; visc_restore(v, 0); return 0; }
-  st = ascr_visc_solver_solve(v, target * DEG, 0, &rf, NULL);
-  total_its += rf.iterations;
-  if (st == ASCR_OK) {
-    *r = rf;
-    r->iterations = total_its;
-    visc_snapshot(v, 0);
-    return 1;
-  }
   r->iterations = total_its;
   visc_restore(v, 0);
   return 0;

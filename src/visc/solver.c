@@ -1348,7 +1348,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     /* transition moves only once the iteration has settled with the present intervals:
      * moving it while far from a solution makes the Newton iteration chase a moving target */
     int tchange = 0;
-    if ((rel < 0.05 || it == 1 || (since_best >= TR_STUCK_ITERS && !getenv("NOSTUCK"))) &&
+    if ((rel < 0.05 || it == 1 || (since_best >= TR_STUCK_ITERS)) &&
         n_moves < (fine ? TR_FINE_MOVES : TR_MAX_MOVES)) {
       tchange = update_transition(v, cxs, fine ? TR_HYST_FINE : TR_HYST);
       n_moves += tchange;
