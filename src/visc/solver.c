@@ -918,7 +918,7 @@ static int solve_structured(ascr_visc_solver *v)
 /* An iteration whose residual has not fallen for this many steps is cycling across the kink of
  * a transition interval whose crossing point sits at one of its ends: the interval may then
  * move although the updates are not small. */
-#define TR_STUCK_ITERS 6
+#define TR_STUCK_ITERS 4
 static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
 {
   int changed = 0;
