@@ -181,7 +181,12 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     if (ft < f) f = ft;
   }
   if (f < 1e-6) f = 1e-6;
-  if (f_tr) *f_tr = f;
+  if (f_tr) {
+    int tripped = cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi;
+    f_tr[0] = f;
+    f_tr[1] = tripped ? INFINITY : a->c + ea.amp * dxi; /* N at b at the rate of a */
+    f_tr[2] = ea.c.hk;
+  }
   t = interp(a, b, f);
   eval(cx, &t, 0, 0, &et);
   double r0a, r1a, r0b, r1b;

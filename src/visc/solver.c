@@ -538,6 +538,34 @@ static int station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *
   return v->turb[k - 1] ? VR_TURB : VR_TRANS;
 }
 
+/* Is the converged transition on each surface one the e^N criterion allows? The interval
+ * kt-1 -> kt holds transition where N, growing at the rate of its laminar end, reaches N_crit;
+ * where it cannot (the crossing held at the interval's end), the interval must end at a
+ * laminar separation (Hk at its laminar end near the separation value: a bubble transition)
+ * or contain a trip. A transition left where N is far below N_crit on an attached layer (for
+ * instance a leading-edge transition of a cold start that the iteration could not move) is
+ * not a solution of the model. Returns a bit per side that fails (1 upper, 2 lower). */
+#define TR_CHECK_DN 1.0  /* N may fall short of N_crit by this much (hysteresis, smoothing) */
+#define TR_CHECK_HK 3.0  /* Hk from which a laminar layer is taken as separating */
+#define TR_FORCED_MOVES 12 /* forced moves per solve before the point is given up */
+static int transition_inconsistent(const ascr_visc_solver *v, const vctx cxs[3])
+{
+  int bad = 0;
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      if (!v->turb[k]) continue;
+      if (v->turb[k - 1]) break;
+      vstate sa = get_state(v, k - 1), sb = get_state(v, k);
+      double R[3], f[3] = {1.0, INFINITY, 0.0};
+      visc_residual(VR_TRANS, &cxs[side], &sa, &sb, NULL, R, f);
+      if (!(f[1] >= cxs[side].ncrit - TR_CHECK_DN || f[2] >= TR_CHECK_HK)) bad |= 1 << side;
+      break;
+    }
+  }
+  return bad;
+}
+
 /* Distance along the surface between the second stations of the two sides. */
 static double stag_span(const ascr_visc_solver *v)
 {
@@ -655,11 +683,11 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
     if (kind == VR_STAG) st[0] = k;
     vstate s[3];
     for (int q = 0; q < nsts; q++) s[q] = get_state(v, st[q]);
-    double R0[3], ftr = 1.0;
-    if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, &ftr);
+    double R0[3], ftr[3] = {1.0, INFINITY, 0.0};
+    if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
     else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
-    else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, &ftr);
-    if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr;
+    else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, ftr);
+    if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr[0];
     for (int e = 0; e < 3; e++) {
       v->R[3 * k + e] = R0[e];
       rmax = fmax(rmax, fabs(R0[e]));
@@ -900,6 +928,60 @@ static int solve_structured(ascr_visc_solver *v)
   return isfinite(emax) && emax <= 1e-6 * rmax + 1e-300;
 }
 
+/* Downstream move of the transition interval that starts at kt (first turbulent station) on a
+ * side ending before k1: a laminar march from the last laminar station over the next stations
+ * (at most 12) says where N reaches N_crit (or where the laminar layer separates: transition
+ * is then taken there, as in a separation bubble); the stations passed become laminar with the
+ * marched state. On the present edge velocity, or (forced = 1) on the inviscid one, moving at
+ * least one station: used when the iteration has settled with a transition the e^N criterion
+ * does not allow, where the present edge velocity carries the displacement of the turbulent
+ * layer that should not be there. Returns the new first turbulent station. */
+static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size_t kt,
+                              double hyst, int forced)
+{
+  enum { LOOK = 13 };
+  double ss[LOOK], uu[LOOK], tt[LOOK], hh[LOOK], nn[LOOK];
+  size_t cnt = 0;
+  for (size_t j = kt - 1; j < k1 && cnt < LOOK; j++, cnt++) {
+    ss[cnt] = v->xi[j];
+    uu[cnt] = fmax(forced && cnt > 0 ? v->ue_inv[j] : v->ue[j], 1e-4);
+  }
+  vstate a = get_state(v, kt - 1);
+  double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
+  int why = 0;
+  for (size_t q = 0; q < LOOK; q++) tt[q] = hh[q] = nn[q] = NAN;
+  size_t stop = bl_march_laminar_from(a.th, ha, a.c, ss, uu, cnt, cx->re, cx->mach,
+                                      cx->ncrit - hyst, tt, hh, nn, &why);
+  /* stop: index (in the look-ahead) of the station where the march stopped; stations
+   * 1..stop-1 become laminar */
+  size_t knew = kt + (stop > 0 ? stop - 1 : 0);
+  if (why == 0) knew = kt + cnt - 1;
+  if (forced && knew == kt && cnt > 1 && kt + 1 < k1) {
+    knew = kt + 1;
+    if (!isfinite(tt[1]) || !isfinite(hh[1]) || !isfinite(nn[1])) {
+      tt[1] = a.th;
+      hh[1] = ha;
+      nn[1] = a.c;
+    }
+  }
+  if (cx->xi_trip >= 0.0) {
+    for (size_t j = kt; j < knew; j++) {
+      if (v->xi[j] >= cx->xi_trip) {
+        knew = j;
+        break;
+      }
+    }
+  }
+  for (size_t j = kt; j < knew; j++) {
+    size_t q = j - (kt - 1);
+    v->turb[j] = 0;
+    v->th[j] = tt[q];
+    v->cc[j] = nn[q];
+    v->mm[j] = hh[q] * tt[q] * fmax(v->ue[j], 1e-6);
+  }
+  return knew > kt ? knew : kt;
+}
+
 /* Re-locate transition per side from the current state. Returns 1 if a flag changed.
  * Hysteresis of TR_HYST in N: within it the transition interval keeps its place and the
  * crossing point moves inside it (clamped to its ends), which stops the interval from
@@ -953,38 +1035,8 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst
      * laminar layer separates: transition is then taken there, as in a separation bubble);
      * the stations passed become laminar with the marched state */
     if (!changed && kt < k1 && kt > k0) {
-      enum { LOOK = 13 };
-      double ss[LOOK], uu[LOOK], tt[LOOK], hh[LOOK], nn[LOOK];
-      size_t cnt = 0;
-      for (size_t j = kt - 1; j < k1 && cnt < LOOK; j++, cnt++) {
-        ss[cnt] = v->xi[j];
-        uu[cnt] = fmax(v->ue[j], 1e-4);
-      }
-      vstate a = get_state(v, kt - 1);
-      double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
-      int why = 0;
-      size_t stop = bl_march_laminar_from(a.th, ha, a.c, ss, uu, cnt, cx->re, cx->mach,
-                                          cx->ncrit - hyst, tt, hh, nn, &why);
-      /* stop: index (in the look-ahead) of the station where the march stopped; stations
-       * 1..stop-1 become laminar */
-      size_t knew = kt + (stop > 0 ? stop - 1 : 0);
-      if (why == 0) knew = kt + cnt - 1;
-      if (cx->xi_trip >= 0.0) {
-        for (size_t j = kt; j < knew; j++) {
-          if (v->xi[j] >= cx->xi_trip) {
-            knew = j;
-            break;
-          }
-        }
-      }
+      size_t knew = move_downstream(v, cx, k1, kt, hyst, 0);
       if (knew > kt) {
-        for (size_t j = kt; j < knew; j++) {
-          size_t q = j - (kt - 1);
-          v->turb[j] = 0;
-          v->th[j] = tt[q];
-          v->cc[j] = nn[q];
-          v->mm[j] = hh[q] * tt[q] * fmax(v->ue[j], 1e-6);
-        }
         changed = 1;
         kt = knew;
       }
@@ -1319,6 +1371,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
+  int n_forced = 0; /* forced moves of a transition the e^N criterion does not allow */
   int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0, fine = 0, it_fine = 0;
   int since_best = 0; /* iterations since the residual last fell below 0.7 of its best */
   double rel = INFINITY, rbest = INFINITY;
@@ -1433,6 +1486,26 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     if (v->trace) v->trace(v->trace_ctx, it, rmax, rel, rlx, tchange, smoved > 0);
     if (smoved < 0) break;
     if (rel < v->p.tol && !tchange && smoved == 0) {
+      /* settled: but with a transition the e^N criterion allows? If not, move the offending
+       * interval downstream on the inviscid edge velocity and go on iterating */
+      vctx cc3[3] = {context(v, 0), context(v, 1), context(v, 2)};
+      int bad = transition_inconsistent(v, cc3);
+      if (bad && n_forced < TR_FORCED_MOVES) {
+        for (int side = 0; side < 2; side++) {
+          if (!(bad & (1 << side))) continue;
+          size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+          size_t kt = k1;
+          for (size_t k = k0 + 1; k < k1; k++) {
+            if (v->turb[k]) {
+              kt = k;
+              break;
+            }
+          }
+          if (kt < k1 && kt > k0) v->itr[side] = move_downstream(v, &cc3[side], k1, kt, 0.0, 1);
+        }
+        n_forced++;
+        continue;
+      }
       if (!fine) {
         /* converged with the wide band: keep this solution and try to place transition
          * more exactly with the narrow one */
@@ -1460,6 +1533,8 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   update_ue(v);
   vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};
+  int tr_bad = converged && transition_inconsistent(v, cxs) != 0;
+  if (tr_bad) converged = 0;
   results(v, cxs, r);
   r->iterations = it > v->p.max_iter ? v->p.max_iter : it;
   r->residual = rel;
@@ -1471,6 +1546,8 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     return core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged "
                      "after %d iterations (largest relative update %.2e%s)",
                      alpha_rad * 180.0 / ASCR_PI, v->p.re, r->iterations, rel,
+                     tr_bad ? "; the iteration settled with transition where N is far below "
+                              "N_crit on an attached layer" :
                      stalled ? "; stopped after 8 steps without descent" : "");
   }
   return ASCR_OK;

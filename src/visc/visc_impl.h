@@ -37,7 +37,9 @@ typedef struct vctx {
 
 /* Residuals R[0..2] of one station (kinds above). For VR_MERGE, a = upper TE, b = lower TE,
  * w = first wake station; otherwise a is the previous station and b the current one.
- * For VR_TRANS, *f_tr receives the fraction of the interval at which transition occurs. */
+ * For VR_TRANS, f_tr[0] receives the fraction of the interval at which transition occurs,
+ * f_tr[1] the amplification N that the rate at a reaches at b (infinite where a trip lies in
+ * the interval) and f_tr[2] the shape parameter Hk at a. */
 void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, const vstate *w,
                    double *R, double *f_tr);
 
