@@ -944,7 +944,7 @@ static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, si
   size_t cnt = 0;
   for (size_t j = kt - 1; j < k1 && cnt < LOOK; j++, cnt++) {
     ss[cnt] = v->xi[j];
-    uu[cnt] = fmax(forced ? v->ue_inv[j] : v->ue[j], 1e-4);
+    uu[cnt] = fmax(forced && cnt > 0 ? v->ue_inv[j] : v->ue[j], 1e-4);
   }
   vstate a = get_state(v, kt - 1);
   double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
