@@ -166,6 +166,10 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
   snprintf(out, 17, "%016llx", (unsigned long long)h);
 }
 
+/* Raised whenever the viscous numerics change their results (so that cached curves computed by
+ * the earlier numerics are not used): 2 = smooth transition crossing and transition check. */
+#define CURVE_NUMERICS_REVISION 2
+
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)
 {
@@ -181,9 +185,9 @@ void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq,
     snprintf(tl, sizeof tl, "%.5f", rq->trip_lower);
   }
   int k = snprintf(buf, sizeof buf,
-                   "airscrew %s; section %s; Re %.6e; Mach %.4f; ncrit %.4f; trip upper %s; trip lower "
+                   "airscrew %s numerics %d; section %s; Re %.6e; Mach %.4f; ncrit %.4f; trip upper %s; trip lower "
                    "%s; alpha %.4f:%.4f:%.4f deg; panels %zu",
-                   ascr_version(), fingerprint, rq->re, rq->mach, rq->ncrit, tu, tl,
+                   ascr_version(), CURVE_NUMERICS_REVISION, fingerprint, rq->re, rq->mach, rq->ncrit, tu, tl,
                    rq->alpha_lo_deg, rq->alpha_hi_deg, rq->alpha_step_deg, rq->n_panels);
   if (k < 0) {
     k = 0;
