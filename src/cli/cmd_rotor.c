@@ -312,13 +312,9 @@ int cmd_rotor(int argc, char **argv)
   rotor_point *pts = calloc(npt, sizeof *pts);
   ascr_rotor_element *els = calloc(npt * rp.n_elements, sizeof *els);
   if (pts == NULL || els == NULL) {
-    free(pts);
-    free(els);
-    cli_tables_free(&tabs);
-    ascr_blade_free(blade);
-    cli_output_discard(&out);
     cli_error("out of memory");
-    return CLI_EXIT_INTERNAL;
+    rc = CLI_EXIT_INTERNAL;
+    goto done;
   }
   const ascr_polar_table *const *tv = (const ascr_polar_table *const *)tabs.tables;
   size_t nconv = 0;
@@ -354,14 +350,7 @@ int cmd_rotor(int argc, char **argv)
     cli_error("rotor: no operating point converged");
     rc = CLI_EXIT_ANALYSIS;
   }
-  if (rc != 0) {
-    free(pts);
-    free(els);
-    cli_tables_free(&tabs);
-    ascr_blade_free(blade);
-    cli_output_discard(&out);
-    return rc;
-  }
+  if (rc != 0) goto done;
 
   FILE *fp = out.fp;
   const char *bname = blade->name != NULL ? blade->name : argv[optind];
@@ -396,14 +385,7 @@ int cmd_rotor(int argc, char **argv)
     if (rc == 0) rc = fig_rotor(plotdir, bname, fr, npt);
     free(fr);
     free(sb);
-    if (rc != 0) {
-      free(pts);
-      free(els);
-      cli_tables_free(&tabs);
-      ascr_blade_free(blade);
-      cli_output_discard(&out);
-      return rc;
-    }
+    if (rc != 0) goto done;
   }
   if (json) {
     json_t *o = json_object();
@@ -563,9 +545,14 @@ int cmd_rotor(int argc, char **argv)
     fputc('\n', fp);
     for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "caution: %s\n", rotor_cautions[i]);
   }
+done: /* one exit for the points, the tables, the blade and the collected output */
   free(pts);
   free(els);
   cli_tables_free(&tabs);
   ascr_blade_free(blade);
+  if (rc != 0) {
+    cli_output_discard(&out);
+    return rc;
+  }
   return cli_output_commit(&out);
 }
