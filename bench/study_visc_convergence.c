@@ -2,7 +2,8 @@
  * The converged share of the viscous polar sweep on the full grid of issue 3: the sample
  * sections and NACA 0012, 2412, 4412 at Re 30k, 60k, 100k, 200k and 1e6, alpha -6 to 16 deg
  * by 0.5 deg. Prints a table and the total; takes minutes. Figures only. With STUDY_LIST_FAILED
- * set, the angles that failed are listed on stderr.
+ * set, the angles that failed are listed on stderr; with STUDY_EXACT set, the exact transition
+ * formulation is used (ascr_visc_params.exact_transition).
  */
 #include <airscrew/airscrew.h>
 #include <gsl/gsl_errno.h>
@@ -41,6 +42,7 @@ int main(int argc, char **argv)
     for (int ir = 0; ir < 5; ir++) {
       ascr_visc_params p = ascr_visc_params_defaults();
       p.re = res[ir];
+      p.exact_transition = getenv("STUDY_EXACT") != NULL;
       ascr_visc_solver_set(v, w, &p, NULL);
       size_t np = ascr_polar_grid_size(-6.0, 16.0, 0.5);
       ascr_polar_point *pts = calloc(np, sizeof *pts);

@@ -69,7 +69,7 @@ static void two_eq(const vstate *a, const vev *ea, const vstate *b, const vev *e
         bl_interval_integral(ea->ke, eb->ke, a->xi, b->xi);
 }
 
-static double sqrt_ctau_start(const vctx *cx, const vstate *s)
+double visc_sqrt_ctau_start(const vctx *cx, const vstate *s)
 {
   vev e;
   vstate t = *s;
@@ -97,6 +97,49 @@ static vstate interp(const vstate *a, const vstate *b, double f)
   t.c = a->c;
   t.turb = 0;
   return t;
+}
+
+/* g(f) of the transition interval (see visc_residual): N at fraction f of a -> b minus N_crit. */
+static double crossing_g(const vctx *cx, const vstate *a, const vev *ea, const vstate *b, double f)
+{
+  double xt = a->xi + f * (b->xi - a->xi);
+  return a->c + bl_interval_integral(ea->amp, ea->amp, a->xi, xt) - cx->ncrit;
+}
+
+/* Crossing fraction f in [0, 1] of the transition interval a -> b, and N at b (*nb) by the
+ * laminar amplification equation. Bracketing by the Illinois variant of regula falsi
+ * (Dowell & Jarratt, BIT 11, 1971) to |df| < 1e-14: deterministic and to round-off, so that
+ * forward differences of the residual see the true dependence of f on the states. */
+#define CROSS_TOL 1e-14
+#define CROSS_MAX 100
+static double crossing(const vctx *cx, const vstate *a, const vev *ea, const vstate *b, double *nb)
+{
+  double g0 = a->c - cx->ncrit;
+  double g1 = crossing_g(cx, a, ea, b, 1.0);
+  *nb = g1 + cx->ncrit;
+  if (!(b->xi > a->xi)) return 1.0;
+  if (g0 >= 0.0) return 0.0;
+  if (!(g1 >= 0.0)) return 1.0; /* also NaN: the caller sees *nb */
+  double lo = 0.0, hi = 1.0, glo = g0, ghi = g1, f = 1.0;
+  int side = 0;
+  for (int it = 0; it < CROSS_MAX && hi - lo > CROSS_TOL; it++) {
+    f = (lo * ghi - hi * glo) / (ghi - glo);
+    if (!(f > lo && f < hi)) f = 0.5 * (lo + hi);
+    double gf = crossing_g(cx, a, ea, b, f);
+    if (gf == 0.0) return f;
+    if (gf < 0.0) {
+      lo = f;
+      glo = gf;
+      if (side == -1) ghi *= 0.5;
+      side = -1;
+    } else {
+      hi = f;
+      ghi = gf;
+      if (side == 1) glo *= 0.5;
+      side = 1;
+    }
+  }
+  return f;
 }
 
 /* A first station is seen at its distance from the stagnation point, but no closer than
@@ -140,8 +183,8 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   if (kind == VR_MERGE) {
     double da = a->m / fmax(a->ue, 1e-6), db = b->m / fmax(b->ue, 1e-6);
     double dw = w->m / fmax(w->ue, 1e-6);
-    double sca = a->turb ? a->c : sqrt_ctau_start(cx, a);
-    double scb = b->turb ? b->c : sqrt_ctau_start(cx, b);
+    double sca = a->turb ? a->c : visc_sqrt_ctau_start(cx, a);
+    double scb = b->turb ? b->c : visc_sqrt_ctau_start(cx, b);
     R[0] = log(fmax(w->th, 1e-12) / (a->th + b->th));
     R[1] = log(fmax(dw, 1e-12) / (da + db));
     R[2] = w->c - (a->th * sca + b->th * scb) / (a->th + b->th);
@@ -157,7 +200,9 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     if (turb) {
       R[2] = (b->c - a->c) - dxi * eb.lag;
     } else {
-      R[2] = b->c - a->c - bl_interval_integral(ea.amp, eb.amp, a->xi, b->xi);
+      /* exact formulation: amplification at the rate of the interval's upstream end, the
+       * rule of the transition interval below (why: there) */
+      R[2] = b->c - a->c - bl_interval_integral(ea.amp, cx->exact_tr ? ea.amp : eb.amp, a->xi, b->xi);
     }
     return;
   }
@@ -166,8 +211,23 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
    * mix in a turbulent shape parameter and make N non-monotonic in the crossing point) */
   vev ea;
   eval(cx, a, 0, 0, &ea);
-  double f = 1.0;
-  if (ea.amp > 0.0 && dxi > 0.0) {
+  double f = 1.0, f_nb = NAN;
+  /* Exact formulation (exact_tr). The crossing point t = a + f (b - a) solves
+   *     g(f) = N_a + I(rate_a, rate_a, xi_a, xi_t) - N_crit = 0,
+   * the amplification equation of the laminar stations integrated from a to the transition
+   * point (Drela & Giles 1987, transition interval; Drela 1989, LNE 54). The rate is that of
+   * the interval's upstream end, in the laminar intervals as here: station b carries a
+   * turbulent state, and a rate taken there would see a turbulent shape parameter. With the
+   * same rule on both sides of a switch, N at b predicted here is exactly the N that station b
+   * gets when it turns laminar, so the interval rule of the driver cannot cycle between two
+   * neighbours. f is found to round-off by a bracketing iteration, so it is a smooth function
+   * of the end states and its derivatives enter the Jacobian through the residual's
+   * differences. Where g(1) < 0 the amplification does not reach N_crit in this interval:
+   * f = 1 and f_tr[1] < N_crit tells the caller to move the interval downstream; where
+   * g(0) >= 0 (N_a >= N_crit) f = 0 and the caller moves it upstream. */
+  if (cx->exact_tr) {
+    f = crossing(cx, a, &ea, b, &f_nb);
+  } else if (ea.amp > 0.0 && dxi > 0.0) {
     /* the crossing point, held inside the interval by a smooth minimum: a hard clamp at the
      * interval's end puts a kink in the residual across which the Newton iteration cycles
      * (when the interval ends at a laminar separation, N need not reach N_crit in it) */
@@ -184,7 +244,8 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   if (f_tr) {
     int tripped = cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi;
     f_tr[0] = f;
-    f_tr[1] = tripped ? INFINITY : a->c + ea.amp * dxi; /* N at b at the rate of a */
+    /* N at b at the rate of a (exact formulation: by the laminar amplification equation) */
+    f_tr[1] = tripped ? INFINITY : cx->exact_tr ? f_nb : a->c + ea.amp * dxi;
     f_tr[2] = ea.c.hk;
   }
   t = interp(a, b, f);
@@ -193,7 +254,7 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   two_eq(a, &ea, &t, &et, &r0a, &r1a);
   vstate tt = t;
   tt.turb = 1;
-  tt.c = sqrt_ctau_start(cx, &t);
+  tt.c = visc_sqrt_ctau_start(cx, &t);
   vev ett, eb;
   eval(cx, &tt, 1, 0, &ett);
   eval(cx, b, 1, 0, &eb);

@@ -48,6 +48,7 @@ ascr_visc_params ascr_visc_params_defaults(void)
   p.wake_length = 1.0;
   p.max_iter = 60;
   p.tol = 1e-7;
+  p.exact_transition = 0;
   return p;
 }
 
@@ -585,6 +586,7 @@ static vctx context(const ascr_visc_solver *v, int side)
   c.stag_a = (fmax(v->ue[1], 0.0) + fmax(v->ue[v->nu + 1], 0.0)) / stag_span(v);
   if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
   c.xi_min = 0.25 * v->dsp;
+  c.exact_tr = v->p.exact_transition != 0;
   double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
   if (side < 2 && xt >= 0.0 && xt <= 1.0) {
     /* xi of the trip: first node on this side at or behind x = xt */
@@ -992,6 +994,8 @@ static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, si
 #define TR_HYST_FINE 0.02
 #define TR_FINE_MOVES 4
 #define TR_FINE_ITERS 20
+/* Iterations the exact phase (exact_transition) may take after the banded phase settled. */
+#define TR_EXACT_ITERS 30
 /* After this many moves the transition intervals stay where they are and the crossing point
  * is found within them (clamped to their ends): in separation bubbles the transition point
  * and the edge velocity feed back on each other and the interval can cycle between two
@@ -1041,6 +1045,76 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst
         kt = knew;
       }
     }
+    v->itr[side] = kt;
+  }
+  return changed;
+}
+
+/* Transition interval of each side from the current state (Drela & Giles 1987: the interval
+ * in which the amplification reaches N_crit, or the trip). Called at the start of every Newton
+ * iteration; the rule has no memory, no band and no budget, so a converged state is one in
+ * which every laminar station has N < N_crit, lies upstream of the trip, and the transition
+ * interval's crossing point (residual.c) lies inside it:
+ *  - upstream: the first laminar station with N >= N_crit, or at or past the trip, becomes
+ *    turbulent with the stations behind it; sqrt(Ctau) starts from the transition relation
+ *    (bl_ctau_initial) at its state;
+ *  - downstream: where N at the interval's end, by the laminar amplification equation, stays
+ *    below N_crit and no trip lies in the interval, its end station becomes laminar with that N
+ *    (theta and m kept). One station per iteration: the Newton step that follows settles the
+ *    layer before the next interval is judged.
+ * Returns 1 if an interval moved. */
+#define TR_MOVE_STATIONS 4 /* most stations a downstream move passes at once */
+static int transition_exact(ascr_visc_solver *v, const vctx cxs[3])
+{
+  int changed = 0;
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    const vctx *cx = &cxs[side];
+    size_t kt = k1;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      if (v->turb[k]) {
+        kt = k;
+        break;
+      }
+    }
+    /* everything behind the first turbulent station is turbulent */
+    for (size_t k = kt; k < k1; k++) v->turb[k] = 1;
+    int moved = 0;
+    for (size_t k = k0 + 1; k < kt; k++) {
+      int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip;
+      if (v->cc[k] >= cx->ncrit || trip) {
+        for (size_t j = k; j < kt; j++) {
+          vstate s = get_state(v, j);
+          v->turb[j] = 1;
+          v->cc[j] = visc_sqrt_ctau_start(cx, &s);
+        }
+        kt = k;
+        moved = 1;
+        break;
+      }
+    }
+    if (!moved && kt < k1 && kt > k0 + 1) {
+      vstate sa = get_state(v, kt - 1), sb = get_state(v, kt);
+      double R[3], f[3] = {1.0, INFINITY, 0.0};
+      visc_residual(VR_TRANS, cx, &sa, &sb, NULL, R, f);
+      if (isfinite(f[1]) && f[1] < cx->ncrit) {
+        /* N grows on at the rate of the last laminar station, the stations passed turn
+         * laminar, until N_crit or the trip is reached: a first guess, which the following
+         * iterations settle and the rule above may move back upstream */
+        double na = sa.c, rate = (f[1] - na) / fmax(log(sb.xi / sa.xi) * 0.5 * (sa.xi + sb.xi), 1e-300);
+        size_t j = kt;
+        while (j < k1 && j < kt + TR_MOVE_STATIONS) {
+          double nj = na + rate * 0.5 * (sa.xi + v->xi[j]) * log(v->xi[j] / sa.xi);
+          if (!(nj < cx->ncrit) || (cx->xi_trip >= 0.0 && v->xi[j] >= cx->xi_trip)) break;
+          v->turb[j] = 0;
+          v->cc[j] = fmax(nj, 0.0);
+          j++;
+        }
+        kt = j;
+        moved = 1;
+      }
+    }
+    changed |= moved;
     v->itr[side] = kt;
   }
   return changed;
@@ -1373,6 +1447,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   v->f_tr[0] = v->f_tr[1] = 1.0;
   int n_forced = 0; /* forced moves of a transition the e^N criterion does not allow */
   int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0, fine = 0, it_fine = 0;
+  int exact = 0, it_exact = 0; /* exact phase (exact_transition) */
   int since_best = 0; /* iterations since the residual last fell below 0.7 of its best */
   double rel = INFINITY, rbest = INFINITY;
   update_ue(v);
@@ -1393,7 +1468,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       v->turb[k] = 0;
     }
   }
-  for (it = 1; it <= v->p.max_iter + (fine ? TR_FINE_ITERS : 0); it++) {
+  for (it = 1; it <= v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + (exact ? TR_EXACT_ITERS : 0); it++) {
     update_ue(v);
     set_xi(v);
     clamp_shape(v);
@@ -1401,7 +1476,18 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     /* transition moves only once the iteration has settled with the present intervals:
      * moving it while far from a solution makes the Newton iteration chase a moving target */
     int tchange = 0;
-    if ((rel < 0.05 || it == 1 || (since_best >= TR_STUCK_ITERS)) &&
+    if (exact) {
+      /* exact phase: the interval rule of transition_exact, judged once the iteration has
+       * settled with the present intervals (or stopped making progress): a station just
+       * switched carries the other regime's state until a Newton step has settled it */
+      if (rel < 0.05 || since_best >= TR_STUCK_ITERS) {
+        tchange = transition_exact(v, cxs);
+        if (since_best >= TR_STUCK_ITERS) {
+          since_best = 0;
+          rbest = INFINITY;
+        }
+      }
+    } else if ((rel < 0.05 || it == 1 || (since_best >= TR_STUCK_ITERS)) &&
         n_moves < (fine ? TR_FINE_MOVES : TR_MAX_MOVES)) {
       tchange = update_transition(v, cxs, fine ? TR_HYST_FINE : TR_HYST);
       n_moves += tchange;
@@ -1506,6 +1592,23 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
         n_forced++;
         continue;
       }
+      if (exact) {
+        /* settled in the exact phase: converged if the intervals hold at this state too */
+        update_ue(v);
+        set_xi(v);
+        vctx ce[3] = {context(v, 0), context(v, 1), context(v, 2)};
+        if (transition_exact(v, ce)) continue;
+        converged = 1;
+        break;
+      }
+      if (v->p.exact_transition) {
+        /* the banded phase has brought the iteration near a solution; the exact phase now
+         * places transition by the e^N rule without band or budget, and only a state it
+         * accepts is a result (no return to the banded solution) */
+        exact = 1;
+        it_exact = it;
+        continue;
+      }
       if (!fine) {
         /* converged with the wide band: keep this solution and try to place transition
          * more exactly with the narrow one */
@@ -1520,6 +1623,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       break;
     }
     if (fine && it - it_fine >= TR_FINE_ITERS) break;
+    if (exact && it - it_exact >= TR_EXACT_ITERS) break;
   }
   if (fine && !converged) {
     /* the narrow band did not settle: the wide-band solution stands (restaged at its own
@@ -1533,10 +1637,11 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   }
   update_ue(v);
   vctx cxs[3] = {context(v, 0), context(v, 1), context(v, 2)};
-  int tr_bad = converged && transition_inconsistent(v, cxs) != 0;
+  int tr_bad = converged && !exact && transition_inconsistent(v, cxs) != 0;
   if (tr_bad) converged = 0;
   results(v, cxs, r);
-  r->iterations = it > v->p.max_iter ? v->p.max_iter : it;
+  int it_cap = v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + (exact ? TR_EXACT_ITERS : 0);
+  r->iterations = it > it_cap ? it_cap : it;
   r->residual = rel;
   r->converged = converged;
   int finite = isfinite(r->cl) && isfinite(r->cd) && isfinite(r->cm);

@@ -33,6 +33,7 @@ typedef struct vctx {
   double xi_trip; /* forced transition xi on this side (negative for none) */
   double stag_a;  /* edge-velocity gradient at the stagnation point, d ue / d xi */
   double xi_min;  /* least distance of a first station from the stagnation point */
+  int exact_tr;   /* 1: exact transition formulation (ascr_visc_params.exact_transition) */
 } vctx;
 
 /* Residuals R[0..2] of one station (kinds above). For VR_MERGE, a = upper TE, b = lower TE,
@@ -42,6 +43,10 @@ typedef struct vctx {
  * the interval) and f_tr[2] the shape parameter Hk at a. */
 void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, const vstate *w,
                    double *R, double *f_tr);
+
+/* sqrt(Ctau) at the start of turbulent flow for the (laminar) state s: bl_ctau_initial at the
+ * shape parameter of s. */
+double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
 
 /* Station with the stagnation similarity start: the Hiemenz shape parameter of the closure. */
 double visc_hiemenz_h(void);

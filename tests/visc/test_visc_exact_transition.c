@@ -1,0 +1,110 @@
+/* tests/visc/test_visc_exact_transition.c
+ * The exact transition formulation (ascr_visc_params.exact_transition): where it converges, a
+ * condition has one answer whatever path reached it, and a symmetric section at zero incidence
+ * has zero lift and equal transition points. Regression-level claims on cases that converge
+ * today; the full property test over 12 (section, Re) pairs waits until the formulation
+ * converges on the extended grid (issue 11; bench/study_visc_uniqueness prints the figures).
+ */
+#include "ascr_test.h"
+
+#include <airscrew/airscrew.h>
+#include <gsl/gsl_errno.h>
+#include <math.h>
+#include <stdlib.h>
+
+#define DEG (3.14159265358979323846 / 180.0)
+/* issue 11's uniqueness tolerances: well below the differences the banded iteration gives
+ * between paths (up to 0.11 in cl and 32 % in cd on the study's pairs) */
+#define DCL_MAX 0.005
+#define DCD_REL_MAX 0.01
+/* symmetric section at 0 deg: issue 11's targets */
+#define CL_SYM_MAX 1e-3
+#define XTR_SYM_MAX 0.005
+
+typedef struct fixture {
+  ascr_geom_section *raw, *s;
+  ascr_panel_solver *w;
+  ascr_visc_solver *v;
+} fixture;
+
+static void setup(fixture *f, const char *spec, double re)
+{
+  ascr_errbuf e;
+  assert_int_equal(ascr_geom_section_from_spec(spec, &f->raw, &e), ASCR_OK);
+  assert_int_equal(ascr_geom_section_repanel(f->raw, NULL, &f->s, &e), ASCR_OK);
+  size_t n = ascr_geom_section_size(f->s);
+  f->w = ascr_panel_solver_alloc(n);
+  assert_int_equal(ascr_panel_solver_set(f->w, f->s, &e), ASCR_OK);
+  f->v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = re;
+  p.exact_transition = 1;
+  assert_int_equal(ascr_visc_solver_set(f->v, f->w, &p, &e), ASCR_OK);
+}
+
+static void teardown(fixture *f)
+{
+  ascr_visc_solver_free(f->v);
+  ascr_panel_solver_free(f->w);
+  ascr_geom_section_free(f->s);
+  ascr_geom_section_free(f->raw);
+}
+
+/* walk over the given angles: the first as a single point (ascr_polar_solve_point: cold, or by
+ * continuation from the zero-lift angle if that fails), the rest warm-started; the last result */
+static void walk(ascr_visc_solver *v, const double *a, int n, ascr_visc_result *r)
+{
+  ascr_errbuf e;
+  for (int i = 0; i < n; i++) {
+    ascr_status st = i == 0 ? ascr_polar_solve_point(v, a[i], r, &e)
+                            : ascr_visc_solver_solve(v, a[i] * DEG, 1, r, &e);
+    assert_int_equal(st, ASCR_OK);
+  }
+}
+
+static void test_visc_exact_transition_one_answer_whatever_the_path(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "naca2412", 1e5);
+  /* a cold point and a walk down from above (a walk up from 2 deg does not converge yet: its
+   * start fails in the banded phase, see the note on issue 11) */
+  const double cold[] = {3.0}, down[] = {6.0, 5.0, 4.0, 3.5, 3.0};
+  ascr_visc_result rc, rd;
+  walk(f.v, cold, 1, &rc);
+  walk(f.v, down, 5, &rd);
+  const ascr_visc_result *r[2] = {&rc, &rd};
+  for (int i = 0; i < 2; i++) {
+    for (int j = i + 1; j < 2; j++) {
+      assert_true(fabs(r[i]->cl - r[j]->cl) <= DCL_MAX);
+      assert_true(fabs(r[i]->cd - r[j]->cd) <= DCD_REL_MAX * fmin(r[i]->cd, r[j]->cd));
+    }
+  }
+  teardown(&f);
+}
+
+static void test_visc_exact_transition_symmetric_section_has_no_lift_at_zero(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "naca0012", 1e6);
+  const double from_below[] = {-1.0, -0.5, 0.0}, from_above[] = {1.0, 0.5, 0.0};
+  ascr_visc_result rb, ra;
+  walk(f.v, from_below, 3, &rb);
+  walk(f.v, from_above, 3, &ra);
+  assert_true(fabs(rb.cl) < CL_SYM_MAX && fabs(ra.cl) < CL_SYM_MAX);
+  assert_true(fabs(rb.x_transition_upper - rb.x_transition_lower) < XTR_SYM_MAX);
+  assert_true(fabs(ra.x_transition_upper - ra.x_transition_lower) < XTR_SYM_MAX);
+  assert_true(fabs(ra.cd - rb.cd) <= DCD_REL_MAX * fmin(ra.cd, rb.cd));
+  teardown(&f);
+}
+
+int main(void)
+{
+  gsl_set_error_handler_off();
+  const struct CMUnitTest tests[] = {
+    cmocka_unit_test(test_visc_exact_transition_one_answer_whatever_the_path),
+    cmocka_unit_test(test_visc_exact_transition_symmetric_section_has_no_lift_at_zero),
+  };
+  return cmocka_run_group_tests(tests, NULL, NULL);
+}
