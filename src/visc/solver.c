@@ -1005,20 +1005,22 @@ static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, si
  * a transition interval whose crossing point sits at one of its ends: the interval may then
  * move although the updates are not small. */
 #define TR_STUCK_ITERS 4
+/* First turbulent station of the side's stations k0+1 .. k1-1 (k1 if none). */
+static size_t first_turbulent(const ascr_visc_solver *v, size_t k0, size_t k1)
+{
+  for (size_t k = k0 + 1; k < k1; k++) {
+    if (v->turb[k]) return k;
+  }
+  return k1;
+}
+
 static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
 {
   int changed = 0;
   for (int side = 0; side < 2; side++) {
     size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
     const vctx *cx = &cxs[side];
-    /* first turbulent station */
-    size_t kt = k1;
-    for (size_t k = k0 + 1; k < k1; k++) {
-      if (v->turb[k]) {
-        kt = k;
-        break;
-      }
-    }
+    size_t kt = first_turbulent(v, k0, k1);
     /* upstream move: a laminar station already past N_crit, or past the trip */
     for (size_t k = k0 + 1; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip && v->xi[k - 1] < cx->xi_trip;
@@ -1070,13 +1072,7 @@ static int transition_exact(ascr_visc_solver *v, const vctx cxs[3])
   for (int side = 0; side < 2; side++) {
     size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
     const vctx *cx = &cxs[side];
-    size_t kt = k1;
-    for (size_t k = k0 + 1; k < k1; k++) {
-      if (v->turb[k]) {
-        kt = k;
-        break;
-      }
-    }
+    size_t kt = first_turbulent(v, k0, k1);
     /* everything behind the first turbulent station is turbulent */
     for (size_t k = kt; k < k1; k++) v->turb[k] = 1;
     int moved = 0;
