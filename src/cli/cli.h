@@ -117,9 +117,11 @@ typedef struct cli_visc_opts {
   double turbulence;  /* percent; NaN: not given */
   double trip_upper;  /* x/c; NaN: none */
   double trip_lower;
+  int exact;          /* --exact-transition given */
 } cli_visc_opts;
 void cli_visc_opts_init(cli_visc_opts *o);
-/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower. */
+/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower,
+ * 'X' --exact-transition (no argument). */
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg);
 ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach);
 

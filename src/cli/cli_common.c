@@ -346,6 +346,7 @@ void cli_visc_opts_init(cli_visc_opts *o)
   o->turbulence = NAN;
   o->trip_upper = NAN;
   o->trip_lower = NAN;
+  o->exact = 0;
 }
 
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
@@ -367,6 +368,9 @@ int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
     return cli_parse_double("--trip-upper", arg, 0.0, 1.0, &o->trip_upper);
   case 'L':
     return cli_parse_double("--trip-lower", arg, 0.0, 1.0, &o->trip_lower);
+  case 'X':
+    o->exact = 1;
+    return 0;
   }
   return 1;
 }
@@ -383,6 +387,7 @@ ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach)
   }
   if (!isnan(o->trip_upper)) p.trip_upper = o->trip_upper;
   if (!isnan(o->trip_lower)) p.trip_lower = o->trip_lower;
+  p.exact_transition = o->exact;
   return p;
 }
 

@@ -31,6 +31,8 @@ static void flow_help(FILE *fp)
         "      --turbulence PCT  free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
+        "      --exact-transition  transition placed by the e^N rule exactly (experimental;\n"
+        "                        docs/theory/viscous.md)\n"
         "  -p, --panels N        panels on the contour (default 160)\n"
         "      --json         JSON output\n"
         "      --csv          CSV output (surface table; summary in '#' lines)\n"
@@ -312,7 +314,7 @@ int cmd_flow(int argc, char **argv)
     {"re", required_argument, NULL, 'R'},     {"help", no_argument, NULL, 'h'},
     {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
     {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
-    {"plot", required_argument, NULL, 'G'},
+    {"plot", required_argument, NULL, 'G'},   {"exact-transition", no_argument, NULL, 'X'},
     {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -342,7 +344,7 @@ int cmd_flow(int argc, char **argv)
       if (cli_parse_double("--re", optarg, 1e3, 1e8, &re)) return CLI_EXIT_USAGE;
       have_re = 1;
       break;
-    case 'N': case 'T': case 'U': case 'L':
+    case 'N': case 'T': case 'U': case 'L': case 'X':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       have_visc_opt = 1;
       break;

@@ -30,6 +30,9 @@ static void polar_help(FILE *fp)
         "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
+        "      --exact-transition transition placed by the e^N rule exactly: one answer per\n"
+        "                         condition wherever it converges (experimental; converges\n"
+        "                         fewer points than the default, docs/theory/viscous.md)\n"
         "  -p, --panels N         panels on the contour (default 160)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
@@ -61,6 +64,7 @@ int cmd_polar(int argc, char **argv)
     {"mach", required_argument, NULL, 'm'},      {"ncrit", required_argument, NULL, 'N'},
     {"turbulence", required_argument, NULL, 'T'}, {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
+    {"exact-transition", no_argument, NULL, 'X'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
@@ -86,7 +90,7 @@ int cmd_polar(int argc, char **argv)
     case 'm':
       if (cli_parse_list("--mach", optarg, 0.0, 0.7, machs, &nmach)) return CLI_EXIT_USAGE;
       break;
-    case 'N': case 'T': case 'U': case 'L':
+    case 'N': case 'T': case 'U': case 'L': case 'X':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
     case 'p':
@@ -117,6 +121,11 @@ int cmd_polar(int argc, char **argv)
   }
   if (json && csv) {
     cli_error("polar: --json and --csv exclude each other");
+    return CLI_EXIT_USAGE;
+  }
+  if (vo.exact && tablepath != NULL) {
+    cli_error("polar: --exact-transition and --table exclude each other (polar-table files do "
+              "not record the formulation yet)");
     return CLI_EXIT_USAGE;
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
@@ -246,6 +255,7 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "re", json_real(res[ir]));
         json_object_set_new(po, "mach", json_real(machs[im]));
         json_object_set_new(po, "ncrit", json_real(vp.ncrit));
+        json_object_set_new(po, "exact_transition", json_boolean(vp.exact_transition));
         json_object_set_new(po, "trip_upper", vp.trip_upper <= 1.0 ? json_real(vp.trip_upper) : json_null());
         json_object_set_new(po, "trip_lower", vp.trip_lower <= 1.0 ? json_real(vp.trip_lower) : json_null());
         json_object_set_new(po, "converged_points", json_integer((json_int_t)sums[k].n_converged));

@@ -167,8 +167,9 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
 }
 
 /* Raised whenever the viscous numerics change their results (so that cached curves computed by
- * the earlier numerics are not used): 2 = smooth transition crossing and transition check. */
-#define CURVE_NUMERICS_REVISION 2
+ * the earlier numerics are not used): 2 = smooth transition crossing and transition check;
+ * 3 = a cold retry computes its stagnation contexts from the inviscid edge velocities. */
+#define CURVE_NUMERICS_REVISION 3
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

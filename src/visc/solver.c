@@ -586,7 +586,7 @@ static vctx context(const ascr_visc_solver *v, int side)
   c.stag_a = (fmax(v->ue[1], 0.0) + fmax(v->ue[v->nu + 1], 0.0)) / stag_span(v);
   if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
   c.xi_min = 0.25 * v->dsp;
-  c.exact_tr = v->p.exact_transition != 0;
+  c.exact_tr = v->exact_phase;
   double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
   if (side < 2 && xt >= 0.0 && xt <= 1.0) {
     /* xi of the trip: first node on this side at or behind x = xt */
@@ -776,7 +776,7 @@ static double assemble(ascr_visc_solver *v, const vctx cxs[3])
  * solution that does not satisfy it to 1e-6 of the residual falls back to the dense LU. */
 
 /* 3x3 solve with partial pivoting, a row-major (destroyed); 0 if singular */
-static int solve3(double a[9], double b[3])
+int visc_solve3(double a[9], double b[3])
 {
   for (int c = 0; c < 3; c++) {
     int p = c;
@@ -823,7 +823,7 @@ static int invert_diagonal(ascr_visc_solver *v)
     for (int c = 0; c < 3; c++) {
       double a[9], b[3] = {c == 0, c == 1, c == 2};
       memcpy(a, blk, sizeof a);
-      if (!solve3(a, b)) return 0;
+      if (!visc_solve3(a, b)) return 0;
       inv[0 * 3 + c] = b[0];
       inv[1 * 3 + c] = b[1];
       inv[2 * 3 + c] = b[2];
@@ -994,8 +994,6 @@ static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, si
 #define TR_HYST_FINE 0.02
 #define TR_FINE_MOVES 4
 #define TR_FINE_ITERS 20
-/* Iterations the exact phase (exact_transition) may take after the banded phase settled. */
-#define TR_EXACT_ITERS 30
 /* After this many moves the transition intervals stay where they are and the crossing point
  * is found within them (clamped to their ends): in separation bubbles the transition point
  * and the edge velocity feed back on each other and the interval can cycle between two
@@ -1065,7 +1063,13 @@ static int update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst
  *    (theta and m kept). One station per iteration: the Newton step that follows settles the
  *    layer before the next interval is judged.
  * Returns 1 if an interval moved. */
-#define TR_MOVE_STATIONS 4 /* most stations a downstream move passes at once */
+/* Path controls of the exact rule (they decide how fast the iteration gets there, not where it
+ * ends): a downstream move passes at most TR_MOVE_STATIONS stations at once, and the intervals
+ * are judged once the largest relative update is below TR_EXACT_SETTLED. Measured on the thin
+ * plate at Re 2e5, 2 deg: 1 station / 0.05 crept for 100 iterations without arriving; 2 / 0.15,
+ * 4 / 0.15 and 3 / 0.3 converged to the same state in 113, 97 and 85 iterations. */
+#define TR_MOVE_STATIONS 3
+#define TR_EXACT_SETTLED 0.3
 static int transition_exact(ascr_visc_solver *v, const vctx cxs[3])
 {
   int changed = 0;
@@ -1114,6 +1118,55 @@ static int transition_exact(ascr_visc_solver *v, const vctx cxs[3])
     v->itr[side] = kt;
   }
   return changed;
+}
+
+/* Start of the wake for a cold start: theta the sum of the two trailing-edge values, the
+ * shape parameter relaxing from the trailing-edge sum of displacement thicknesses toward 1.05
+ * over a tenth of a chord, sqrt(Ctau) 0.05 (a first guess the iteration replaces). */
+static void wake_start(ascr_visc_solver *v)
+{
+  size_t w0 = v->nu + v->nl, ku = v->nu - 1, kl = w0 - 1;
+  double thw = v->th[ku] + v->th[kl];
+  double dw = v->mm[ku] / fmax(v->ue_inv[ku], 1e-3) + v->mm[kl] / fmax(v->ue_inv[kl], 1e-3);
+  for (size_t j = 0; j < v->nw; j++) {
+    size_t k = w0 + j;
+    double hw = 1.05 + (dw / thw - 1.05) * exp(-v->xi[k] / 0.1);
+    v->th[k] = thw;
+    v->mm[k] = hw * thw * fmax(v->ue_inv[k], 0.5);
+    v->turb[k] = 1;
+    v->cc[k] = 0.05;
+  }
+}
+
+/* Cold start of the exact formulation: each surface marched on the inviscid edge velocity by
+ * visc_cold_march (coldstart.c: inverse mode through laminar separation, transition where N
+ * reaches N_crit), the wake from the two trailing-edge states. One pass: marching again on
+ * ue_inv + D m of this start (as initial_state does) was measured worse -- the displacement
+ * of a start's separated region drives the edge velocity near the trailing edge negative
+ * (NACA 2412 and the thin plate at Re 1e5-2e5: 2 of 8 cold points converged with one pass,
+ * 0 of 8 with three, before the fallback start existed). */
+static void initial_state_exact(ascr_visc_solver *v)
+{
+  for (size_t k = 0; k < v->nst; k++) v->ue[k] = v->ue_inv[k];
+  set_xi(v);
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
+    vctx cx = context(v, side);
+    vstate f;
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, v->p.re, cx.stag_a, 1.0, &thh, &h2);
+    f.th = thh;
+    f.xi = v->xi[k0];
+    f.ue = cx.stag_a * fmax(f.xi, cx.xi_min);
+    f.m = hh * thh * f.ue;
+    f.c = 0.0;
+    f.turb = 0;
+    f.first = 1;
+    /* a station the march could only approximate is left to the Newton iteration */
+    (void)visc_cold_march(&cx, cnt, v->xi + k0, v->ue_inv + k0, &f, v->th + k0, v->mm + k0,
+                          v->cc + k0, v->turb + k0);
+  }
+  wake_start(v);
 }
 
 /* Cold start: direct march of each surface on the inviscid edge velocity. */
@@ -1180,17 +1233,7 @@ static ascr_status initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_er
     }
     free(s); free(ue); free(out);
   }
-  size_t w0 = v->nu + v->nl, ku = v->nu - 1, kl = w0 - 1;
-  double thw = v->th[ku] + v->th[kl];
-  double dw = v->mm[ku] / fmax(v->ue_inv[ku], 1e-3) + v->mm[kl] / fmax(v->ue_inv[kl], 1e-3);
-  for (size_t j = 0; j < v->nw; j++) {
-    size_t k = w0 + j;
-    double hw = 1.05 + (dw / thw - 1.05) * exp(-v->xi[k] / 0.1);
-    v->th[k] = thw;
-    v->mm[k] = hw * thw * fmax(v->ue_inv[k], 0.5);
-    v->turb[k] = 1;
-    v->cc[k] = 0.05;
-  }
+  wake_start(v);
   }
   (void)nst;
   return ASCR_OK;
@@ -1435,15 +1478,27 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
                        alpha_rad * 180.0 / ASCR_PI);
     }
     restage(v, is, ss);
+    /* the contexts read the edge velocities: after a failed attempt they hold its last
+     * iterate, so a cold start takes the inviscid ones */
+    for (size_t k = 0; k < v->nst; k++) v->ue[k] = v->ue_inv[k];
     vctx cx0[3] = {context(v, 0), context(v, 1), context(v, 2)};
-    st = initial_state(v, cx0, err);
+    if (v->p.exact_transition && v->cold_kind == 0) {
+      v->exact_phase = 1;
+      initial_state_exact(v);
+    } else {
+      st = initial_state(v, cx0, err);
+    }
     if (st != ASCR_OK) return st;
   }
   const size_t nst = v->nst, N = 3 * nst;
   v->f_tr[0] = v->f_tr[1] = 1.0;
   int n_forced = 0; /* forced moves of a transition the e^N criterion does not allow */
   int converged = 0, it, n_moves = 0, stalled = 0, n_uphill = 0, fine = 0, it_fine = 0;
-  int exact = 0, it_exact = 0; /* exact phase (exact_transition) */
+  /* exact formulation: the exact rule from the first iteration (no banded phase) */
+  /* exact formulation: the exact rule from the first iteration, or (second cold start,
+   * cold_kind 1) after the banded iteration has settled */
+  int exact = v->p.exact_transition && !(v->cold_kind == 1 && !use_warm), it_exact = 0;
+  v->exact_phase = exact;
   int since_best = 0; /* iterations since the residual last fell below 0.7 of its best */
   double rel = INFINITY, rbest = INFINITY;
   update_ue(v);
@@ -1464,7 +1519,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       v->turb[k] = 0;
     }
   }
-  for (it = 1; it <= v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + (exact ? TR_EXACT_ITERS : 0); it++) {
+  for (it = 1; it <= v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + it_exact; it++) {
     update_ue(v);
     set_xi(v);
     clamp_shape(v);
@@ -1476,7 +1531,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       /* exact phase: the interval rule of transition_exact, judged once the iteration has
        * settled with the present intervals (or stopped making progress): a station just
        * switched carries the other regime's state until a Newton step has settled it */
-      if (rel < 0.05 || since_best >= TR_STUCK_ITERS) {
+      if (it == 1 || rel < TR_EXACT_SETTLED || since_best >= TR_STUCK_ITERS) {
         tchange = transition_exact(v, cxs);
         if (since_best >= TR_STUCK_ITERS) {
           since_best = 0;
@@ -1568,6 +1623,22 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     if (v->trace) v->trace(v->trace_ctx, it, rmax, rel, rlx, tchange, smoved > 0);
     if (smoved < 0) break;
     if (rel < v->p.tol && !tchange && smoved == 0) {
+      if (exact) {
+        /* settled in the exact phase: converged if the intervals hold at this state too */
+        update_ue(v);
+        set_xi(v);
+        vctx ce[3] = {context(v, 0), context(v, 1), context(v, 2)};
+        if (transition_exact(v, ce)) continue;
+        converged = 1;
+        break;
+      }
+      if (v->p.exact_transition) {
+        /* banded start settled: the exact rule takes over from here */
+        exact = 1;
+        v->exact_phase = 1;
+        it_exact = it;
+        continue;
+      }
       /* settled: but with a transition the e^N criterion allows? If not, move the offending
        * interval downstream on the inviscid edge velocity and go on iterating */
       vctx cc3[3] = {context(v, 0), context(v, 1), context(v, 2)};
@@ -1588,23 +1659,6 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
         n_forced++;
         continue;
       }
-      if (exact) {
-        /* settled in the exact phase: converged if the intervals hold at this state too */
-        update_ue(v);
-        set_xi(v);
-        vctx ce[3] = {context(v, 0), context(v, 1), context(v, 2)};
-        if (transition_exact(v, ce)) continue;
-        converged = 1;
-        break;
-      }
-      if (v->p.exact_transition) {
-        /* the banded phase has brought the iteration near a solution; the exact phase now
-         * places transition by the e^N rule without band or budget, and only a state it
-         * accepts is a result (no return to the banded solution) */
-        exact = 1;
-        it_exact = it;
-        continue;
-      }
       if (!fine) {
         /* converged with the wide band: keep this solution and try to place transition
          * more exactly with the narrow one */
@@ -1619,7 +1673,6 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
       break;
     }
     if (fine && it - it_fine >= TR_FINE_ITERS) break;
-    if (exact && it - it_exact >= TR_EXACT_ITERS) break;
   }
   if (fine && !converged) {
     /* the narrow band did not settle: the wide-band solution stands (restaged at its own
@@ -1636,7 +1689,7 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   int tr_bad = converged && !exact && transition_inconsistent(v, cxs) != 0;
   if (tr_bad) converged = 0;
   results(v, cxs, r);
-  int it_cap = v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + (exact ? TR_EXACT_ITERS : 0);
+  int it_cap = v->p.max_iter + (fine ? TR_FINE_ITERS : 0) + it_exact;
   r->iterations = it > it_cap ? it_cap : it;
   r->residual = rel;
   r->converged = converged;
@@ -1657,11 +1710,21 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
 ascr_status ascr_visc_solver_solve(ascr_visc_solver *v, double alpha_rad, int warm,
                                    ascr_visc_result *r, ascr_errbuf *err)
 {
+  v->cold_kind = 0;
   ascr_status st = solve_once(v, alpha_rad, warm, r, err);
   if ((st == ASCR_EMAXITER || st == ASCR_ESING) && warm) {
     /* the continuation start did not lead anywhere: start afresh from a march */
     int its = r->iterations;
     st = solve_once(v, alpha_rad, 0, r, err);
+    r->iterations += its;
+  }
+  if ((st == ASCR_EMAXITER || st == ASCR_ESING) && v->p.exact_transition) {
+    /* exact formulation: a second cold start, the direct march with its coupling passes
+     * (initial_state); whichever start, a result is a state the exact rule accepts */
+    int its = r->iterations;
+    v->cold_kind = 1;
+    st = solve_once(v, alpha_rad, 0, r, err);
+    v->cold_kind = 0;
     r->iterations += its;
   }
   return st;

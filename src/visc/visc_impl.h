@@ -48,6 +48,16 @@ void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, c
  * shape parameter of s. */
 double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
 
+/* 3x3 linear solve a x = b with partial pivoting (a row-major, destroyed; b receives x).
+ * Returns 1, or 0 if a is singular. */
+int visc_solve3(double a[9], double b[3]);
+
+/* Cold-start march of one surface (coldstart.c): n stations at xi[0..n-1] with driving edge
+ * velocities ue[0..n-1]; first = the state of station 0 (stagnation); fills th, m, c, turb
+ * for the n stations. Returns 1, or 0 if some station was only approximated. */
+int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue,
+                    const vstate *first, double *th, double *m, double *c, int *turb);
+
 /* Station with the stagnation similarity start: the Hiemenz shape parameter of the closure. */
 double visc_hiemenz_h(void);
 
@@ -57,6 +67,8 @@ struct ascr_visc_solver {
   const ascr_panel_solver *ps; /* borrowed */
   ascr_visc_params p;
   int is_set, have_solution;
+  int exact_phase;           /* 1 while the exact transition phase runs (residual rules) */
+  int cold_kind;             /* exact formulation: 0 inverse-mode cold start, 1 direct march */
   double alpha;              /* angle of the prepared wake */
   double *snode;             /* arc length at the nodes, n */
   double *xw, *yw, *sw;      /* wake nodes and arc length from the TE, nw */

@@ -1,0 +1,155 @@
+/* src/visc/coldstart.c
+ * Cold start of the coupled iteration: a march of each surface's boundary layer on a given
+ * edge velocity that passes laminar separation in inverse mode.
+ *
+ * Method. Station by station from the stagnation point, the unknowns of station b are found
+ * from the same interval residuals the Newton iteration uses (residual.c: laminar, transition,
+ * turbulent), so the start obeys the equations of the coupled problem and no second copy of
+ * them exists. Direct mode: ue_b is the given edge velocity, the unknowns are (ln theta,
+ * ln m, N or sqrt(Ctau)). Where the direct solution fails or its shape parameter passes the
+ * separation limit of its regime, the station is solved in inverse mode: the kinematic shape
+ * parameter is prescribed and the edge velocity becomes the unknown, unknowns (ln theta,
+ * ln ue, N or sqrt(Ctau)), m = H ue theta (the inverse boundary-layer problem is regular
+ * through separation: Catherall & Mangler, J. Fluid Mech. 26, 1966; Carter, NASA TP-1208,
+ * 1979, prescribed displacement thickness; here the prescribed quantity is Hk, which carries
+ * the same information at a given theta). The prescribed Hk grows downstream of a laminar
+ * separation and falls back toward attached values after transition: a start only; the
+ * coupled iteration replaces the prescription by the interaction with the outer flow, and the
+ * converged state does not depend on it (the rates below are numerical choices, not physics).
+ * Transition: where N reaches N_crit (or the trip) at station b, b is solved as the end of a
+ * transition interval (the crossing point inside it follows from the residual).
+ *
+ * Notation as in visc_impl.h; stations k0 .. k1-1 of one side, k0 the first (stagnation).
+ */
+#include "visc/visc_impl.h"
+
+#include <math.h>
+#include <string.h>
+
+#define CS_NEWTON_MAX 40
+#define CS_TOL 1e-10
+#define CS_FD 1e-7
+#define CS_LAM_HK_MAX 3.8  /* direct laminar march up to here (Falkner-Skan separation 4.03) */
+#define CS_TURB_HK_MAX 2.5 /* direct turbulent march up to here */
+/* inverse-mode prescriptions (start only): laminar Hk grows by this much per momentum
+ * thickness of run, up to CS_LAM_HK_CAP; turbulent Hk falls by CS_TURB_SLOPE per momentum
+ * thickness, not below CS_TURB_HK_MAX */
+#define CS_LAM_SLOPE 0.01
+#define CS_LAM_HK_CAP 6.0
+#define CS_TURB_SLOPE 0.15
+
+/* H from Hk at edge Mach me (inverse of bl_hk) */
+static double h_of_hk(double hk, double me)
+{
+  double m2 = me * me;
+  return hk * (1.0 + 0.113 * m2) + 0.29 * m2;
+}
+
+/* Solve station b (a known) in direct (inverse = 0) or inverse mode with prescribed Hk.
+ * b holds the first guess and receives the solution. 0 on success. */
+static int solve_station(const vctx *cx, int kind, const vstate *a, vstate *b, int inverse,
+                         double hk_target)
+{
+  for (int it = 0; it < CS_NEWTON_MAX; it++) {
+    if (inverse) b->m = h_of_hk(hk_target, cx->mach * b->ue) * b->ue * b->th;
+    double R[3], J[9];
+    visc_residual(kind, cx, a, b, NULL, R, NULL);
+    double rmax = fmax(fabs(R[0]), fmax(fabs(R[1]), fabs(R[2])));
+    if (!isfinite(rmax)) return -1;
+    if (rmax < CS_TOL) return 0;
+    for (int j = 0; j < 3; j++) {
+      vstate p = *b;
+      double h;
+      if (j == 0) {
+        h = CS_FD;
+        p.th *= exp(h);
+      } else if (j == 1) {
+        h = CS_FD;
+        if (inverse) p.ue *= exp(h);
+        else p.m *= exp(h);
+      } else {
+        h = CS_FD * fmax(fabs(b->c), 1e-2);
+        p.c += h;
+      }
+      if (inverse) p.m = h_of_hk(hk_target, cx->mach * p.ue) * p.ue * p.th;
+      double Rp[3];
+      visc_residual(kind, cx, a, &p, NULL, Rp, NULL);
+      for (int i = 0; i < 3; i++) J[i * 3 + j] = (Rp[i] - R[i]) / h;
+    }
+    double dx[3] = {-R[0], -R[1], -R[2]};
+    if (!visc_solve3(J, dx)) return -1;
+    double lim = 1.0;
+    if (fabs(dx[0]) * lim > 0.5) lim = 0.5 / fabs(dx[0]);
+    if (fabs(dx[1]) * lim > 0.5) lim = 0.5 / fabs(dx[1]);
+    double cmax = b->turb ? 0.3 * fmax(b->c, 0.01) : 2.0;
+    if (fabs(dx[2]) * lim > cmax) lim = cmax / fabs(dx[2]);
+    b->th *= exp(lim * dx[0]);
+    if (inverse) b->ue *= exp(lim * dx[1]);
+    else b->m *= exp(lim * dx[1]);
+    b->c += lim * dx[2];
+    if (b->turb) b->c = fmin(fmax(b->c, 1e-4), 0.5);
+    else b->c = fmax(b->c, 0.0);
+  }
+  return -1;
+}
+
+static double hk_of(const vctx *cx, const vstate *s)
+{
+  return bl_hk(s->m / (fmax(s->ue, 1e-6) * s->th), cx->mach * s->ue);
+}
+
+int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue,
+                    const vstate *first, double *th, double *m, double *c, int *turb)
+{
+  vstate a = *first;
+  a.first = 1;
+  th[0] = a.th;
+  m[0] = a.m;
+  c[0] = a.c;
+  turb[0] = 0;
+  int ok = 1;
+  for (size_t k = 1; k < n; k++) {
+    vstate b = a;
+    b.first = 0;
+    b.xi = xi[k];
+    b.ue = fmax(ue[k], 1e-4);
+    b.m = a.m / fmax(a.ue, 1e-6) * b.ue; /* same displacement thickness */
+    int kind = a.turb ? VR_TURB : VR_LAM;
+    double hka = hk_of(cx, &a), ds = (b.xi - a.xi) / fmax(a.th, 1e-12);
+    double hk_lim = a.turb ? CS_TURB_HK_MAX : CS_LAM_HK_MAX;
+    vstate d = b;
+    int direct_ok = solve_station(cx, kind, &a, &d, 0, 0.0) == 0 && hk_of(cx, &d) <= hk_lim;
+    if (direct_ok) {
+      b = d;
+    } else {
+      double hkt = a.turb ? fmax(hka - CS_TURB_SLOPE * ds, CS_TURB_HK_MAX)
+                          : fmin(fmax(hka, CS_LAM_HK_MAX) + CS_LAM_SLOPE * ds, CS_LAM_HK_CAP);
+      if (solve_station(cx, kind, &a, &b, 1, hkt) != 0) {
+        ok = 0; /* keep the guess: a start need not be exact */
+        b.m = h_of_hk(hkt, cx->mach * b.ue) * b.ue * b.th;
+      }
+    }
+    /* transition: N_crit reached (or the trip passed) at a laminar station */
+    int trip = cx->xi_trip >= 0.0 && b.xi >= cx->xi_trip;
+    if (!b.turb && (b.c >= cx->ncrit || trip)) {
+      vstate t = b;
+      t.turb = 1;
+      t.c = visc_sqrt_ctau_start(cx, &a);
+      vstate dt = t;
+      int tok = solve_station(cx, VR_TRANS, &a, &dt, 0, 0.0) == 0 && hk_of(cx, &dt) <= CS_LAM_HK_MAX;
+      if (tok) {
+        t = dt;
+      } else {
+        double hkt = fmin(fmax(hk_of(cx, &b), CS_TURB_HK_MAX), CS_LAM_HK_CAP);
+        if (solve_station(cx, VR_TRANS, &a, &t, 1, hkt) != 0) ok = 0;
+      }
+      b = t;
+    }
+    th[k] = b.th;
+    m[k] = b.m * fmax(ue[k], 1e-4) / fmax(b.ue, 1e-6); /* keep dstar on the given ue */
+    c[k] = b.c;
+    turb[k] = b.turb;
+    a = b;
+  }
+  return ok;
+}
