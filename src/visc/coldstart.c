@@ -1,6 +1,9 @@
 /* src/visc/coldstart.c
- * Cold start of the coupled iteration: a march of each surface's boundary layer on a given
- * edge velocity that passes laminar separation in inverse mode.
+ * Cold starts of the coupled iteration. The exact formulation's (visc_initial_state_exact):
+ * a march of each surface's boundary layer on the inviscid edge velocity that passes laminar
+ * separation in inverse mode, described below. The default formulation's (visc_initial_state):
+ * the direct march of src/bl/march.c, restarted with transition ahead of a laminar separation,
+ * then two passes on the coupled edge velocity. Both start the wake from the trailing edge.
  *
  * Method. Station by station from the stagnation point, the unknowns of station b are found
  * from the same interval residuals the Newton iteration uses (residual.c: laminar, transition,
@@ -25,6 +28,8 @@
 
 #include <math.h>
 #include <string.h>
+#include <stdlib.h>
+#include "core/core_impl.h"
 
 #define CS_NEWTON_MAX 40
 #define CS_TOL 1e-10
@@ -153,3 +158,123 @@ int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue
   }
   return ok;
 }
+
+/* Start of the wake for a cold start: theta the sum of the two trailing-edge values, the
+ * shape parameter relaxing from the trailing-edge sum of displacement thicknesses toward 1.05
+ * over a tenth of a chord, sqrt(Ctau) 0.05 (a first guess the iteration replaces). */
+static void wake_start(ascr_visc_solver *v)
+{
+  size_t w0 = v->nu + v->nl, ku = v->nu - 1, kl = w0 - 1;
+  double thw = v->th[ku] + v->th[kl];
+  double dw = v->mm[ku] / fmax(v->ue_inv[ku], 1e-3) + v->mm[kl] / fmax(v->ue_inv[kl], 1e-3);
+  for (size_t j = 0; j < v->nw; j++) {
+    size_t k = w0 + j;
+    double hw = 1.05 + (dw / thw - 1.05) * exp(-v->xi[k] / 0.1);
+    v->th[k] = thw;
+    v->mm[k] = hw * thw * fmax(v->ue_inv[k], 0.5);
+    v->turb[k] = 1;
+    v->cc[k] = 0.05;
+  }
+}
+
+/* Cold start of the exact formulation: each surface marched on the inviscid edge velocity by
+ * visc_cold_march (coldstart.c: inverse mode through laminar separation, transition where N
+ * reaches N_crit), the wake from the two trailing-edge states. One pass: marching again on
+ * ue_inv + D m of this start (as initial_state does) was measured worse -- the displacement
+ * of a start's separated region drives the edge velocity near the trailing edge negative
+ * (NACA 2412 and the thin plate at Re 1e5-2e5: 2 of 8 cold points converged with one pass,
+ * 0 of 8 with three, before the fallback start existed). */
+void visc_initial_state_exact(ascr_visc_solver *v)
+{
+  for (size_t k = 0; k < v->nst; k++) v->ue[k] = v->ue_inv[k];
+  visc_set_xi(v);
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
+    vctx cx = visc_context(v, side);
+    vstate f;
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, v->p.re, cx.stag_a, 1.0, &thh, &h2);
+    f.th = thh;
+    f.xi = v->xi[k0];
+    f.ue = cx.stag_a * fmax(f.xi, cx.xi_min);
+    f.m = hh * thh * f.ue;
+    f.c = 0.0;
+    f.turb = 0;
+    f.first = 1;
+    /* a station the march could only approximate is left to the Newton iteration */
+    (void)visc_cold_march(&cx, cnt, v->xi + k0, v->ue_inv + k0, &f, v->th + k0, v->mm + k0,
+                          v->cc + k0, v->turb + k0);
+  }
+  wake_start(v);
+}
+
+/* Cold start: direct march of each surface on the inviscid edge velocity. */
+ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errbuf *err)
+{
+  (void)err;
+  const size_t nst = v->nst;
+  /* three passes: march on the inviscid ue, then twice on ue_inv + D m of the previous pass */
+  for (int pass = 0; pass < 3; pass++) {
+  if (pass > 0) visc_update_ue(v);
+  for (int side = 0; side < 2; side++) {
+    size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
+    double *s = core_calloc(cnt, sizeof *s), *ue = core_calloc(cnt, sizeof *ue);
+    ascr_bl_station *out = core_calloc(cnt, sizeof *out);
+    if (!s || !ue || !out) {
+      free(s); free(ue); free(out);
+      return core_fail(err, ASCR_ENOMEM, "viscous solver: out of memory");
+    }
+    for (size_t j = 0; j < cnt; j++) {
+      s[j] = v->xi[k0 + j];
+      ue[j] = fmax(pass == 0 ? v->ue_inv[k0 + j] : v->ue[k0 + j], 1e-3);
+      if (j > 0 && ue[j] < 0.5 * ue[j - 1] && pass > 0) ue[j] = fmax(v->ue_inv[k0 + j], 1e-3);
+    }
+    ascr_bl_params bp = ascr_bl_params_defaults();
+    bp.re = v->p.re;
+    bp.mach = v->p.mach;
+    bp.ncrit = v->p.ncrit;
+    bp.s_trip = cxs[side].xi_trip;
+    ascr_bl_result br;
+    ascr_errbuf merr;
+    ascr_status st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
+    /* a laminar layer that separates (or fails near separation) is restarted with transition
+     * forced two stations upstream of where it stopped: a separation bubble closes turbulent */
+    int lam_stop = (st == ASCR_OK && br.n_done < cnt && br.n_done > 0 &&
+                    !out[br.n_done - 1].turbulent) ||
+                   (st == ASCR_EMAXITER && br.n_done > 0 && !out[br.n_done - 1].turbulent);
+    if (lam_stop && br.n_done >= 3) {
+      bp.s_trip = s[br.n_done - 2];
+      st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);
+      if (st != ASCR_OK && br.n_done > 0) st = ASCR_OK; /* keep what was marched */
+    } else if (st != ASCR_OK && br.n_done > 0) {
+      st = ASCR_OK;
+    }
+    size_t done = (st == ASCR_OK) ? br.n_done : 0;
+    for (size_t j = 0; j < cnt; j++) {
+      size_t k = k0 + j;
+      if (j < done) {
+        v->th[k] = out[j].theta;
+        v->mm[k] = out[j].dstar * ue[j];
+        v->turb[k] = out[j].turbulent;
+        v->cc[k] = out[j].turbulent ? sqrt(out[j].ctau) : out[j].n;
+      } else if (j > 0) {
+        /* beyond a separation the march cannot go: grow theta, keep a separated shape */
+        v->th[k] = v->th[k - 1] * (1.0 + 0.5 * (s[j] - s[j - 1]) / fmax(s[j - 1], 1e-3));
+        v->turb[k] = 1;
+        v->cc[k] = 0.12;
+        v->mm[k] = 2.2 * v->th[k] * ue[j];
+      } else {
+        v->th[k] = sqrt(0.08 * s[0] / (v->p.re * ue[0]));
+        v->mm[k] = 2.24 * v->th[k] * ue[0];
+        v->turb[k] = 0;
+        v->cc[k] = 0.0;
+      }
+    }
+    free(s); free(ue); free(out);
+  }
+  wake_start(v);
+  }
+  (void)nst;
+  return ASCR_OK;
+}
+

@@ -138,4 +138,48 @@ struct ascr_visc_solver {
 void visc_snapshot(ascr_visc_solver *v, int slot);
 void visc_restore(ascr_visc_solver *v, int slot);
 
+/* most edge-velocity terms in one residual row: three stations' ue, and the two stagnation
+ * terms with two D rows each (jacobian.c, linsolve.c, workspace.c) */
+#define UMAX 8
+
+/* ---- the steps of a solve, one file each (see solver.c for the method) ---- */
+
+/* influence.c: wake geometry and the alpha-dependent parts of E for angle alpha (rad). */
+ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *err);
+
+/* stations.c */
+double visc_node_gamma(const ascr_visc_solver *v, size_t i);    /* surface gamma at node i */
+void visc_restage(ascr_visc_solver *v, size_t is, double s_stag); /* stations, D, ue_inv */
+int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *is,
+                         double *s_stag);                      /* 0, or -1 if none */
+void visc_update_ue(ascr_visc_solver *v);                      /* ue = ue_inv + D m */
+void visc_set_xi(ascr_visc_solver *v);                         /* xi from the stagnation offsets */
+vstate visc_get_state(const ascr_visc_solver *v, size_t k);
+int visc_station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *b, size_t *w);
+double visc_stag_span(const ascr_visc_solver *v);
+vctx visc_context(const ascr_visc_solver *v, int side);        /* side 0, 1, 2 (wake) */
+int visc_relocate_stagnation(ascr_visc_solver *v);             /* 1 moved, 0 not, -1 none */
+
+/* jacobian.c: residual norm^2 at the current state; R and the Newton matrix (largest |R|). */
+double visc_residual_norm2(ascr_visc_solver *v, const vctx cxs[3]);
+double visc_assemble(ascr_visc_solver *v, const vctx cxs[3]);
+
+/* linsolve.c: J dx = -R in structured form; 1 on success. */
+int visc_solve_structured(ascr_visc_solver *v);
+
+/* transition_rules.c */
+size_t visc_first_turbulent(const ascr_visc_solver *v, size_t k0, size_t k1);
+int visc_transition_inconsistent(const ascr_visc_solver *v, const vctx cxs[3]); /* bits per side */
+size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size_t kt,
+                            double hyst, int forced);
+int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst); /* banded */
+int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3]);               /* exact */
+
+/* coldstart.c: the two cold starts (exact formulation; default direct march). */
+void visc_initial_state_exact(ascr_visc_solver *v);
+ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errbuf *err);
+
+/* forces.c: results of the current state. */
+void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r);
+
 #endif

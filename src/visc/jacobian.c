@@ -1,0 +1,176 @@
+/* src/visc/jacobian.c
+ * Residuals of all stations and the Newton matrix: the derivatives of every station's residual
+ * with respect to the unknowns of the stations it involves and to the edge velocities (forward
+ * differences, relative step FD_STEP), the latter chained through the mass-defect influence D,
+ * stored densely or in the structured form solved by linsolve.c.
+ */
+#include "visc/visc_impl.h"
+#include "core/core_impl.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define FD_STEP 1e-7
+
+/* Sum of squared residuals of all stations at the current state (R and J untouched). */
+double visc_residual_norm2(ascr_visc_solver *v, const vctx cxs[3])
+{
+  double sum = 0.0;
+  for (size_t k = 0; k < v->nst; k++) {
+    const vctx *cx = &cxs[v->side[k]];
+    size_t a, b, w;
+    int kind = visc_station_kind(v, k, &a, &b, &w);
+    vstate sa = visc_get_state(v, a), sb = visc_get_state(v, b), sw = visc_get_state(v, w);
+    double R[3];
+    if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
+    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
+    else visc_residual(kind, cx, &sa, &sb, NULL, R, NULL);
+    for (int e = 0; e < 3; e++) sum += isfinite(R[e]) ? R[e] * R[e] : 1e300;
+  }
+  return sum;
+}
+
+/* Writers of the Newton matrix: dense (J, column-major) or structured (L blocks, U entries). */
+static void add_local(ascr_visc_solver *v, size_t k, size_t e, size_t col_station, int var, double d)
+{
+  if (v->dense_jac) {
+    size_t N = 3 * v->nst;
+    v->J[(3 * k + e) + (3 * col_station + (size_t)var) * N] += d;
+    return;
+  }
+  size_t *ls = v->lst + 3 * k;
+  int q = 0;
+  while (q < 3 && ls[q] != col_station && ls[q] != SIZE_MAX) q++;
+  if (q == 3) return; /* cannot happen: at most three stations per residual */
+  ls[q] = col_station;
+  v->lblk[(3 * k + (size_t)q) * 9 + e * 3 + (size_t)var] += d;
+}
+
+/* row 3k+e gets d * (D row drow) in the m columns */
+static void add_ue(ascr_visc_solver *v, size_t k, size_t e, size_t drow, double d)
+{
+  size_t nst = v->nst, row = 3 * k + e;
+  if (v->dense_jac) {
+    size_t N = 3 * nst;
+    const double *dr = v->D + drow * nst;
+    double *jr = v->J + row;
+    for (size_t kk = 0; kk < nst; kk++) jr[(3 * kk + 1) * N] += d * dr[kk];
+    return;
+  }
+  size_t *ui = v->uidx + row * UMAX;
+  double *uc = v->ucoef + row * UMAX;
+  int c = v->ucnt[row];
+  for (int q = 0; q < c; q++) {
+    if (ui[q] == drow) {
+      uc[q] += d;
+      return;
+    }
+  }
+  if (c < UMAX) {
+    ui[c] = drow;
+    uc[c] = d;
+    v->ucnt[row] = c + 1;
+  }
+}
+
+/* Build R and J. Returns the largest |R|. */
+double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
+{
+  const size_t nst = v->nst, N = 3 * nst;
+  if (v->dense_jac) {
+    memset(v->J, 0, N * N * sizeof *v->J);
+  } else {
+    for (size_t i = 0; i < 3 * nst; i++) v->lst[i] = SIZE_MAX;
+    memset(v->lblk, 0, 27 * nst * sizeof *v->lblk);
+    memset(v->ucnt, 0, 3 * nst * sizeof *v->ucnt);
+  }
+  double rmax = 0.0;
+  for (size_t k = 0; k < nst; k++) {
+    const vctx *cx = &cxs[v->side[k]];
+    size_t a, b, w;
+    int kind = visc_station_kind(v, k, &a, &b, &w);
+    size_t st[3] = {a, b, w};
+    int nsts = kind == VR_MERGE ? 3 : (kind == VR_STAG ? 1 : 2);
+    if (kind == VR_STAG) st[0] = k;
+    vstate s[3];
+    for (int q = 0; q < nsts; q++) s[q] = visc_get_state(v, st[q]);
+    double R0[3], ftr[3] = {1.0, INFINITY, 0.0};
+    if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
+    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
+    else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, ftr);
+    if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr[0];
+    for (int e = 0; e < 3; e++) {
+      v->R[3 * k + e] = R0[e];
+      rmax = fmax(rmax, fabs(R0[e]));
+    }
+    /* derivative with respect to the stagnation offset of this side (surface stations): the
+     * offsets depend on the two first-station edge velocities, which depend on all m */
+    if (v->side[k] < 2 && kind != VR_MERGE) {
+      vstate sp[3];
+      for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+      double h = 1e-7 * fmax(v->xi[v->side[k] == 0 ? 0 : v->nu], 1e-9);
+      for (int qq = 0; qq < nsts; qq++) sp[qq].xi += h;
+      double R1[3];
+      if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
+      else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+      double ueu = fmax(v->ue[0], 1e-7), uel = fmax(v->ue[v->nu], 1e-7), sum = ueu + uel;
+      /* d xoff / d ue_u0 and d ue_l0 for this side */
+      double du, dl;
+      if (v->side[k] == 0) {
+        du = v->dsp * uel / (sum * sum);
+        dl = -v->dsp * ueu / (sum * sum);
+      } else {
+        du = -v->dsp * uel / (sum * sum);
+        dl = v->dsp * ueu / (sum * sum);
+      }
+      for (int e = 0; e < 3; e++) {
+        double d = (R1[e] - R0[e]) / h;
+        if (d == 0.0) continue;
+        add_ue(v, k, (size_t)e, 0, d * du);
+        add_ue(v, k, (size_t)e, v->nu, d * dl);
+      }
+    }
+    /* derivative with respect to the stagnation-flow gradient a = (ue_u1 + ue_l1)/span */
+    if (v->side[k] < 2 && kind != VR_MERGE) {
+      vctx cp2 = *cx;
+      double h = 1e-7 * cx->stag_a;
+      cp2.stag_a += h;
+      double R1[3];
+      if (kind == VR_STAG) visc_residual(kind, &cp2, NULL, &s[0], NULL, R1, NULL);
+      else visc_residual(kind, &cp2, &s[0], &s[1], NULL, R1, NULL);
+      for (int e = 0; e < 3; e++) {
+        double d = (R1[e] - R0[e]) / h / visc_stag_span(v);
+        if (d == 0.0) continue;
+        add_ue(v, k, (size_t)e, 1, d);
+        add_ue(v, k, (size_t)e, v->nu + 1, d);
+      }
+    }
+    /* derivatives with respect to theta, m, c, ue of each involved station */
+    for (int q = 0; q < nsts; q++) {
+      for (int var = 0; var < 4; var++) {
+        vstate sp[3];
+        for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+        double *x = var == 0 ? &sp[q].th : var == 1 ? &sp[q].m : var == 2 ? &sp[q].c : &sp[q].ue;
+        double h = FD_STEP * (fabs(*x) > 1e-3 ? fabs(*x) : 1e-3);
+        if (var == 0 || var == 1) h = FD_STEP * fabs(*x) + 1e-14;
+        *x += h;
+        double R1[3];
+        if (kind == VR_MERGE) visc_residual(kind, cx, &sp[0], &sp[1], &sp[2], R1, NULL);
+        else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
+        else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+        for (int e = 0; e < 3; e++) {
+          double d = (R1[e] - R0[e]) / h;
+          if (d == 0.0) continue;
+          if (var < 3) {
+            add_local(v, k, (size_t)e, st[q], var, d);
+          } else {
+            add_ue(v, k, (size_t)e, st[q], d);
+          }
+        }
+      }
+    }
+  }
+  return rmax;
+}
+

@@ -1,0 +1,303 @@
+/* src/visc/stations.c
+ * Stations of the coupled boundary layer: their arrangement around the stagnation point
+ * (restage: node order, source-panel ends, the mass-defect influence D = E G and the inviscid
+ * edge velocities), the stagnation point from the surface vorticity and its position inside its
+ * panel (moving continuously with the first stations' edge velocities), the edge velocities
+ * ue = ue_inv + D m, the state of a station as the residuals see it, the residual kind of each
+ * station, the per-side context, and the relocation of the stagnation point during the
+ * iteration (states carried by node).
+ */
+#include "visc/visc_impl.h"
+#include "core/core_impl.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Current surface gamma at node i from the inviscid part and the sources of the current m. */
+double visc_node_gamma(const ascr_visc_solver *v, size_t i)
+{
+  double g = v->gam_inv[i];
+  const double *row = v->E + i * v->np;
+  for (size_t pp = 0; pp < v->np; pp++) {
+    g += row[pp] * (v->ga[pp] * v->mm[v->pa[pp]] + v->gb[pp] * v->mm[v->pb[pp]]);
+  }
+  return g;
+}
+
+/* Station layout for stagnation between nodes is and is+1; builds G, D and ue_inv. */
+void visc_restage(ascr_visc_solver *v, size_t is, double s_stag)
+{
+  const size_t n = v->n, nw = v->nw, np = v->np, ns = n - 1, nst = v->nst;
+  v->is = is;
+  v->s_stag = s_stag;
+  v->nu = is + 1;
+  v->nl = n - 1 - is;
+  v->dsp = v->snode[is + 1] - v->snode[is];
+  size_t k = 0;
+  for (size_t i = is + 1; i-- > 0;) {
+    v->node[k] = i; v->side[k] = 0; v->sgn[k] = 1.0;
+    v->xi[k] = s_stag - v->snode[i];
+    v->dfirst[k] = v->snode[is] - v->snode[i];
+    k++;
+  }
+  for (size_t i = is + 1; i < n; i++) {
+    v->node[k] = i; v->side[k] = 1; v->sgn[k] = -1.0;
+    v->xi[k] = v->snode[i] - s_stag;
+    v->dfirst[k] = v->snode[i] - v->snode[is + 1];
+    k++;
+  }
+  for (size_t j = 0; j < nw; j++) {
+    v->node[k] = j; v->side[k] = 2; v->sgn[k] = 1.0;
+    v->xi[k] = v->sw[j];
+    v->dfirst[k] = 0.0;
+    k++;
+  }
+  /* station of node i */
+#define ST_OF(i) ((i) <= is ? is - (i) : v->nu + ((i) - is - 1))
+  for (size_t pp = 0; pp < ns; pp++) {
+    double L = v->plen[pp];
+    size_t a = ST_OF(pp), b = ST_OF(pp + 1);
+    v->pa[pp] = a;
+    v->pb[pp] = b;
+    if (pp + 1 <= is) { /* upper: flow from node pp+1 to node pp */
+      v->ga[pp] = 1.0 / L;
+      v->gb[pp] = -1.0 / L;
+    } else if (pp >= is + 1) { /* lower: flow from pp to pp+1 */
+      v->ga[pp] = -1.0 / L;
+      v->gb[pp] = 1.0 / L;
+    } else { /* the panel holding the stagnation point: both layers start in it */
+      v->ga[pp] = 1.0 / L;
+      v->gb[pp] = 1.0 / L;
+    }
+  }
+#undef ST_OF
+  size_t w0 = v->nu + v->nl;
+  for (size_t j = 0; j + 1 < nw; j++) {
+    double L = v->plen[ns + j];
+    v->pa[ns + j] = w0 + j;
+    v->pb[ns + j] = w0 + j + 1;
+    v->ga[ns + j] = -1.0 / L;
+    v->gb[ns + j] = 1.0 / L;
+  }
+  memset(v->D, 0, nst * nst * sizeof *v->D);
+  for (size_t r = 0; r < nst; r++) {
+    size_t row_node = v->side[r] == 2 ? n + v->node[r] : v->node[r];
+    const double *er = v->E + row_node * np;
+    double *dr = v->D + r * nst;
+    for (size_t pp = 0; pp < np; pp++) {
+      dr[v->pa[pp]] += v->sgn[r] * er[pp] * v->ga[pp];
+      dr[v->pb[pp]] += v->sgn[r] * er[pp] * v->gb[pp];
+    }
+    v->ue_inv[r] = v->side[r] == 2 ? v->qw_inv[v->node[r]] : v->sgn[r] * v->gam_inv[v->node[r]];
+  }
+}
+
+/* Stagnation point from nodal gamma: the last node of the first positive-to-negative change
+ * counting from the leading-edge node region. */
+int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *is, double *s_stag)
+{
+  const size_t n = v->n;
+  /* start from the node of smallest |gamma| change near the nose: scan all sign changes and
+   * take the one nearest the leading-edge node */
+  const ascr_panel_solver *ps = v->ps;
+  size_t best = n;
+  double bestd = INFINITY;
+  for (size_t i = 0; i + 1 < n; i++) {
+    if (gam[i] > 0.0 && gam[i + 1] <= 0.0) {
+      double d = fmin(ps->x[i], ps->x[i + 1]);
+      if (d < bestd) {
+        bestd = d;
+        best = i;
+      }
+    }
+  }
+  if (best >= n || best < 1 || best + 2 >= n) return -1;
+  *is = best;
+  double f = gam[best] / (gam[best] - gam[best + 1]);
+  *s_stag = v->snode[best] + f * (v->snode[best + 1] - v->snode[best]);
+  return 0;
+}
+
+void visc_update_ue(ascr_visc_solver *v)
+{
+  const size_t nst = v->nst;
+  for (size_t r = 0; r < nst; r++) {
+    double u = v->ue_inv[r];
+    const double *dr = v->D + r * nst;
+    for (size_t k = 0; k < nst; k++) u += dr[k] * v->mm[k];
+    v->ue[r] = u;
+  }
+}
+
+/* Stagnation point between the first stations of the two sides, where the edge velocity,
+ * linear along the stagnation panel, vanishes: offsets of the two sides' first stations. */
+static void stag_offsets(const ascr_visc_solver *v, double ueu, double uel, double *xu, double *xl)
+{
+  ueu = fmax(ueu, 1e-7);
+  uel = fmax(uel, 1e-7);
+  *xu = v->dsp * ueu / (ueu + uel);
+  *xl = v->dsp * uel / (ueu + uel);
+}
+
+/* Surface xi from the current first-station edge velocities. */
+void visc_set_xi(ascr_visc_solver *v)
+{
+  double xu, xl;
+  stag_offsets(v, v->ue[0], v->ue[v->nu], &xu, &xl);
+  for (size_t k = 0; k < v->nu; k++) v->xi[k] = xu + v->dfirst[k];
+  for (size_t k = v->nu; k < v->nu + v->nl; k++) v->xi[k] = xl + v->dfirst[k];
+  v->s_stag = v->snode[v->is] + xu;
+}
+
+vstate visc_get_state(const ascr_visc_solver *v, size_t k)
+{
+  vstate s;
+  s.th = v->th[k];
+  s.m = v->mm[k];
+  s.c = v->cc[k];
+  s.ue = v->ue[k];
+  s.xi = v->xi[k];
+  s.turb = v->turb[k];
+  s.first = (k == 0 || k == v->nu);
+  return s;
+}
+
+/* Residual kind of station k and its partner stations. */
+int visc_station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *b, size_t *w)
+{
+  size_t w0 = v->nu + v->nl;
+  *w = k;
+  *b = k;
+  if (k == 0 || k == v->nu) {
+    *a = k;
+    return VR_STAG;
+  }
+  if (k == w0) {
+    *a = v->nu - 1;
+    *b = w0 - 1;
+    return VR_MERGE;
+  }
+  *a = k - 1;
+  if (k > w0) return VR_WAKE;
+  if (!v->turb[k]) return VR_LAM;
+  return v->turb[k - 1] ? VR_TURB : VR_TRANS;
+}
+
+
+/* Distance along the surface between the second stations of the two sides. */
+double visc_stag_span(const ascr_visc_solver *v)
+{
+  return v->snode[v->node[v->nu + 1]] - v->snode[v->node[1]];
+}
+
+vctx visc_context(const ascr_visc_solver *v, int side)
+{
+  vctx c;
+  c.re = v->p.re;
+  c.mach = v->p.mach;
+  c.ncrit = v->p.ncrit;
+  c.xi_trip = -1.0;
+  /* the stagnation-flow gradient from the second stations of the two sides: their edge
+   * velocities are well away from zero, while the first stations' can be dominated by the
+   * displacement effect when the stagnation point sits near a node */
+  c.stag_a = (fmax(v->ue[1], 0.0) + fmax(v->ue[v->nu + 1], 0.0)) / visc_stag_span(v);
+  if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
+  c.xi_min = 0.25 * v->dsp;
+  c.exact_tr = v->exact_phase;
+  double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
+  if (side < 2 && xt >= 0.0 && xt <= 1.0) {
+    /* xi of the trip: first node on this side at or behind x = xt */
+    const ascr_panel_solver *ps = v->ps;
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      double xa = ps->x[v->node[k - 1]], xb = ps->x[v->node[k]];
+      if (xa <= xt && xb >= xt && xb > xa) {
+        c.xi_trip = v->xi[k - 1] + (xt - xa) / (xb - xa) * (v->xi[k] - v->xi[k - 1]);
+        break;
+      }
+    }
+  }
+  return c;
+}
+
+
+/* Move the stagnation point if the current surface gamma says so; states are carried by node. */
+int visc_relocate_stagnation(ascr_visc_solver *v)
+{
+  const size_t n = v->n;
+  double *g = v->cp; /* scratch */
+  for (size_t i = 0; i < n; i++) g[i] = visc_node_gamma(v, i);
+  size_t is;
+  double ss;
+  if (visc_find_stagnation(v, g, &is, &ss) != 0) return -1;
+  /* at most one node per iteration: a far jump comes from a poor intermediate state */
+  if (is > v->is + 1) is = v->is + 1;
+  if (is + 1 < v->is) is = v->is - 1;
+  if (is != v->is) {
+    double f = g[is] / (g[is] - g[is + 1]);
+    if (!(f >= 0.0 && f <= 1.0)) f = g[is] > 0.0 ? 1.0 : 0.0;
+    ss = v->snode[is] + f * (v->snode[is + 1] - v->snode[is]);
+  }
+  if (is == v->is) {
+    visc_set_xi(v);
+    return 0;
+  }
+  /* carry the state by node: save, restage, restore */
+  size_t nst = v->nst;
+  double *th = v->J, *mm = v->J + nst, *cc = v->J + 2 * nst; /* J is rebuilt anyway */
+  int *tb = v->iscratch;
+  double *nth = v->J + 3 * nst, *nmm = v->J + 4 * nst, *ncc = v->J + 5 * nst;
+  int *ntb = v->iscratch + nst;
+  for (size_t k = 0; k < nst; k++) {
+    th[k] = v->th[k]; mm[k] = v->mm[k]; cc[k] = v->cc[k]; tb[k] = v->turb[k];
+  }
+  size_t old_is = v->is, old_nu = v->nu;
+  /* node -> old station */
+  for (size_t i = 0; i < n; i++) {
+    size_t ko = i <= old_is ? old_is - i : old_nu + (i - old_is - 1);
+    nth[i] = th[ko]; nmm[i] = mm[ko]; ncc[i] = cc[ko]; ntb[i] = tb[ko];
+  }
+  double *wth = v->J + 6 * nst; /* wake part unchanged */
+  size_t w0o = old_nu + (n - 1 - old_is);
+  for (size_t j = 0; j < v->nw; j++) {
+    wth[3 * j] = th[w0o + j]; wth[3 * j + 1] = mm[w0o + j]; wth[3 * j + 2] = cc[w0o + j];
+  }
+  visc_restage(v, is, ss);
+  visc_update_ue(v);
+  for (size_t k = 0; k < v->nu + v->nl; k++) {
+    size_t i = v->node[k];
+    v->th[k] = nth[i]; v->mm[k] = nmm[i]; v->cc[k] = ncc[i]; v->turb[k] = ntb[i];
+  }
+  /* Stations whose node changed sides, and the first station of each side, lie within a few
+   * panels of the stagnation point: they restart from its Hiemenz state (constant theta,
+   * H = H_hiemenz, N = 0), which is what the layer there is. */
+  {
+    visc_update_ue(v);
+    visc_set_xi(v);
+    vctx c0 = visc_context(v, 0);
+    double hh = visc_hiemenz_h(), thh, h2;
+    bl_similarity_start(1.0, v->p.re, c0.stag_a, 1.0, &thh, &h2);
+    for (size_t k = 0; k < v->nu + v->nl; k++) {
+      size_t i = v->node[k];
+      int upper = k < v->nu;
+      int moved = upper ? (i > old_is) : (i <= old_is);
+      if (moved || k == 0 || k == v->nu) {
+        double ue = (k == 0 || k == v->nu) ? c0.stag_a * fmax(v->xi[k], c0.xi_min) : fmax(v->ue[k], 1e-6);
+        v->th[k] = thh;
+        v->mm[k] = hh * thh * ue;
+        v->cc[k] = 0.0;
+        v->turb[k] = 0;
+      }
+    }
+  }
+  size_t w0 = v->nu + v->nl;
+  for (size_t j = 0; j < v->nw; j++) {
+    v->th[w0 + j] = wth[3 * j]; v->mm[w0 + j] = wth[3 * j + 1]; v->cc[w0 + j] = wth[3 * j + 2];
+    v->turb[w0 + j] = 1;
+  }
+  visc_update_ue(v);
+  visc_set_xi(v);
+  return 1;
+}
+
