@@ -67,3 +67,13 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
   c->us = us;
   c->delta = 0.0; /* set by the caller, which knows theta and dstar */
 }
+
+/* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) -
+ * sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
+#define LAG_K 2.8
+
+double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq)
+{
+  double delta = theta * (3.15 + 1.72 / (hk - 1.0)) + h * theta;
+  return LAG_K * sc * (sqrt(ctau_eq) - sc) / delta;
+}

@@ -33,7 +33,6 @@
 #include <math.h>
 #include <string.h>
 
-#define LAG_K 2.8 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 #define LAM_SEP_HK 3.8
 #define TURB_SEP_HK 2.8
 #define NEWTON_MAX 40
@@ -72,9 +71,7 @@ static void evaluate(const st_state *s, double re, double mach, st_eval *e)
   if (s->turb) {
     bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, &e->c);
     double hk = e->c.hk;
-    double delta = s->theta * (3.15 + 1.72 / (hk - 1.0)) + s->h * s->theta;
-    e->c.delta = delta;
-    e->lag_rhs = LAG_K * s->sc * (sqrt(e->c.ctau_eq) - s->sc) / delta;
+    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(s->h, e->rth, e->me, &e->c);
@@ -102,38 +99,6 @@ static void residuals(const st_state *a, const st_eval *ea, const st_state *b, d
   if (b->turb) {
     r[2] = (b->sc - a->sc) - dxi * eb.lag_rhs;
   }
-}
-
-static int solve3(double J[3][3], double *r, int n, double *dx)
-{
-  /* Gaussian elimination with partial pivoting on an n x n (n = 2 or 3) system J dx = -r */
-  double A[3][4];
-  for (int i = 0; i < n; i++) {
-    for (int j = 0; j < n; j++) A[i][j] = J[i][j];
-    A[i][n] = -r[i];
-  }
-  for (int k = 0; k < n; k++) {
-    int p = k;
-    for (int i = k + 1; i < n; i++) {
-      if (fabs(A[i][k]) > fabs(A[p][k])) p = i;
-    }
-    if (!(fabs(A[p][k]) > 1e-300)) return -1;
-    if (p != k) {
-      for (int j = 0; j <= n; j++) {
-        double t = A[k][j]; A[k][j] = A[p][j]; A[p][j] = t;
-      }
-    }
-    for (int i = k + 1; i < n; i++) {
-      double f = A[i][k] / A[k][k];
-      for (int j = k; j <= n; j++) A[i][j] -= f * A[k][j];
-    }
-  }
-  for (int i = n - 1; i >= 0; i--) {
-    double s = A[i][n];
-    for (int j = i + 1; j < n; j++) s -= A[i][j] * dx[j];
-    dx[i] = s / A[i][i];
-  }
-  return 0;
 }
 
 /* Solve the interval a -> b; b holds the initial guess and receives the solution.
@@ -169,8 +134,12 @@ static int solve_interval(const st_state *a, st_state *b, double re, double mach
       residuals(a, &ea, &p, re, mach, rp);
       for (int i = 0; i < n; i++) J[i][j] = (rp[i] - r[i]) / h;
     }
-    double dx[3] = {0, 0, 0};
-    if (solve3(J, r, n, dx) != 0) return -1;
+    double jm[9], dx[3] = {0, 0, 0};
+    for (int i = 0; i < n; i++) {
+      for (int j = 0; j < n; j++) jm[i * n + j] = J[i][j];
+      dx[i] = -r[i];
+    }
+    if (!core_solve_small(jm, dx, n)) return -1;
     double lim = 1.0;
     if (fabs(dx[0]) > 0.5) lim = fmin(lim, 0.5 / fabs(dx[0]));
     if (fabs(dx[1]) > 0.5) lim = fmin(lim, 0.5 / fabs(dx[1]));

@@ -20,6 +20,10 @@ ascr_status core_fail(ascr_errbuf *err, ascr_status code, const char *fmt, ...) 
 /* calloc of n elements of size sz with overflow check; NULL on failure or n == 0. */
 void *core_calloc(size_t n, size_t sz);
 
+/* Solve a x = b for a small dense system, n <= 3 (a row-major n x n, destroyed; b receives x).
+ * Returns 1, or 0 if a is singular to working precision. solve_small.c. */
+int core_solve_small(double *a, double *b, int n);
+
 /* pi to double precision (M_PI is not part of ISO C). */
 #define ASCR_PI 3.14159265358979323846
 

@@ -82,7 +82,7 @@ static int solve_station(const vctx *cx, int kind, const vstate *a, vstate *b, i
       for (int i = 0; i < 3; i++) J[i * 3 + j] = (Rp[i] - R[i]) / h;
     }
     double dx[3] = {-R[0], -R[1], -R[2]};
-    if (!visc_solve3(J, dx)) return -1;
+    if (!core_solve_small(J, dx, 3)) return -1;
     double lim = 1.0;
     if (fabs(dx[0]) * lim > 0.5) lim = 0.5 / fabs(dx[0]);
     if (fabs(dx[1]) * lim > 0.5) lim = 0.5 / fabs(dx[1]);

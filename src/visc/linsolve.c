@@ -1,6 +1,5 @@
 /* src/visc/linsolve.c
- * Solution of the Newton system in structured form J = L + U D Q (see below) and the 3x3
- * block solve it and the cold-start march share.
+ * Solution of the Newton system in structured form J = L + U D Q (see below).
  */
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
@@ -22,39 +21,6 @@
  * the rest is block substitution. The result is checked against the structured matrix; a
  * solution that does not satisfy it to 1e-6 of the residual falls back to the dense LU. */
 
-/* 3x3 solve with partial pivoting, a row-major (destroyed); 0 if singular */
-int visc_solve3(double a[9], double b[3])
-{
-  for (int c = 0; c < 3; c++) {
-    int p = c;
-    for (int r = c + 1; r < 3; r++) {
-      if (fabs(a[r * 3 + c]) > fabs(a[p * 3 + c])) p = r;
-    }
-    if (!(fabs(a[p * 3 + c]) > 1e-300)) return 0;
-    if (p != c) {
-      for (int q = 0; q < 3; q++) {
-        double t = a[c * 3 + q];
-        a[c * 3 + q] = a[p * 3 + q];
-        a[p * 3 + q] = t;
-      }
-      double t = b[c];
-      b[c] = b[p];
-      b[p] = t;
-    }
-    for (int r = c + 1; r < 3; r++) {
-      double f = a[r * 3 + c] / a[c * 3 + c];
-      for (int q = c; q < 3; q++) a[r * 3 + q] -= f * a[c * 3 + q];
-      b[r] -= f * b[c];
-    }
-  }
-  for (int c = 2; c >= 0; c--) {
-    double t = b[c];
-    for (int q = c + 1; q < 3; q++) t -= a[c * 3 + q] * b[q];
-    b[c] = t / a[c * 3 + c];
-  }
-  return 1;
-}
-
 /* Invert the diagonal blocks of L once per Newton step; 0 if one is singular. */
 static int invert_diagonal(ascr_visc_solver *v)
 {
@@ -70,7 +36,7 @@ static int invert_diagonal(ascr_visc_solver *v)
     for (int c = 0; c < 3; c++) {
       double a[9], b[3] = {c == 0, c == 1, c == 2};
       memcpy(a, blk, sizeof a);
-      if (!visc_solve3(a, b)) return 0;
+      if (!core_solve_small(a, b, 3)) return 0;
       inv[0 * 3 + c] = b[0];
       inv[1 * 3 + c] = b[1];
       inv[2 * 3 + c] = b[2];

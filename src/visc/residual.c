@@ -25,7 +25,6 @@
 /* width (in interval fractions) of the smooth minimum that keeps the transition point within
  * its interval; it lies below min(f, 1) by at most TR_SMOOTH/2 of the interval */
 #define TR_SMOOTH 0.1
-#define LAG_K 2.8 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) - sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 
 typedef struct vev {
   double h, rth, me;
@@ -44,8 +43,7 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
   if (turb) {
     double sc = s->c > 1e-5 ? s->c : 1e-5;
     bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, &e->c);
-    double delta = th * (3.15 + 1.72 / (e->c.hk - 1.0)) + e->h * th;
-    e->lag = LAG_K * sc * (sqrt(e->c.ctau_eq) - sc) / delta;
+    e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(e->h, e->rth, e->me, &e->c);

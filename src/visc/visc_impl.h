@@ -48,10 +48,6 @@ void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, c
  * shape parameter of s. */
 double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
 
-/* 3x3 linear solve a x = b with partial pivoting (a row-major, destroyed; b receives x).
- * Returns 1, or 0 if a is singular. */
-int visc_solve3(double a[9], double b[3]);
-
 /* Cold-start march of one surface (coldstart.c): n stations at xi[0..n-1] with driving edge
  * velocities ue[0..n-1]; first = the state of station 0 (stagnation); fills th, m, c, turb
  * for the n stations. Returns 1, or 0 if some station was only approximated. */
