@@ -276,6 +276,14 @@ int cmd_polar(int argc, char **argv)
           json_object_set_new(pt, "x_transition_lower", cli_json_num(ok, q->x_transition_lower));
           json_object_set_new(pt, "converged", json_boolean(ok));
           json_object_set_new(pt, "iterations", json_integer(q->iterations));
+          json_object_set_new(pt, "bistable", json_boolean(ok && q->bistable));
+          if (ok && q->bistable) {
+            json_t *os = json_object();
+            json_object_set_new(os, "cl", json_real(q->other_cl));
+            json_object_set_new(os, "cd", json_real(q->other_cd));
+            json_object_set_new(os, "cm", json_real(q->other_cm));
+            json_object_set_new(pt, "other_state", os);
+          }
           json_array_append_new(pa, pt);
         }
         json_object_set_new(po, "points", pa);
@@ -289,7 +297,8 @@ int cmd_polar(int argc, char **argv)
     json_decref(o);
   } else if (csv) {
     fprintf(fp, "# section: %s\n# note: %s\n", name, CLI_ESTIMATE_NOTE);
-    fputs("re,mach,ncrit,alpha_deg,cl,cd,cdf,cdp,cm,x_transition_upper,x_transition_lower,converged\n", fp);
+    fputs("re,mach,ncrit,alpha_deg,cl,cd,cdf,cdp,cm,x_transition_upper,x_transition_lower,converged,"
+          "bistable\n", fp);
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
@@ -302,9 +311,9 @@ int cmd_polar(int argc, char **argv)
             if (isfinite(q->x_transition_upper)) fprintf(fp, "%.5f", q->x_transition_upper);
             fputc(',', fp);
             if (isfinite(q->x_transition_lower)) fprintf(fp, "%.5f", q->x_transition_lower);
-            fputs(",true\n", fp);
+            fputs(q->bistable ? ",true,true\n" : ",true,false\n", fp);
           } else {
-            fputs(",,,,,,,false\n", fp);
+            fputs(",,,,,,,false,false\n", fp);
           }
         }
       }
@@ -331,6 +340,10 @@ int cmd_polar(int argc, char **argv)
           snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
           fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %9s %9s %6.1f\n", q->alpha_deg, q->cl,
                   q->cd, q->cdf, q->cdp, q->cm, tu, tl, q->cl / q->cd);
+          if (q->bistable) {
+            fprintf(fp, "%8s two states: reached from the other side cl %.4f, cd %.5f, cm %.4f\n",
+                    "", q->other_cl, q->other_cd, q->other_cm);
+          }
         }
         if (sums[k].n_converged > 0) {
           fprintf(fp, "cl_max %.4f at %.2f deg%s; %zu of %zu points converged\n", sums[k].cl_max,

@@ -12,6 +12,12 @@
  * A point that still fails is recorded unconverged and the walk continues from the last
  * converged solution. cl_max is the largest converged cl; stall is reported when a converged
  * point beyond it has a lower cl.
+ * With the exact transition formulation a converged state depends only on the condition, so
+ * where two walks reach an angle with different converged states the physics has two states
+ * (hysteresis near stall, a bubble that bursts): each point is therefore also reached from the
+ * other side (down from the highest converged point, up from the lowest) and flagged bistable
+ * where the second state differs by more than 0.005 in cl or 1 % in cd (issue 11's uniqueness
+ * tolerances); a point only the second walk converges is taken from it.
  */
 #include "airscrew/ascr_polar.h"
 #include "visc/visc_impl.h"
@@ -48,7 +54,13 @@ static void fill(ascr_polar_point *p, double alpha_deg, const ascr_visc_result *
   p->converged = r->converged;
   p->iterations = r->iterations;
   p->residual = r->residual;
+  p->bistable = 0;
+  p->other_cl = p->other_cd = p->other_cm = NAN;
 }
+
+/* Two converged states differ (issue 11's uniqueness tolerances). */
+#define BISTABLE_DCL 0.005
+#define BISTABLE_DCD_REL 0.01
 
 /* Solve target alpha continuing from the last converged state (saved in the solver's snapshot;
  * have_last = 0 for a fresh start). On success the snapshot holds the new state. */
@@ -138,6 +150,37 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
   return st;
 }
 
+/* Second pass of an exact-formulation sweep: the angles i0..i1 (stepping by dir) reached from
+ * the converged state of slot `slot` at index istart; a point that failed before and converges
+ * now is taken, a point with a different converged state is flagged bistable. */
+static void return_pass(ascr_visc_solver *v, int slot, size_t istart, long dir, size_t iend,
+                        double a0, double step, ascr_polar_point *pts)
+{
+  visc_restore(v, slot);
+  visc_snapshot(v, 0);
+  int have = 1;
+  double alast = a0 + step * (double)istart;
+  for (size_t i = istart; i != iend;) {
+    i = (size_t)((long)i + dir);
+    double a = a0 + step * (double)i;
+    ascr_visc_result rr;
+    int ok = solve_point(v, have, alast, a, &rr);
+    if (!ok) continue;
+    have = 1;
+    alast = a;
+    ascr_polar_point *p = &pts[i];
+    if (!p->converged) {
+      fill(p, a, &rr);
+    } else if (fabs(rr.cl - p->cl) > BISTABLE_DCL ||
+               fabs(rr.cd - p->cd) > BISTABLE_DCD_REL * fmin(rr.cd, p->cd)) {
+      p->bistable = 1;
+      p->other_cl = rr.cl;
+      p->other_cd = rr.cd;
+      p->other_cm = rr.cm;
+    }
+  }
+}
+
 ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double step,
                              ascr_polar_point *pts, ascr_polar_summary *sum,
                              ascr_polar_progress_fn progress, void *progress_ctx,
@@ -174,6 +217,7 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
   int have = 0;
   size_t ilow = n;
   double alast = NAN;
+  size_t ihigh = n; /* highest converged index of the upward walk (its state in slot 3) */
   for (size_t i = i0; i < n; i++) {
     double a = a0 + step * (double)i;
     int ok = solve_point(v, have, alast, a, &r);
@@ -183,6 +227,8 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
         ilow = i;
         visc_snapshot(v, 2);
       }
+      ihigh = i;
+      visc_snapshot(v, 3);
       have = 1;
       alast = a;
     }
@@ -215,6 +261,19 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
       have = 1;
       alast = a;
     }
+  }
+  if (v->p.exact_transition) {
+    /* every point from the other side too: down from the highest converged point, then up
+     * from the lowest (the downward walk ended there: its state is in slot 0) */
+    size_t ilo = n;
+    for (size_t i = 0; i < n && ilo == n; i++) {
+      if (pts[i].converged) ilo = i;
+    }
+    if (ilo < n && ilo < i0 && v->sv_have[0]) {
+      visc_snapshot(v, 2); /* slot 0 may be overwritten by the first return pass */
+    }
+    if (ihigh < n && ihigh > i0) return_pass(v, 3, ihigh, -1, i0, a0, step, pts);
+    if (ilo < n && ilo < i0 && v->sv_have[2]) return_pass(v, 2, ilo, 1, i0 - 1, a0, step, pts);
   }
   /* summary */
   sum->cl_max = NAN;

@@ -17,6 +17,9 @@
 #include "bl/bl_impl.h"
 #include "panel/panel_impl.h"
 
+/* Saved-state slots of a solver (visc_snapshot / visc_restore). */
+#define VISC_SLOTS 4
+
 /* Local state of one station as the residuals see it. */
 typedef struct vstate {
   double th, m, c, ue; /* unknowns and edge velocity */
@@ -119,13 +122,13 @@ struct ascr_visc_solver {
   double *dinv;              /* nst x 9: inverses of the diagonal blocks of L */
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
-  /* saved converged states (visc_snapshot / visc_restore): slots 0 and 2 for callers
+  /* saved converged states (visc_snapshot / visc_restore): slots 0, 2 and 3 for callers
    * (sweeps), slot 1 for the solver's own use */
-  double *sv_th[3], *sv_mm[3], *sv_cc[3];
-  int *sv_turb[3];
-  size_t sv_is[3];
-  double sv_s_stag[3];
-  int sv_have[3];
+  double *sv_th[VISC_SLOTS], *sv_mm[VISC_SLOTS], *sv_cc[VISC_SLOTS];
+  int *sv_turb[VISC_SLOTS];
+  size_t sv_is[VISC_SLOTS];
+  double sv_s_stag[VISC_SLOTS];
+  int sv_have[VISC_SLOTS];
   ascr_visc_trace_fn trace;
   void *trace_ctx;
 };

@@ -93,7 +93,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
-  for (int q = 0; q < 3; q++) {
+  for (int q = 0; q < VISC_SLOTS; q++) {
     ALLOC(v->sv_th[q], nst);
     ALLOC(v->sv_mm[q], nst);
     ALLOC(v->sv_cc[q], nst);
@@ -118,7 +118,7 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->ipiv); free(v->iscratch); free(v->cp);
   free(v->lst); free(v->lblk); free(v->uidx); free(v->ucoef); free(v->ucnt); free(v->zm);
   free(v->mmat); free(v->wv); free(v->yv); free(v->chk); free(v->ipiv2); free(v->dinv);
-  for (int q = 0; q < 3; q++) {
+  for (int q = 0; q < VISC_SLOTS; q++) {
     free(v->sv_th[q]); free(v->sv_mm[q]); free(v->sv_cc[q]); free(v->sv_turb[q]);
   }
   free(v);

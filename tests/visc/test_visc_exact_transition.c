@@ -98,12 +98,55 @@ static void test_visc_exact_transition_symmetric_section_has_no_lift_at_zero(voi
   teardown(&f);
 }
 
+/* An exact-formulation sweep reaches every point from both sides; NACA 2412 at Re 1e5, 2-6 deg
+ * has one state per angle (the walks above agree), so no point may be flagged bistable, every
+ * flag field must be consistent, and each point must equal a cold solve at its angle. */
+static void test_visc_exact_sweep_flags_no_second_state_where_there_is_one(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "naca2412", 1e5);
+  ascr_polar_point pts[5];
+  ascr_polar_summary sum;
+  ascr_errbuf e;
+  assert_int_equal(ascr_polar_sweep(f.v, 2.0, 6.0, 1.0, pts, &sum, NULL, NULL, &e), ASCR_OK);
+  assert_int_equal(sum.n_converged, 5);
+  for (int i = 0; i < 5; i++) {
+    assert_int_equal(pts[i].bistable, 0);
+    assert_true(isnan(pts[i].other_cl) && isnan(pts[i].other_cd) && isnan(pts[i].other_cm));
+    ascr_visc_result r;
+    assert_int_equal(ascr_visc_solver_solve(f.v, pts[i].alpha_deg * DEG, 0, &r, &e), ASCR_OK);
+    assert_true(fabs(r.cl - pts[i].cl) <= DCL_MAX);
+    assert_true(fabs(r.cd - pts[i].cd) <= DCD_REL_MAX * fmin(r.cd, pts[i].cd));
+  }
+  teardown(&f);
+}
+
+/* The banded default formulation does not look for second states. */
+static void test_visc_default_sweep_never_flags_bistable(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "naca2412", 1e5);
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = 1e5;
+  ascr_errbuf e;
+  assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, &e), ASCR_OK);
+  ascr_polar_point pts[5];
+  ascr_polar_summary sum;
+  assert_int_equal(ascr_polar_sweep(f.v, 2.0, 6.0, 1.0, pts, &sum, NULL, NULL, &e), ASCR_OK);
+  for (int i = 0; i < 5; i++) assert_int_equal(pts[i].bistable, 0);
+  teardown(&f);
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
   const struct CMUnitTest tests[] = {
     cmocka_unit_test(test_visc_exact_transition_one_answer_whatever_the_path),
     cmocka_unit_test(test_visc_exact_transition_symmetric_section_has_no_lift_at_zero),
+    cmocka_unit_test(test_visc_exact_sweep_flags_no_second_state_where_there_is_one),
+    cmocka_unit_test(test_visc_default_sweep_never_flags_bistable),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
