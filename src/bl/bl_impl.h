@@ -37,9 +37,10 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
 
 /* Lag equation of the turbulent layer (Green, Weeks & Brooman 1977, ARC R&M 3791, in the form of
  * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta with
- * K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c). One place for
- * the march and the coupled residuals. sc = sqrt(Ctau); lengths in chord. */
-double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq);
+ * K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c); in a wake
+ * (wake = 1) K is doubled, the wake's dissipation length being half the wall layer's. One place
+ * for the march and the coupled residuals. sc = sqrt(Ctau); lengths in chord. */
+double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, int wake);
 
 /* Envelope amplification rate dN/dxi (1/chord) at Hk, theta, Re_theta (Drela & Giles 1987). */
 double bl_amplification_rate(double hk, double theta, double rth);

@@ -71,9 +71,17 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
 /* Green et al. 1977 / Drela & Giles 1987: (delta/Ctau) dCtau/dxi = 5.6 (sqrt(Ctau_EQ) -
  * sqrt(Ctau)), i.e. 2.8 in the sqrt(Ctau) form used here */
 #define LAG_K 2.8
+/* Wake: Green, Weeks & Brooman (1977) scale the dissipation length of a wake by lambda = 0.5
+ * against a wall layer (value from memory of the report); the lag constant, a rate per unit of
+ * that length (Bradshaw's dissipation term (tau/rho)^(3/2)/L), scales with 1/lambda. Without
+ * it the lag length delta, which grows like 1/(Hk - 1) as the defect decays, froze Ctau in the
+ * near wake behind a thick or separated trailing edge and the dissipation drove H below 1
+ * (docs/theory/viscous.md, "The wake"). */
+#define LAG_WAKE_LAMBDA 0.5
 
-double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq)
+double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, int wake)
 {
   double delta = theta * (3.15 + 1.72 / (hk - 1.0)) + h * theta;
-  return LAG_K * sc * (sqrt(ctau_eq) - sc) / delta;
+  double k = wake ? LAG_K / LAG_WAKE_LAMBDA : LAG_K;
+  return k * sc * (sqrt(ctau_eq) - sc) / delta;
 }

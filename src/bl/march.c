@@ -71,7 +71,7 @@ static void evaluate(const st_state *s, double re, double mach, st_eval *e)
   if (s->turb) {
     bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, &e->c);
     double hk = e->c.hk;
-    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq);
+    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, 0);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(s->h, e->rth, e->me, &e->c);
