@@ -44,7 +44,7 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
     double sc = s->c > 1e-5 ? s->c : 1e-5;
     bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, &e->c);
     /* the wake's shorter dissipation length (bl_lag_rate) goes with the exact formulation for
-     * now: measured on the robustness grid it lifts the exact formulation from 980 to 1065
+     * now: measured on the robustness grid it lifts the exact formulation from 980 to 1068
      * converged points of 1125 and takes the banded iteration from 1080 to 1053, whose states
      * it moves along their path (docs/theory/viscous.md, "The wake") */
     e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, wake && cx->exact_tr);
