@@ -19,7 +19,11 @@
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
+#include <fcntl.h>
 #include <unistd.h>
+
+/* largest polar-table file read (a table of a few dozen curves is well under 1 MiB) */
+#define TABLE_FILE_MAX ((size_t)64 << 20)
 
 #define TABLE_FORMAT "airscrew-polar-table-1"
 
@@ -407,22 +411,37 @@ ascr_status ascr_table_file_read(const char *path, const char *key_text, ascr_cu
   }
   *curves = NULL;
   *n = 0;
-  FILE *f = fopen(path, "rb");
+  /* only a regular file: a FIFO would block (opened without waiting, then refused), a device
+   * such as /dev/zero never ends; and a limit counted while reading, not after */
+  int fd = open(path, O_RDONLY | O_NONBLOCK | O_CLOEXEC);
+  if (fd < 0) {
+    return core_fail(err, ASCR_EIO, "%s: cannot open polar-table file", path);
+  }
+  struct stat sb;
+  if (fstat(fd, &sb) != 0 || !S_ISREG(sb.st_mode)) {
+    close(fd);
+    return core_fail(err, ASCR_EIO, "%s: not a regular file (a polar-table file must be one)", path);
+  }
+  int fl = fcntl(fd, F_GETFL);
+  if (fl >= 0) fcntl(fd, F_SETFL, fl & ~O_NONBLOCK);
+  FILE *f = fdopen(fd, "rb");
   if (f == NULL) {
+    close(fd);
     return core_fail(err, ASCR_EIO, "%s: cannot open polar-table file", path);
   }
   char *buf = NULL;
-  size_t len = 0;
+  size_t len = 0, total = 0;
   FILE *m = open_memstream(&buf, &len);
   char chunk[65536];
   size_t got;
   int too_big = 0;
   while (m != NULL && (got = fread(chunk, 1, sizeof chunk, f)) > 0) {
-    fwrite(chunk, 1, got, m);
-    if (len > (64u << 20)) {
+    total += got;
+    if (total > TABLE_FILE_MAX) {
       too_big = 1;
       break;
     }
+    fwrite(chunk, 1, got, m);
   }
   int bad = ferror(f);
   fclose(f);

@@ -11,6 +11,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 static char tmpdir[256];
@@ -149,11 +150,42 @@ static void test_keys_and_ladder(void **state)
   ascr_assert_close(re[1], 31600.0, 1e-12, 0.0, "rungs rounded to three figures");
 }
 
+/* Issue 17: a polar-table file is read only if it is a regular file (a FIFO in place of a cache
+ * entry blocked the program; /dev/zero grew memory without end), with the 64 MiB limit counted
+ * while reading (before, the size was taken from an unflushed memory stream and never applied). */
+static void test_table_file_reader_refuses_what_is_not_a_bounded_regular_file(void **state)
+{
+  (void)state;
+  ascr_curve_data *cv = NULL;
+  size_t nc = 0;
+  ascr_errbuf e;
+  char fifo[300], big[300];
+  snprintf(fifo, sizeof fifo, "%s/entry.fifo", tmpdir);
+  assert_int_equal(mkfifo(fifo, 0600), 0);
+  assert_int_equal(ascr_table_file_read(fifo, NULL, &cv, &nc, &e), ASCR_EIO);
+  assert_non_null(strstr(e.msg, "not a regular file"));
+  assert_int_equal(ascr_table_file_read("/dev/zero", NULL, &cv, &nc, &e), ASCR_EIO);
+  assert_non_null(strstr(e.msg, "not a regular file"));
+  /* a sparse regular file just over the limit */
+  snprintf(big, sizeof big, "%s/big.json", tmpdir);
+  FILE *f = fopen(big, "wb");
+  assert_non_null(f);
+  assert_int_equal(ftruncate(fileno(f), (off_t)(65 << 20)), 0);
+  fclose(f);
+  assert_int_equal(ascr_table_file_read(big, NULL, &cv, &nc, &e), ASCR_EPARSE);
+  assert_non_null(strstr(e.msg, "64 MiB"));
+  assert_null(cv);
+  assert_int_equal(nc, 0);
+  unlink(big);
+  unlink(fifo);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_compute_roundtrip),
       cmocka_unit_test(test_keys_and_ladder),
+      cmocka_unit_test(test_table_file_reader_refuses_what_is_not_a_bounded_regular_file),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }
