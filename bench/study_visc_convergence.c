@@ -23,6 +23,7 @@ int main(int argc, char **argv)
   const char *secs[] = {plate, n4412, "naca0012", "naca2412", "naca4412"};
   const double res[] = {3e4, 6e4, 1e5, 2e5, 1e6};
   size_t total = 0, conv = 0;
+  double its_conv = 0.0, its_fail = 0.0; /* Newton iterations spent on converged / failed points */
   printf("%-32s", "section \\ Re");
   for (int ir = 0; ir < 5; ir++) printf(" %8.0f", res[ir]);
   printf("\n");
@@ -57,6 +58,10 @@ int main(int argc, char **argv)
         }
         fprintf(stderr, "\n");
       }
+      for (size_t i = 0; i < np; i++) {
+        if (pts[i].converged) its_conv += pts[i].iterations;
+        else its_fail += pts[i].iterations;
+      }
       total += sum.n_points;
       conv += sum.n_converged;
       free(pts);
@@ -68,5 +73,8 @@ int main(int argc, char **argv)
     ascr_geom_section_free(raw);
   }
   printf("converged %zu of %zu points (%.1f %%)\n", conv, total, 100.0 * (double)conv / (double)total);
+  printf("Newton iterations: %.0f on converged points (%.0f a point), %.0f on failed points (%.0f a point)\n",
+         its_conv, its_conv / (double)(conv > 0 ? conv : 1), its_fail,
+         its_fail / (double)(total - conv > 0 ? total - conv : 1));
   return 0;
 }
