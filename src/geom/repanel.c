@@ -113,6 +113,13 @@ ascr_status ascr_geom_section_repanel(const ascr_geom_section *in,
     wprev = w;
   }
   size_t np = p->n_panels;
+  if (!(W[M - 1] > 0.0) || !isfinite(W[M - 1]) || !isfinite(W[ile])) {
+    /* a degenerate contour (coincident or folded points) gives no usable arc-length weight;
+     * the readers' checks should have refused it, this keeps the cast below defined */
+    st = core_fail(err, ASCR_EGEOM, "repanel %s: degenerate contour (no finite arc-length weight)",
+                   in->name);
+    goto done;
+  }
   size_t nup = (size_t)floor((double)np * W[ile] / W[M - 1] + 0.5);
   if (nup < 4) nup = 4;
   if (nup > np - 4) nup = np - 4;

@@ -3,7 +3,8 @@
  * crossing segments, and surfaces that run forward (in x) from the nose to the trailing edge.
  *
  * Method. Repeats: consecutive points closer than 1e-9 of the x-range. Crossings: all pairs of
- * non-adjacent segments are tested with the orientation (cross-product sign) test, after a
+ * non-adjacent segments are tested with the orientation (cross-product sign) test (touching
+ * counts: a contour that passes a point twice is not a section), after a
  * sweep over segments sorted by their smallest x so that only pairs whose x-ranges overlap are
  * compared (O(n log n) for a section, where few segments share an x-range); a crossing of the
  * segments next to the trailing edge within 1e-4 chord of it is tolerated (five-decimal
@@ -45,6 +46,12 @@ static double orient(double ax, double ay, double bx, double by, double cx, doub
   return (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
 }
 
+/* Is c inside the bounding box of segment ab (c collinear with it: c on the segment)? */
+static int on_box(double ax, double ay, double bx, double by, double cx, double cy)
+{
+  return fmin(ax, bx) <= cx && cx <= fmax(ax, bx) && fmin(ay, by) <= cy && cy <= fmax(ay, by);
+}
+
 /* Proper or touching intersection of segments pq and rs. */
 static int segments_cross(double px, double py, double qx, double qy, double rx, double ry,
                           double sx, double sy)
@@ -56,12 +63,13 @@ static int segments_cross(double px, double py, double qx, double qy, double rx,
   if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) {
     return 1;
   }
-  /* collinear touching: treat as crossing only for exact overlaps */
-  if (d1 == 0 && d2 == 0 && d3 == 0 && d4 == 0) {
-    double lo1 = fmin(px, qx), hi1 = fmax(px, qx), lo2 = fmin(rx, sx), hi2 = fmax(rx, sx);
-    double lo1y = fmin(py, qy), hi1y = fmax(py, qy), lo2y = fmin(ry, sy), hi2y = fmax(ry, sy);
-    return lo1 <= hi2 && lo2 <= hi1 && lo1y <= hi2y && lo2y <= hi1y;
-  }
+  /* touching: an end of one segment on the other (zero orientation and inside its bounding
+   * box), which includes a point the contour passes twice and exact collinear overlaps; the
+   * callers skip adjacent segments, which share a node by construction */
+  if (d1 == 0 && on_box(px, py, qx, qy, rx, ry)) return 1;
+  if (d2 == 0 && on_box(px, py, qx, qy, sx, sy)) return 1;
+  if (d3 == 0 && on_box(rx, ry, sx, sy, px, py)) return 1;
+  if (d4 == 0 && on_box(rx, ry, sx, sy, qx, qy)) return 1;
   return 0;
 }
 

@@ -198,6 +198,10 @@ static void test_geom_reader_rejects_bad_input_with_line(void **state)
      ASCR_EGEOM, "mem:4: repeated point (0.5, 0.06) (same as line 3)"},
     {"crossing contour", "1 0\n0.75 0.04\n0.5 -0.06\n0.25 0.06\n0.05 0.03\n0 0\n0.05 -0.02\n0.25 -0.03\n0.5 0.025\n0.75 -0.01\n1 0\n",
      ASCR_EGEOM, "crosses itself"},
+    /* found by fuzzing (issue 17): the contour passes (0.34, 0.000572) and (0.34, 0.00057)
+     * twice without crossing; the analysis then cast a NaN to an integer (repanel.c) */
+    {"self-touching contour", ".34;.000572\n.34,.00057\n0.9,0.\n.99,0\n.34;.000572\n0.34,0.00057\n.67,0\n1,-0\n",
+     ASCR_EGEOM, "crosses itself"},
     {"surface doubling back", "1 0\n0.75 0.04\n0.5 0.06\n0.6 0.065\n0.25 0.06\n0.05 0.03\n0 0\n0.05 -0.02\n0.25 -0.03\n0.5 -0.025\n0.75 -0.01\n1 0\n",
      ASCR_EGEOM, "upper surface doubles back"},
     {"open contour", "1 0.1\n0.75 0.14\n0.5 0.16\n0.25 0.12\n0.05 0.05\n0 0\n0.05 -0.02\n0.25 -0.03\n0.5 -0.025\n0.75 -0.01\n1 -0.01\n",
