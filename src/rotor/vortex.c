@@ -344,6 +344,29 @@ static void vx_free(vx *s)
   free(s->dga); free(s->dgt); free(s->ipiv); free(s->ua0); free(s->ut0); free(s->gsave);
 }
 
+/* Advance per radian of the rigid helical wake: h = (V + w)/Omega, one value for every
+ * trailing filament, w the thrust-weighted mean axial induced velocity at the lifting line
+ * (weights Gamma (Omega r - u_t) dr, the Kutta-Joukowski thrust of each element; the plain
+ * r dr mean where no element pushes). w is the uniform velocity that takes the same induced
+ * power at the same thrust (P_i = T w), and a semi-infinite helical sheet convected at the
+ * disc's induced velocity reproduces momentum theory's v = sqrt(T / (2 rho A)) at the disc
+ * (docs/theory/rotor.md, "Wake pitch"). Pitches taken from each edge's local inflow (the
+ * moderately loaded form of Lerbs 1952, used before) made a hovering rotor with outboard
+ * loading convect its outer filaments faster than the disc flow: figures of merit above 1. */
+static double wake_pitch(const vx *s)
+{
+  double wt = 0.0, w = 0.0, aw = 0.0, a = 0.0;
+  for (size_t i = 0; i < s->n; i++) {
+    double dt = fmax(s->gam[i] * (s->omega * s->rc[i] - s->ut[i]) * s->dr[i], 0.0);
+    wt += dt * s->ua[i];
+    w += dt;
+    aw += s->ua[i] * s->rc[i] * s->dr[i];
+    a += s->rc[i] * s->dr[i];
+  }
+  double wbar = w > 0.0 ? wt / w : aw / a;
+  return (s->v + wbar) / s->omega;
+}
+
 ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const *tables,
                               const ascr_rotor_params *pin, const ascr_vortex_params *vpin,
                               double rpm, double speed_m_s, ascr_rotor_result *res,
@@ -444,13 +467,10 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     }
     asum += s.rc[i] * s.dr[i];
   }
-  /* helix advance per radian of every trailing filament: the local hydrodynamic pitch at its
-   * edge, h = r tan(phi) = r (V + u_a) / (Omega r - u_t), from the BEMT induced velocities first */
-  double *ue = core_calloc(2 * (n + 1), sizeof *ue);
-  double *hedge = core_calloc(2 * (n + 1), sizeof *hedge);
-  if (ue == NULL || hedge == NULL) {
-    free(ue);
-    free(hedge);
+  /* helix advance per radian, one for all trailing filaments (wake_pitch), from the BEMT
+   * induced velocities first */
+  double *hedge = core_calloc(n + 1, sizeof *hedge);
+  if (hedge == NULL) {
     free(bel);
     vx_free(&s);
     return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
@@ -462,30 +482,15 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   free(bel);
   const double hmin = 0.005 * b->r_tip_m; /* at least 0.5 % of the tip speed */
   int ok = 0, wake_ok = 0;
-  double *hnew = hedge + n + 1;
+  double hprev = 0.0;
   for (int it = 0; it <= vp.max_wake_iter; it++) {
-    /* local pitch of every edge; the r-weighted mean decides whether the wake leaves the disc
-     * at all, and no edge goes below half of it (next to the tip and root vortices the
-     * lifting line's local induced velocity says little about how fast they convect) */
-    double hsum = 0.0, wsum2 = 0.0;
-    for (size_t e = 0; e <= n; e++) {
-      double a = e == 0 ? s.ua[0] : (e == n ? s.ua[n - 1] : 0.5 * (s.ua[e - 1] + s.ua[e]));
-      double t = e == 0 ? s.ut[0] : (e == n ? s.ut[n - 1] : 0.5 * (s.ut[e - 1] + s.ut[e]));
-      double vt = s.omega * s.edge[e] - t;
-      hnew[e] = vt > 0.0 ? s.edge[e] * (s.v + a) / vt : 0.0;
-      hsum += hnew[e] * s.edge[e];
-      wsum2 += s.edge[e];
-    }
-    double hbar = hsum / wsum2;
+    double hbar = wake_pitch(&s);
     if (!(hbar > hmin)) {
       ok = 0; /* the wake does not leave the disc: outside what a rigid wake can model */
       break;
     }
-    for (size_t e = 0; e <= n; e++) hnew[e] = fmax(hnew[e], 0.5 * hbar);
     if (it > 0) {
-      double dmax = 0.0;
-      for (size_t e = 0; e <= n; e++) dmax = fmax(dmax, fabs(hnew[e] - hedge[e]) / hedge[e]);
-      if (dmax <= 1e-4) {
+      if (fabs(hbar - hprev) <= 1e-4 * hprev) {
         wake_ok = 1;
         break;
       }
@@ -493,7 +498,8 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
         break;
       }
     }
-    memcpy(hedge, hnew, (n + 1) * sizeof *hedge);
+    hprev = hbar;
+    for (size_t e = 0; e <= n; e++) hedge[e] = hbar;
     build_influence(&s, hedge, &vp);
     memcpy(s.ua0, s.ua, n * sizeof *s.ua0); /* the start state's induced velocities */
     memcpy(s.ut0, s.ut, n * sizeof *s.ut0);
@@ -507,7 +513,6 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     }
     induced(&s);
   }
-  free(ue);
   free(hedge);
   int conv = ok && wake_ok;
   /* loads */

@@ -85,10 +85,79 @@ static void test_light_loading(void **state)
   compare(16.0, 6000.0, 10.0, 0.03, 0);
 }
 
+/* Hover, collective 2 to 12 deg, of an untwisted two-blade rotor (R/c = 6) and of the twisted
+ * test rotor, on a thin-airfoil section (cl = 2 pi alpha, cd 0.01). Issue 13 measured figures of
+ * merit above 1 and thrust 1.32-1.51 times the BEMT value on the untwisted one: each trailing
+ * filament convected at its own edge's inflow. Checks, as issue 13 states them: FM below 1
+ * (momentum theory: no rotor takes less than the ideal induced power, and profile drag adds to
+ * it); CT within 10 % of BEMT (the models differ by the lifting line's and Prandtl's tip loss
+ * and by BEMT's independent annuli); the spanwise inflow positive at every element (air goes
+ * down through a thrusting disc; the old model had upflow on alternating elements) and without
+ * element-to-element zigzag (no two successive changes of sign of its increments, apart from
+ * the hub and tip ends where it turns). */
+static void hover_check(const ascr_blade *b, const ascr_polar_table *const *tabs, double coll,
+                        const char *what)
+{
+  ascr_rotor_params p = ascr_rotor_params_defaults();
+  ascr_rotor_result rb, rv;
+  ascr_rotor_element ev[40];
+  ascr_errbuf err;
+  assert_int_equal(ascr_rotor_bemt(b, tabs, &p, 3000.0, 0.0, &rb, NULL, &err), ASCR_OK);
+  if (ascr_rotor_vortex(b, tabs, &p, NULL, 3000.0, 0.0, &rv, ev, &err) != ASCR_OK) {
+    fail_msg("%s", err.msg);
+  }
+  assert_true(rb.converged && rv.converged);
+  print_message("%s, collective %4.1f: CT bemt %.5f vortex %.5f (%+.2f %%)  FM bemt %.3f vortex %.3f\n",
+                what, coll, rb.CT, rv.CT, 100.0 * (rv.CT / rb.CT - 1.0), rb.figure_of_merit,
+                rv.figure_of_merit);
+  assert_true(rv.figure_of_merit < 1.0);
+  ascr_assert_close(rv.CT, rb.CT, 0.10, 0.0, "CT vortex vs BEMT in hover");
+  int zigzag = 0;
+  for (int i = 0; i < 40; i++) {
+    assert_true(ev[i].phi_deg > 0.0);
+    if (i >= 2 && i < 38) {
+      double d0 = ev[i - 1].phi_deg - ev[i - 2].phi_deg, d1 = ev[i].phi_deg - ev[i - 1].phi_deg,
+             d2 = ev[i + 1].phi_deg - ev[i].phi_deg;
+      if (d0 * d1 < 0.0 && d1 * d2 < 0.0) zigzag++;
+    }
+  }
+  assert_int_equal(zigzag, 0);
+}
+
+static void test_hover_below_ideal_and_near_bemt(void **state)
+{
+  (void)state;
+  ascr_polar_table *tab;
+  assert_int_equal(ascr_polar_table_linear(2.0 * PI, 0.0, 0.01, &tab, NULL), ASCR_OK);
+  const ascr_polar_table *tabs[1] = {tab};
+  for (double coll = 2.0; coll <= 12.01; coll += 1.0) {
+    test_blade t;
+    memset(&t, 0, sizeof t);
+    t.b.n_blades = 2;
+    t.b.r_tip_m = 0.3;
+    t.b.r_hub_m = 0.045;
+    t.b.rotation = 1;
+    t.b.n_stations = 2;
+    t.b.stations = t.st;
+    t.b.n_sections = 1;
+    t.st[0] = (ascr_blade_station){0.045, 0.05, coll, 0};
+    t.st[1] = (ascr_blade_station){0.3, 0.05, coll, 0};
+    hover_check(&t.b, tabs, coll, "untwisted R/c 6");
+    /* the twisted rotor from 4 deg: below it its tip (coll - 3 deg) pulls the other way and
+     * BEMT's hover solution there is not a reference (issue 13 note) */
+    if (coll >= 4.0) {
+      rotor(&t, coll);
+      hover_check(&t.b, tabs, coll, "twisted test rotor");
+    }
+  }
+  ascr_polar_table_free(tab);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_light_loading),
+      cmocka_unit_test(test_hover_below_ideal_and_near_bemt),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
