@@ -99,19 +99,6 @@ static double cd_at_cl(const polar *pl, double cl)
   return NAN;
 }
 
-static double cl_at_alpha(const polar *pl, double alpha)
-{
-  for (size_t i = 0; i + 1 < pl->n; i++) {
-    const ascr_polar_point *a = &pl->p[i], *b = &pl->p[i + 1];
-    if (!a->converged || !b->converged) continue;
-    if (a->alpha_deg <= alpha && alpha <= b->alpha_deg) {
-      double f = (alpha - a->alpha_deg) / (b->alpha_deg - a->alpha_deg);
-      return a->cl + f * (b->cl - a->cl);
-    }
-  }
-  return NAN;
-}
-
 static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, int exact, polar *pl)
 {
   ascr_visc_params p = ascr_visc_params_defaults();
@@ -203,7 +190,7 @@ int main(int argc, char **argv)
           if (!up) continue;
           clmax_meas = fmax(clmax_meas, clm);
           if (a < -2.0 || a > 6.0) continue;
-          double c = cl_at_alpha(&pl, a);
+          double c = ascr_polar_cl_at_alpha(pl.p, pl.n, a);
           if (!isfinite(c)) continue;
           sl += fabs(c - clm);
           ml = fmax(ml, fabs(c - clm));

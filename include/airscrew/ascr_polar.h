@@ -74,6 +74,10 @@ ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, dou
 ASCR_EXPORT ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg,
                                                ascr_visc_result *r, ascr_errbuf *err);
 
+/** cl at alpha_deg by linear interpolation between the two converged points of a swept
+ *  polar (pts in increasing alpha, n entries) that bracket it; NaN if no converged pair does. */
+ASCR_EXPORT double ascr_polar_cl_at_alpha(const ascr_polar_point *pts, size_t n, double alpha_deg);
+
 #ifdef __cplusplus
 }
 #endif

@@ -86,19 +86,6 @@ static int compare_cd(const polar *pl, const double *cl, const double *cd, size_
   return checked;
 }
 
-static double cl_at_alpha(const polar *pl, double alpha)
-{
-  for (size_t i = 0; i + 1 < pl->n; i++) {
-    const ascr_polar_point *a = &pl->p[i], *b = &pl->p[i + 1];
-    if (!a->converged || !b->converged) continue;
-    if (a->alpha_deg <= alpha && alpha <= b->alpha_deg) {
-      double f = (alpha - a->alpha_deg) / (b->alpha_deg - a->alpha_deg);
-      return a->cl + f * (b->cl - a->cl);
-    }
-  }
-  return NAN;
-}
-
 /* Read columns (ci, cj) of a reference CSV after its '#' lines and header; rows whose first
  * column equals key (if key_col >= 0) only. Returns the row count. */
 static size_t read_ref(const char *name, int key_col, double key, int ci, int cj, double *a,
@@ -145,7 +132,7 @@ static void test_visc_naca0012_re6e6_drag_matches_abbott(void **state)
   /* lift slope: McCroskey (1987) best fit dcl/dalpha = (0.1025 + 0.00485 log10(Re/1e6))/deg
    * (reference/naca0012_mccroskey_lift_slope.csv header); its data scatter about +-4 %, and
    * we take the slope between 0 and 4 deg; tolerance 6 % */
-  double slope = (cl_at_alpha(&pl, 4.0) - cl_at_alpha(&pl, 0.0)) / 4.0;
+  double slope = (ascr_polar_cl_at_alpha(pl.p, pl.n, 4.0) - ascr_polar_cl_at_alpha(pl.p, pl.n, 0.0)) / 4.0;
   ascr_validation_row("naca0012_lift_slope", "McCroskey (1987) best-fit lift slope, NACA 0012, Re 6e6",
                       "lift_slope_reference_per_deg,lift_slope_airscrew_per_deg,difference_percent,tolerance_percent",
                       "%.4f,%.4f,%+.1f,6", 0.1025 + 0.00485 * log10(6.0), slope,
