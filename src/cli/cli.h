@@ -67,8 +67,15 @@ int cli_output_commit(cli_output *o);
 /* Drop collected output without writing anything. */
 void cli_output_discard(cli_output *o);
 
-/* Write a whole file through a temporary beside it, renamed into place (refused if the target
- * appeared meanwhile, unless force). Returns 0 or CLI_EXIT_OUTPUT (message printed). */
+/* Is path usable as an output (nothing there, a regular file with force, or a character
+ * device / FIFO)? Folders, symbolic links, block devices and sockets are refused. Returns 0
+ * or CLI_EXIT_OUTPUT (message printed). */
+int cli_output_check(const char *path, int force);
+
+/* Write a whole file: to a character device or FIFO directly; otherwise through a temporary in
+ * the same folder, renamed into place over nothing or over a regular file (with force), whose
+ * permissions it keeps. Symbolic links, folders, block devices and sockets are refused, also
+ * if they appear while running. Returns 0 or CLI_EXIT_OUTPUT (message printed). */
 int cli_write_atomic(const char *path, const char *buf, size_t len, int force);
 
 /* SIGINT/SIGTERM/SIGHUP: remove the temporary being written (if any) and exit 128 + signal.

@@ -5,6 +5,7 @@
 #include "cli.h"
 
 #include <errno.h>
+#include <fcntl.h>
 #include <math.h>
 #include <signal.h>
 #include <stdarg.h>
@@ -136,17 +137,8 @@ int cli_output_open(cli_output *o, const char *path, int force)
   o->path = path;
   o->force = force;
   if (path != NULL) {
-    struct stat sb;
-    if (stat(path, &sb) == 0) {
-      if (S_ISDIR(sb.st_mode)) {
-        cli_error("%s: is a folder; give a file name for the output", path);
-        return CLI_EXIT_OUTPUT;
-      }
-      if (!force) {
-        cli_error("%s: exists; not overwritten (add --force to replace it)", path);
-        return CLI_EXIT_OUTPUT;
-      }
-    }
+    int rc = cli_output_check(path, force);
+    if (rc != 0) return rc;
   }
   o->fp = open_memstream(&o->buf, &o->len);
   if (o->fp == NULL) {
@@ -195,16 +187,90 @@ void cli_temp_begin(const char *path)
 
 void cli_temp_end(void) { tmp_active = 0; }
 
+/* What is at an output path, by lstat (a symbolic link is not followed):
+ *   0 nothing, 1 a regular file, 2 a stream (character device or FIFO: written to directly,
+ *   never replaced), -1 refused (message printed: folder, symbolic link, block device, socket,
+ *   or a regular file without force). *mode receives the existing file's permissions. */
+static int output_kind(const char *path, int force, mode_t *mode)
+{
+  struct stat sb;
+  if (lstat(path, &sb) != 0) {
+    if (errno == ENOENT) return 0;
+    cli_error("%s: cannot examine the output path: %s", path, strerror(errno));
+    return -1;
+  }
+  if (S_ISDIR(sb.st_mode)) {
+    cli_error("%s: is a folder; give a file name for the output", path);
+    return -1;
+  }
+  if (S_ISLNK(sb.st_mode)) {
+    cli_error("%s: is a symbolic link; outputs are not written through links (give the path "
+              "it points to)", path);
+    return -1;
+  }
+  if (S_ISCHR(sb.st_mode) || S_ISFIFO(sb.st_mode)) return 2;
+  if (!S_ISREG(sb.st_mode)) {
+    cli_error("%s: is a %s; not written to", path, S_ISBLK(sb.st_mode) ? "block device" : "socket");
+    return -1;
+  }
+  if (!force) {
+    cli_error("%s: exists; not overwritten (add --force to replace it)", path);
+    return -1;
+  }
+  *mode = sb.st_mode & 07777;
+  return 1;
+}
+
+int cli_output_check(const char *path, int force)
+{
+  mode_t mode = 0;
+  return output_kind(path, force, &mode) < 0 ? CLI_EXIT_OUTPUT : 0;
+}
+
+/* Write buf to a stream (device or FIFO) that exists at path. */
+static int write_stream(const char *path, const char *buf, size_t len)
+{
+  int fd = open(path, O_WRONLY | O_NOCTTY | O_CLOEXEC);
+  if (fd < 0) {
+    cli_error("%s: cannot open for writing: %s", path, strerror(errno));
+    return CLI_EXIT_OUTPUT;
+  }
+  size_t off = 0;
+  while (off < len) {
+    ssize_t w = write(fd, buf + off, len - off);
+    if (w < 0) {
+      if (errno == EINTR) continue;
+      break;
+    }
+    off += (size_t)w;
+  }
+  int ok = off == len;
+  if (close(fd) != 0) ok = 0;
+  if (!ok) {
+    cli_error("%s: write failed: %s", path, strerror(errno));
+    return CLI_EXIT_OUTPUT;
+  }
+  return 0;
+}
+
 int cli_write_atomic(const char *path, const char *buf, size_t len, int force)
 {
+  mode_t old_mode = 0;
+  int kind = output_kind(path, force, &old_mode);
+  if (kind < 0) return CLI_EXIT_OUTPUT;
+  if (kind == 2) return write_stream(path, buf, len);
+  /* the temporary lives in the target's folder under a short name of its own, so that a
+   * target name of up to 255 characters still leaves room */
   size_t pl = strlen(path);
-  if (pl + 16 > sizeof tmp_path) {
+  const char *slash = strrchr(path, '/');
+  size_t dl = slash != NULL ? (size_t)(slash - path) + 1 : 0;
+  if (dl + 32 > sizeof tmp_path || pl + 1 > sizeof tmp_path) {
     cli_error("%s: path too long", path);
     return CLI_EXIT_OUTPUT;
   }
   char tmp[sizeof tmp_path];
-  memcpy(tmp, path, pl);
-  memcpy(tmp + pl, ".tmp-XXXXXX", 12);
+  memcpy(tmp, path, dl);
+  memcpy(tmp + dl, ".airscrew-tmp-XXXXXX", 21);
   int fd = mkstemp(tmp);
   if (fd < 0) {
     cli_error("%s: cannot create a temporary file beside it: %s", path, strerror(errno));
@@ -222,19 +288,22 @@ int cli_write_atomic(const char *path, const char *buf, size_t len, int force)
     off += (size_t)w;
   }
   int ok = off == len && fsync(fd) == 0;
-  if (close(fd) != 0) ok = 0;
-  /* keep the permissions a new file would get (mkstemp makes it 0600) */
+  /* a replaced file keeps its permissions; a new one gets what umask gives (mkstemp makes
+   * it 0600) */
   mode_t um = umask(0);
   umask(um);
-  if (ok) chmod(tmp, 0666 & ~um);
+  if (ok) fchmod(fd, kind == 1 ? old_mode : (0666 & ~um));
+  if (close(fd) != 0) ok = 0;
   if (!ok) {
     cli_error("%s: write failed: %s", path, strerror(errno));
     unlink(tmp);
     rc = CLI_EXIT_OUTPUT;
   } else {
-    struct stat sb;
-    if (!force && stat(path, &sb) == 0) {
-      cli_error("%s: appeared while running; not overwritten (add --force)", path);
+    /* the path again, just before the rename: something may have appeared meanwhile */
+    mode_t m2 = 0;
+    int k2 = output_kind(path, force, &m2);
+    if (k2 < 0 || k2 == 2 || (k2 == 1 && kind == 0 && !force)) {
+      if (k2 >= 0) cli_error("%s: appeared while running; not overwritten", path);
       unlink(tmp);
       rc = CLI_EXIT_OUTPUT;
     } else if (rename(tmp, path) != 0) {

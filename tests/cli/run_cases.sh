@@ -10,6 +10,12 @@ AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
 printf '\000\001\002binary' > "$tmp/binary.dat"
 : > "$tmp/empty.dat"
 echo "keep me" > "$tmp/existing.dat"
+# output safety (issue 17): links are refused, devices written to, a replaced file keeps its mode
+echo "link target" > "$tmp/target.dat"
+ln -s "$tmp/target.dat" "$tmp/link.dat"
+ln -s "$tmp/nowhere.dat" "$tmp/dangling.dat"
+echo "old" > "$tmp/mode640.dat"
+chmod 640 "$tmp/mode640.dat"
 # a blade file cut short, a blade in an unknown unit, and a 5 MiB "blade file"
 head -c 200 "$src/docs/examples/inspection-3in.json" > "$tmp/truncated.json"
 sed 's/"mm"/"furlong"/' "$src/docs/examples/inspection-3in.json" > "$tmp/unit.json"
@@ -52,7 +58,18 @@ done < "$cases"
 if ! grep -q "keep me" "$tmp/existing.dat" 2>/dev/null && [ ! -s "$tmp/existing.dat" ]; then
   echo "FAIL: existing output file damaged"; fail=$((fail + 1))
 fi
+# links and their targets untouched, /dev/null still a device, the replaced file's mode kept
+if [ ! -L "$tmp/link.dat" ] || [ "$(cat "$tmp/target.dat")" != "link target" ]; then
+  echo "FAIL: symbolic link or its target replaced"; fail=$((fail + 1))
+fi
+if [ ! -L "$tmp/dangling.dat" ] || [ -e "$tmp/nowhere.dat" ]; then
+  echo "FAIL: dangling link replaced or followed"; fail=$((fail + 1))
+fi
+if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$((fail + 1)); fi
+if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
+  echo "FAIL: replaced file lost its mode 640 or was not replaced"; fail=$((fail + 1))
+fi
 # no temporary files left behind
-if ls "$tmp" | grep -q '\.tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
+if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"
 [ $fail = 0 ]
