@@ -67,6 +67,11 @@ int cli_output_commit(cli_output *o);
 /* Drop collected output without writing anything. */
 void cli_output_discard(cli_output *o);
 
+/* Read a whole regular file of at most max bytes (counted while reading) into *text
+ * (NUL-terminated, caller frees). FIFOs, devices and folders are refused without blocking.
+ * what names the kind of file in messages. Returns 0 or an exit code (message printed). */
+int cli_read_file(const char *path, size_t max, const char *what, char **text, size_t *len);
+
 /* Is path usable as an output (nothing there, a regular file with force, or a character
  * device / FIFO)? Folders, symbolic links, block devices and sockets are refused. Returns 0
  * or CLI_EXIT_OUTPUT (message printed). */

@@ -156,6 +156,67 @@ void cli_output_discard(cli_output *o)
   o->buf = NULL;
 }
 
+int cli_read_file(const char *path, size_t max, const char *what, char **text, size_t *len)
+{
+  *text = NULL;
+  *len = 0;
+  /* a regular file only (a FIFO is opened without waiting, then refused; a device may never
+   * end), with the limit counted while reading */
+  int fd = open(path, O_RDONLY | O_NONBLOCK | O_CLOEXEC);
+  if (fd < 0) {
+    cli_error("%s: cannot open: %s", path, strerror(errno));
+    return CLI_EXIT_INPUT;
+  }
+  struct stat sb;
+  if (fstat(fd, &sb) != 0 || !S_ISREG(sb.st_mode)) {
+    close(fd);
+    cli_error("%s: not a regular file (a %s file must be one)", path, what);
+    return CLI_EXIT_INPUT;
+  }
+  int fl = fcntl(fd, F_GETFL);
+  if (fl >= 0) fcntl(fd, F_SETFL, fl & ~O_NONBLOCK);
+  size_t cap = 65536, n = 0;
+  char *buf = malloc(cap + 1);
+  int rc = buf == NULL ? CLI_EXIT_INTERNAL : 0;
+  while (rc == 0) {
+    if (n == cap) {
+      if (cap > max) break;
+      size_t nc = cap * 2 > max + 1 ? max + 1 : cap * 2;
+      char *nb = realloc(buf, nc + 1);
+      if (nb == NULL) {
+        rc = CLI_EXIT_INTERNAL;
+        break;
+      }
+      buf = nb;
+      cap = nc;
+    }
+    ssize_t r = read(fd, buf + n, cap - n);
+    if (r < 0) {
+      if (errno == EINTR) continue;
+      cli_error("%s: read error: %s", path, strerror(errno));
+      rc = CLI_EXIT_INPUT;
+      break;
+    }
+    if (r == 0) break;
+    n += (size_t)r;
+    if (n > max) break;
+  }
+  close(fd);
+  if (rc == CLI_EXIT_INTERNAL) cli_error("out of memory reading %s", path);
+  if (rc == 0 && n > max) {
+    cli_error("%s: larger than %zu MiB; not a %s file", path, max >> 20, what);
+    rc = CLI_EXIT_INPUT;
+  }
+  if (rc != 0) {
+    free(buf);
+    return rc;
+  }
+  buf[n] = '\0';
+  *text = buf;
+  *len = n;
+  return 0;
+}
+
 /* ---- temporaries and signals: an interrupted run leaves no temporary file behind ---------- */
 
 static char tmp_path[4200];

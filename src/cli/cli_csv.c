@@ -137,26 +137,11 @@ const char *cli_csv_meta(const cli_csv *t, const char *key)
 int cli_csv_read(const char *path, cli_csv *t)
 {
   memset(t, 0, sizeof *t);
-  FILE *fp = fopen(path, "rb");
-  if (fp == NULL) {
-    cli_error("%s: cannot open: %s", path, strerror(errno));
-    return CLI_EXIT_INPUT;
-  }
-  char *text = malloc(CSV_MAX_BYTES + 1);
-  if (text == NULL) {
-    fclose(fp);
-    cli_error("out of memory");
-    return CLI_EXIT_INTERNAL;
-  }
-  size_t len = fread(text, 1, CSV_MAX_BYTES + 1, fp);
-  int rerr = ferror(fp);
-  fclose(fp);
-  if (rerr || len > CSV_MAX_BYTES) {
-    free(text);
-    cli_error("%s: %s", path, rerr ? "read error" : "larger than 64 MiB; not a result file");
-    return CLI_EXIT_INPUT;
-  }
-  int rc = cli_csv_parse(text, len, path, t);
+  char *text = NULL;
+  size_t len = 0;
+  int rc = cli_read_file(path, CSV_MAX_BYTES, "result", &text, &len);
+  if (rc) return rc;
+  rc = cli_csv_parse(text, len, path, t);
   free(text);
   return rc;
 }

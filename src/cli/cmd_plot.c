@@ -27,10 +27,34 @@ static void plot_help(FILE *fp)
         fp);
 }
 
+/* largest result file read (a rotor map with spanwise stations is a few MiB) */
+#define PLOT_JSON_MAX ((size_t)64 << 20)
+
 static double jnum(json_t *o, const char *k)
 {
   json_t *v = json_object_get(o, k);
   return json_is_number(v) ? json_number_value(v) : NAN;
+}
+
+/* The numeric fields of an object: absent or null read as NaN (an unconverged point), a
+ * number as itself, anything else is an error naming the file, the place and the field.
+ * Returns 0 or CLI_EXIT_INPUT (message printed). */
+static int jnums(const char *file, const char *where, size_t i, json_t *o, const char *const *keys,
+                 double *const *out, size_t nk)
+{
+  if (!json_is_object(o)) {
+    cli_error("%s: %s[%zu]: expected an object", file, where, i);
+    return CLI_EXIT_INPUT;
+  }
+  for (size_t k = 0; k < nk; k++) {
+    json_t *v = json_object_get(o, keys[k]);
+    if (v != NULL && !json_is_null(v) && !json_is_number(v)) {
+      cli_error("%s: %s[%zu].%s: expected a number", file, where, i, keys[k]);
+      return CLI_EXIT_INPUT;
+    }
+    *out[k] = json_is_number(v) ? json_number_value(v) : NAN;
+  }
+  return 0;
 }
 
 static int plot_polars(const char *file, json_t *root, const char *dir)
@@ -62,13 +86,14 @@ static int plot_polars(const char *file, json_t *root, const char *dir)
     f[k].cl = b + n;
     f[k].cd = b + 2 * n;
     f[k].cm = b + 3 * n;
-    for (size_t i = 0; i < n; i++) {
-      json_t *q = json_array_get(pts, i);
-      f[k].alpha[i] = jnum(q, "alpha_deg");
-      f[k].cl[i] = jnum(q, "cl");
-      f[k].cd[i] = jnum(q, "cd");
-      f[k].cm[i] = jnum(q, "cm");
+    char where[48];
+    snprintf(where, sizeof where, "polars[%zu].points", k);
+    static const char *const keys[4] = {"alpha_deg", "cl", "cd", "cm"};
+    for (size_t i = 0; i < n && rc == 0; i++) {
+      double *out[4] = {&f[k].alpha[i], &f[k].cl[i], &f[k].cd[i], &f[k].cm[i]};
+      rc = jnums(file, where, i, json_array_get(pts, i), keys, out, 4);
     }
+    if (rc != 0) break;
     json_t *sec = json_object_get(po, "section");
     int n0 = json_is_string(sec) ? snprintf(f[k].label, sizeof f[k].label, "%.40s, ", json_string_value(sec)) : 0;
     double mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
@@ -102,14 +127,12 @@ static int plot_rotor(const char *file, json_t *root, const char *dir)
   int rc = 0;
   for (size_t k = 0; k < np && rc == 0; k++) {
     json_t *p = json_array_get(pts, k);
-    f[k].rpm = jnum(p, "rpm");
-    f[k].speed = jnum(p, "speed_m_s");
-    f[k].J = jnum(p, "J");
-    f[k].CT = jnum(p, "CT");
-    f[k].CP = jnum(p, "CP");
-    f[k].eta = jnum(p, "efficiency");
-    f[k].thrust = jnum(p, "thrust_N");
-    f[k].power = jnum(p, "power_W");
+    static const char *const keys[8] = {"rpm", "speed_m_s", "J", "CT", "CP", "efficiency",
+                                        "thrust_N", "power_W"};
+    double *out[8] = {&f[k].rpm, &f[k].speed, &f[k].J, &f[k].CT, &f[k].CP, &f[k].eta,
+                      &f[k].thrust, &f[k].power};
+    rc = jnums(file, "points", k, p, keys, out, 8);
+    if (rc != 0) break;
     json_t *st = json_object_get(p, "stations");
     size_t ns = json_array_size(st);
     if (ns > 0 && ns <= 4000) {
@@ -316,8 +339,13 @@ int cmd_plot(int argc, char **argv)
     rc = csv_to_result(file, model, &root);
     if (rc) return rc;
   } else {
+    char *text = NULL;
+    size_t tlen = 0;
+    rc = cli_read_file(file, PLOT_JSON_MAX, "result", &text, &tlen);
+    if (rc) return rc;
     json_error_t je;
-    root = json_load_file(file, JSON_REJECT_DUPLICATES, &je);
+    root = json_loadb(text, tlen, JSON_REJECT_DUPLICATES, &je);
+    free(text);
     if (root == NULL) {
       cli_error("%s:%d:%d: %s", file, je.line, je.column, je.text);
       return CLI_EXIT_INPUT;
