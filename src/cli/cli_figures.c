@@ -11,8 +11,9 @@
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
-int fig_prepare_dir(const char *dir, const char *name, int force)
+int fig_prepare_dir(const char *dir, const char *const *names, int force)
 {
   struct stat sb;
   if (stat(dir, &sb) != 0) {
@@ -24,12 +25,32 @@ int fig_prepare_dir(const char *dir, const char *name, int force)
     cli_error("%s: exists and is not a folder", dir);
     return CLI_EXIT_OUTPUT;
   }
+  /* every file of the set, before anything is computed */
+  static const char *const ext[2] = {"svg", "png"};
   char path[4200];
-  snprintf(path, sizeof path, "%s/%s.svg", dir, name);
-  if (!force && stat(path, &sb) == 0) {
-    cli_error("%s: exists; not overwritten (add --force to replace it)", path);
+  for (size_t i = 0; names[i] != NULL; i++) {
+    for (int k = 0; k < 2; k++) {
+      snprintf(path, sizeof path, "%s/%s.%s", dir, names[i], ext[k]);
+      if (lstat(path, &sb) != 0) continue;
+      if (!S_ISREG(sb.st_mode)) {
+        cli_error("%s: exists and is not a regular file; not replaced", path);
+        return CLI_EXIT_OUTPUT;
+      }
+      if (!force) {
+        cli_error("%s: exists; not overwritten (add --force to replace it)", path);
+        return CLI_EXIT_OUTPUT;
+      }
+    }
+  }
+  /* writable? (the plotting library ends the process when it cannot open its file) */
+  snprintf(path, sizeof path, "%s/.airscrew-probe-XXXXXX", dir);
+  int fd = mkstemp(path);
+  if (fd < 0) {
+    cli_error("%s: cannot write figures there: %s", dir, strerror(errno));
     return CLI_EXIT_OUTPUT;
   }
+  close(fd);
+  unlink(path);
   return 0;
 }
 

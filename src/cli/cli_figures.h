@@ -38,6 +38,6 @@ int fig_flow(const char *dir, const char *title, size_t ns, const int *side, con
              const int *turb, size_t n_inv, const double *x_inv, const double *cp_inv);
 
 /* Create DIR if needed and refuse to replace DIR/<name>.svg unless force; 0 or an exit code. */
-int fig_prepare_dir(const char *dir, const char *name, int force);
+int fig_prepare_dir(const char *dir, const char *const *names, int force);
 
 #endif

@@ -6,11 +6,14 @@
 #include "cli_plot.h"
 #include "cli.h"
 
+#include <errno.h>
 #include <math.h>
 #include <plplot.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
 
 /* Okabe-Ito: blue, vermillion, bluish green, orange, reddish purple, sky blue, yellow, black */
 static const int palette[8][3] = {{0, 114, 178},  {213, 94, 0},  {0, 158, 115}, {230, 159, 0},
@@ -199,9 +202,29 @@ int plot_figure(const char *base, const char *title, int nx, int ny, const plot_
   for (int k = 0; k < 2; k++) {
     char tmp[4200], fin[4200];
     snprintf(fin, sizeof fin, "%s.%s", base, ext[k]);
-    snprintf(tmp, sizeof tmp, "%s.part.%s", base, ext[k]);
+    /* the temporary: an unpredictable name in the figure's folder, created exclusively before
+     * the plotting library opens it (a fixed name could be planted as a link) */
+    const char *slash = strrchr(base, '/');
+    int dl = slash != NULL ? (int)(slash - base) + 1 : 0;
+    snprintf(tmp, sizeof tmp, "%.*s.airscrew-fig-%s-XXXXXX", dl, base, ext[k]);
+    int fd = mkstemp(tmp);
+    if (fd < 0) {
+      cli_error("%s: cannot create a temporary file beside it: %s", fin, strerror(errno));
+      return 1;
+    }
+    mode_t um = umask(0); /* a figure gets the permissions a new file would get */
+    umask(um);
+    fchmod(fd, 0666 & ~um);
+    close(fd);
     cli_temp_begin(tmp);
     if (render(dev[k], tmp, title, nx, ny, panels, n_panels) != 0) {
+      remove(tmp);
+      cli_temp_end();
+      return 1;
+    }
+    struct stat sb;
+    if (lstat(fin, &sb) == 0 && !S_ISREG(sb.st_mode)) {
+      cli_error("%s: exists and is not a regular file; not replaced", fin);
       remove(tmp);
       cli_temp_end();
       return 1;

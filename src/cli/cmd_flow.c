@@ -398,7 +398,7 @@ int cmd_flow(int argc, char **argv)
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
-    int prc = fig_prepare_dir(plotdir, "flow-cp", force);
+    int prc = fig_prepare_dir(plotdir, (const char *const[]){"flow-cp", "flow-bl", NULL}, force);
     if (prc) return prc;
   }
   if (!inviscid) {

@@ -352,10 +352,10 @@ int cmd_plot(int argc, char **argv)
     }
   }
   if (json_is_array(json_object_get(root, "polars"))) {
-    rc = fig_prepare_dir(dir, "polar", force);
+    rc = fig_prepare_dir(dir, (const char *const[]){"polar", NULL}, force);
     if (rc == 0) rc = plot_polars(file, root, dir);
   } else if (json_is_array(json_object_get(root, "points")) && json_object_get(root, "blade") != NULL) {
-    rc = fig_prepare_dir(dir, "rotor", force);
+    rc = fig_prepare_dir(dir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
     if (rc == 0) rc = plot_rotor(file, root, dir);
   } else {
     cli_error("%s: neither a polar result (\"polars\") nor a rotor result (\"points\", \"blade\")", file);

@@ -130,7 +130,7 @@ int cmd_polar(int argc, char **argv)
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
-    int prc = fig_prepare_dir(plotdir, "polar", force);
+    int prc = fig_prepare_dir(plotdir, (const char *const[]){"polar", NULL}, force);
     if (prc) return prc;
   }
   if (tablepath != NULL) {

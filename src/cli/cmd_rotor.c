@@ -277,7 +277,7 @@ int cmd_rotor(int argc, char **argv)
 
   if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
-    int prc = fig_prepare_dir(plotdir, "rotor", force);
+    int prc = fig_prepare_dir(plotdir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
     if (prc) return prc;
   }
   cli_output out;

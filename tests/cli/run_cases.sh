@@ -16,6 +16,10 @@ ln -s "$tmp/target.dat" "$tmp/link.dat"
 ln -s "$tmp/nowhere.dat" "$tmp/dangling.dat"
 echo "old" > "$tmp/mode640.dat"
 chmod 640 "$tmp/mode640.dat"
+# figure sets (issue 17): every file of a set is checked, a link among them is refused
+mkdir -p "$tmp/figset" "$tmp/figlink"
+echo "keep" > "$tmp/figset/rotor-spanwise.png"
+ln -s "$tmp/target.dat" "$tmp/figlink/polar.png"
 # plot's result readers (issue 17): a size limit while reading, regular files, field types
 truncate -s 65M "$tmp/big.json"
 printf '{"polars":[{"re":1e5,"points":[{"alpha_deg":0,"cl":"abc","cd":0.01,"cm":0}]}]}\n' > "$tmp/badtype.json"
@@ -67,6 +71,9 @@ if [ ! -L "$tmp/link.dat" ] || [ "$(cat "$tmp/target.dat")" != "link target" ]; 
 fi
 if [ ! -L "$tmp/dangling.dat" ] || [ -e "$tmp/nowhere.dat" ]; then
   echo "FAIL: dangling link replaced or followed"; fail=$((fail + 1))
+fi
+if [ "$(cat "$tmp/figset/rotor-spanwise.png")" != keep ] || [ ! -L "$tmp/figlink/polar.png" ]; then
+  echo "FAIL: a figure file or link was replaced"; fail=$((fail + 1))
 fi
 if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$((fail + 1)); fi
 if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
