@@ -65,12 +65,19 @@ int cli_parse_double(const char *opt, const char *text, double lo, double hi, do
 {
   char *end = NULL;
   errno = 0;
+  /* decimal only: strtod also reads hexadecimal ("0x10" as 16) */
+  if (strpbrk(text, "xXpP") != NULL) {
+    cli_error("%s: '%s' is not a decimal number", opt, text);
+    return 1;
+  }
   double v = strtod(text, &end);
   if (end == text || *end != '\0') {
     cli_error("%s: '%s' is not a number", opt, text);
     return 1;
   }
-  if (!isfinite(v) || errno == ERANGE) {
+  /* overflow gives an infinity; underflow (ERANGE with a tiny or zero result, "1e-320") is the
+   * number it is */
+  if (!isfinite(v)) {
     cli_error("%s: '%s' is not a finite number", opt, text);
     return 1;
   }

@@ -131,6 +131,10 @@ int demo_prop(int argc, char **argv)
       return CLI_EXIT_USAGE;
     }
   }
+  if (no_cache && cache_dir != NULL) {
+    cli_error("demo: --no-cache and --cache-dir exclude each other");
+    return CLI_EXIT_USAGE;
+  }
   if (cli_check_options_only) return CLI_EXIT_OK;
   /* the output folder: created, or empty, or replaced file by file with --force */
   struct stat sb;

@@ -240,6 +240,10 @@ int cmd_rotor(int argc, char **argv)
     cli_error("rotor: give exactly one BLADE file; see airscrew rotor --help");
     return CLI_EXIT_USAGE;
   }
+  if (no_cache && cache_dir != NULL) {
+    cli_error("rotor: --no-cache and --cache-dir exclude each other");
+    return CLI_EXIT_USAGE;
+  }
   int trim = !isnan(thrust);
   if (trim && (nrpm > 0 || isnan(rpm_lo))) {
     cli_error("rotor: --thrust needs --rpm-range LO:HI and no --rpm");
