@@ -31,6 +31,7 @@ static ascr_status parse_plate(const char *spec, ascr_geom_section **out, ascr_e
   const char *q = spec + 5;
   if (*q == ':') q++;
   char key[16];
+  unsigned seen = 0; /* keys given so far, one bit each */
   while (*q != '\0') {
     size_t kl = 0;
     while (*q != '\0' && *q != '=' && *q != ',' && kl + 1 < sizeof key) key[kl++] = *q++;
@@ -49,16 +50,27 @@ static ascr_status parse_plate(const char *spec, ascr_geom_section **out, ascr_e
     }
     q = end;
     if (*q == ',') q++;
-    if (strcmp(key, "t") == 0) p.thickness = v / 100.0;
-    else if (strcmp(key, "f") == 0) p.camber = v / 100.0;
-    else if (strcmp(key, "xf") == 0) p.camber_pos = v / 100.0;
-    else if (strcmp(key, "nose") == 0) p.nose_length = v;
-    else if (strcmp(key, "taper") == 0) p.taper_length = v / 100.0;
-    else if (strcmp(key, "te") == 0) p.te_thickness = v / 100.0;
-    else {
+    static const char *const keys[6] = {"t", "f", "xf", "nose", "taper", "te"};
+    int which = -1;
+    for (int k = 0; k < 6; k++) {
+      if (strcmp(key, keys[k]) == 0) which = k;
+    }
+    if (which < 0) {
       return core_fail(err, ASCR_EPARSE,
                        "section spec '%s': unknown key '%s' (known: t, f, xf, nose, taper, te)",
                        spec, key);
+    }
+    if (seen & (1u << which)) {
+      return core_fail(err, ASCR_EPARSE, "section spec '%s': key '%s' given twice", spec, key);
+    }
+    seen |= 1u << which;
+    switch (which) {
+    case 0: p.thickness = v / 100.0; break;
+    case 1: p.camber = v / 100.0; break;
+    case 2: p.camber_pos = v / 100.0; break;
+    case 3: p.nose_length = v; break;
+    case 4: p.taper_length = v / 100.0; break;
+    default: p.te_thickness = v / 100.0; break;
     }
   }
   ascr_status st = ascr_geom_plate(&p, SPEC_POINTS_PER_SIDE, out, err);

@@ -193,6 +193,9 @@ static void test_geom_generators_reject_bad_specs(void **state)
   assert_int_equal(ascr_geom_section_from_spec("plate:q=3", &s, &e), ASCR_EPARSE);
   assert_non_null(strstr(e.msg, "unknown key 'q'"));
   assert_int_equal(ascr_geom_section_from_spec("plate:t=abc", &s, &e), ASCR_EPARSE);
+  /* a key given twice (issue 17): refused, not the last one silently taken */
+  assert_int_equal(ascr_geom_section_from_spec("plate:t=2.5,t=3", &s, &e), ASCR_EPARSE);
+  assert_non_null(strstr(e.msg, "given twice"));
   assert_int_equal(ascr_geom_section_from_spec("plate:t=2,taper=0", &s, &e), ASCR_EDOM);
   assert_int_equal(ascr_geom_section_from_spec("wing.dat", &s, &e), ASCR_EPARSE);
   assert_false(ascr_geom_is_spec("wing.dat"));
