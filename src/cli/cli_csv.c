@@ -149,6 +149,12 @@ int cli_csv_read(const char *path, cli_csv *t)
 int cli_csv_parse(const char *text, size_t len, const char *path, cli_csv *t)
 {
   memset(t, 0, sizeof *t);
+  /* a UTF-8 byte-order mark, as some spreadsheet programs write, is not part of the header */
+  if (len >= 3 && (unsigned char)text[0] == 0xEF && (unsigned char)text[1] == 0xBB &&
+      (unsigned char)text[2] == 0xBF) {
+    text += 3;
+    len -= 3;
+  }
   if (memchr(text, '\0', len) != NULL) {
     cli_error("%s: contains NUL bytes; not a CSV text file", path);
     return CLI_EXIT_INPUT;

@@ -178,7 +178,11 @@ static int csv_num(const char *file, const cli_csv *t, size_t r, int col, int co
     return 0;
   }
   if (cli_parse_number(v, &x) != 0) {
-    cli_error("%s:%zu: %s: '%s' is not a number", file, t->line[r], t->head[col], v);
+    /* one rule for non-finite cells: "nan" (like an empty cell) is no value, an infinity is
+     * an error */
+    int inf = strstr(v, "inf") != NULL || strstr(v, "Inf") != NULL || strstr(v, "INF") != NULL;
+    cli_error("%s:%zu: %s: '%s' is not %s", file, t->line[r], t->head[col], v,
+              inf ? "a finite number (\"nan\" or an empty cell marks a missing value)" : "a number");
     return CLI_EXIT_INPUT;
   }
   *out = (cv != NULL && strcmp(cv, "false") == 0) ? json_null() : json_real(x);

@@ -30,6 +30,8 @@ head -c 5300000 /dev/zero | tr '\000' ' ' > "$tmp/huge.json"
 # result CSV files that the plot command must refuse, each with its line
 printf '# section: x\nre,alpha_deg,cl,cd,cm,converged\n1e5,0,0.1,0.01,0,true\n1e5,1,0.2,abc,0,true\n' > "$tmp/badnum.csv"
 printf 're,alpha_deg,cl,cd,cm\n1e5,0,0.1,0.01,0\n\n1e5,1,0.2\n' > "$tmp/ragged.csv"
+printf '\357\273\277re,alpha_deg,cl,cd,cm,converged\n1e5,0,0.1,0.01,0,true\n1e5,1,0.2,0.011,0,true\n' > "$tmp/bom.csv"
+printf 're,alpha_deg,cl,cd,cm,converged\n1e5,0,0.1,0.01,0,true\n1e5,1,0.2,inf,0,true\n' > "$tmp/inf.csv"
 printf 'time,voltage\n0,1\n' > "$tmp/foreign.csv"
 printf 'rpm,speed_m_s,J,CT,CP,efficiency,thrust_N,power_W,converged\n5000,0,0,0.1,0.05,,1,2,maybe\n' > "$tmp/badconv.csv"
 printf 're,alpha_deg,cl,cd,cm\n1e5,"0,0.1,0.01,0\n' > "$tmp/quote.csv"
