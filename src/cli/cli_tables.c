@@ -10,6 +10,7 @@
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
 void cli_table_opts_init(cli_table_opts *o)
 {
@@ -134,6 +135,21 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
              cache, strerror(errno));
     cache = NULL;
   }
+  /* a folder that cannot take new entries: read from, not written to, said once */
+  int cache_ro = 0;
+  if (cache != NULL) {
+    char probe[4200];
+    snprintf(probe, sizeof probe, "%s/.airscrew-probe-XXXXXX", cache);
+    int fd = mkstemp(probe);
+    if (fd < 0) {
+      cli_warn("cache folder %s is not writable (%s): curves are read from it but not stored",
+               cache, strerror(errno));
+      cache_ro = 1;
+    } else {
+      close(fd);
+      unlink(probe);
+    }
+  }
   ascr_visc_params vp = cli_visc_params(&o->vo, 1e5, 0.0);
   size_t njobs = 0;
   for (size_t s = 0; s < out->n && rc == 0; s++) {
@@ -241,7 +257,7 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
         rc = cli_exit_for(j->st);
         break;
       }
-      if (!j->from_cache && j->path[0] != '\0') {
+      if (!j->from_cache && j->path[0] != '\0' && !cache_ro) {
         ascr_errbuf err;
         char *text = NULL;
         size_t len = 0;

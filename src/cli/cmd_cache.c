@@ -11,6 +11,7 @@
 #include <errno.h>
 #include <stdio.h>
 #include <string.h>
+#include <sys/stat.h>
 
 static void cache_help(FILE *fp)
 {
@@ -32,6 +33,25 @@ static int is_entry(const char *name)
     if (!isxdigit((unsigned char)name[i]) || isupper((unsigned char)name[i])) return 0;
   }
   return 1;
+}
+
+/* A temporary left by a run that was killed while storing an entry: ".airscrew-tmp-" or
+ * ".airscrew-probe-" and six characters (cli_common.c, cli_tables.c), or an entry name with
+ * ".tmp-" and six characters (the form before 2026-12-02). */
+static int is_leftover(const char *name)
+{
+  size_t n = strlen(name);
+  if ((strncmp(name, ".airscrew-tmp-", 14) == 0 && n == 20) ||
+      (strncmp(name, ".airscrew-probe-", 16) == 0 && n == 22)) {
+    return 1;
+  }
+  if (n == 32 && strncmp(name + 16, ".json.tmp-", 10) == 0) {
+    char entry[22];
+    memcpy(entry, name, 21);
+    entry[21] = '\0';
+    return is_entry(entry);
+  }
+  return 0;
 }
 
 int cmd_cache(int argc, char **argv)
@@ -76,7 +96,15 @@ int cmd_cache(int argc, char **argv)
   size_t n = 0, removed = 0;
   int rc = CLI_EXIT_OK;
   struct dirent *e;
+  size_t left = 0;
   while ((e = readdir(d)) != NULL) {
+    if (strcmp(action, "clear") == 0 && is_leftover(e->d_name)) {
+      char path[4400];
+      snprintf(path, sizeof path, "%s/%s", dir, e->d_name);
+      struct stat sb;
+      if (lstat(path, &sb) == 0 && S_ISREG(sb.st_mode) && remove(path) == 0) left++;
+      continue;
+    }
     if (!is_entry(e->d_name)) continue;
     n++;
     if (strcmp(action, "clear") == 0) {
@@ -92,7 +120,9 @@ int cmd_cache(int argc, char **argv)
   }
   closedir(d);
   if (strcmp(action, "clear") == 0) {
-    printf("cache folder %s: %zu curves removed\n", dir, removed);
+    printf("cache folder %s: %zu curves removed", dir, removed);
+    if (left > 0) printf(", and %zu temporary files of interrupted runs", left);
+    printf("\n");
   } else {
     printf("cache folder %s: %zu curves\n", dir, n);
   }

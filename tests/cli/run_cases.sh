@@ -20,6 +20,10 @@ chmod 640 "$tmp/mode640.dat"
 mkdir -p "$tmp/figset" "$tmp/figlink"
 echo "keep" > "$tmp/figset/rotor-spanwise.png"
 ln -s "$tmp/target.dat" "$tmp/figlink/polar.png"
+# cache (issue 17): clear removes the temporaries of killed runs, not foreign files
+mkdir -p "$tmp/cleft"
+: > "$tmp/cleft/.airscrew-tmp-AbC123"; : > "$tmp/cleft/0123456789abcdef.json.tmp-XyZ123"
+: > "$tmp/cleft/0123456789abcdef.json"; echo mine > "$tmp/cleft/notes.txt"
 # plot's result readers (issue 17): a size limit while reading, regular files, field types
 truncate -s 65M "$tmp/big.json"
 printf '{"polars":[{"re":1e5,"points":[{"alpha_deg":0,"cl":"abc","cd":0.01,"cm":0}]}]}\n' > "$tmp/badtype.json"
@@ -76,6 +80,14 @@ if [ ! -L "$tmp/dangling.dat" ] || [ -e "$tmp/nowhere.dat" ]; then
 fi
 if [ "$(cat "$tmp/figset/rotor-spanwise.png")" != keep ] || [ ! -L "$tmp/figlink/polar.png" ]; then
   echo "FAIL: a figure file or link was replaced"; fail=$((fail + 1))
+fi
+if [ "$(ls -A "$tmp/cleft")" != notes.txt ]; then
+  echo "FAIL: cache clear left: $(ls -A "$tmp/cleft" | tr '\n' ' ')"; fail=$((fail + 1))
+fi
+# an unwritable cache folder: one warning, no error lines, exit 0
+"$exe" rotor "$src/tests/data/blades/two-blade-4412.json" --rpm 7000 --cache-dir /sys --panels 80 --table-alpha 0:6:1 > /dev/null 2> "$tmp/ro.err"
+if [ $? != 0 ] || grep -q 'error:' "$tmp/ro.err" || [ "$(grep -c 'not writable' "$tmp/ro.err")" != 1 ]; then
+  echo "FAIL: unwritable cache folder: $(cat "$tmp/ro.err")"; fail=$((fail + 1))
 fi
 if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$((fail + 1)); fi
 if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
