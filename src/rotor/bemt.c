@@ -12,7 +12,9 @@
  * which is regular in hover (Vx = 0: R = sin phi (1 - k)). In the turbulent-wake state of a
  * windmilling propeller (k < -2/3) the axial momentum relation is replaced by Buhl's
  * (2005, NREL/TP-500-36834) empirical thrust curve, as Ning (2014) does for turbines.
- * The bracket is sought over (0, pi/2], then (pi/2, pi), then (-pi/2, 0); the root by Brent.
+ * The bracket is sought over (0, pi/2], then (-pi/2, 0), then (pi/2, pi) (Ning's order); the
+ * root by Brent. In hover (Vx = 0) an annulus with upflow (phi < 0) takes the momentum relation
+ * with the flow reversed (k -> -k).
  * Re and Mach are taken at the previous pass's relative speed (first pass: no induction)
  * and the element solved again until Re settles (usually two passes).
  */
@@ -119,6 +121,11 @@ static double residual(double phi, void *ctx)
   e->k = k;
   e->kp = kp;
   double inv1pa = 1.0 - k; /* 1 / (1 + a) from momentum */
+  if (e->vx == 0.0 && sp < 0.0) {
+    /* hover, air going up through the annulus (an element with negative pitch): momentum
+     * with the flow reversed, dT = -4 pi rho r F v^2 dr, i.e. k -> -k */
+    inv1pa = 1.0 + k;
+  }
   double kt = -k;          /* the turbine-convention k */
   if (e->vx > 0.0 && kt > 2.0 / 3.0) {
     /* Buhl's empirical curve in the turbulent-wake state (a_turbine = -a) */
@@ -181,9 +188,12 @@ static int solve_phi(elem_ctx *e, gsl_root_fsolver *s, double *phi)
       found = 1;
     }
   }
+  /* Ning's order: the normal region, then negative phi (flow reversed through the annulus),
+   * then (pi/2, pi) (swirl reversed), which before came second and gave elements with
+   * negative pitch in hover phi near 145 deg and five times the rotor's thrust */
   found = found || scan(e, eps, 0.5 * ASCR_PI, 32, &lo, &hi) ||
-              scan(e, 0.5 * ASCR_PI, ASCR_PI - eps, 16, &lo, &hi) ||
-              scan(e, -eps, -0.5 * ASCR_PI, 16, &lo, &hi);
+              scan(e, -eps, -0.5 * ASCR_PI, 16, &lo, &hi) ||
+              scan(e, 0.5 * ASCR_PI, ASCR_PI - eps, 16, &lo, &hi);
   if (!found) {
     return 0;
   }
