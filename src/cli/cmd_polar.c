@@ -128,6 +128,15 @@ int cmd_polar(int argc, char **argv)
               "not record the formulation yet)");
     return CLI_EXIT_USAGE;
   }
+  if (tablepath != NULL) {
+    /* before anything is computed (issue 17): the table holds the Mach 0 curves */
+    int has0 = 0;
+    for (size_t im = 0; im < nmach; im++) has0 |= machs[im] == 0.0;
+    if (!has0) {
+      cli_error("polar: --table needs Mach 0 among --mach");
+      return CLI_EXIT_USAGE;
+    }
+  }
   if (cli_check_options_only) return CLI_EXIT_OK;
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, (const char *const[]){"polar", NULL}, force);
