@@ -295,6 +295,21 @@ int cli_output_check(const char *path, int force)
   return output_kind(path, force, &mode) < 0 ? CLI_EXIT_OUTPUT : 0;
 }
 
+/* All of buf to fd (retried when interrupted); 1 on success. */
+static int write_all(int fd, const char *buf, size_t len)
+{
+  size_t off = 0;
+  while (off < len) {
+    ssize_t w = write(fd, buf + off, len - off);
+    if (w < 0) {
+      if (errno == EINTR) continue;
+      return 0;
+    }
+    off += (size_t)w;
+  }
+  return 1;
+}
+
 /* Write buf to a stream (device or FIFO) that exists at path. */
 static int write_stream(const char *path, const char *buf, size_t len)
 {
@@ -303,16 +318,7 @@ static int write_stream(const char *path, const char *buf, size_t len)
     cli_error("%s: cannot open for writing: %s", path, strerror(errno));
     return CLI_EXIT_OUTPUT;
   }
-  size_t off = 0;
-  while (off < len) {
-    ssize_t w = write(fd, buf + off, len - off);
-    if (w < 0) {
-      if (errno == EINTR) continue;
-      break;
-    }
-    off += (size_t)w;
-  }
-  int ok = off == len;
+  int ok = write_all(fd, buf, len);
   if (close(fd) != 0) ok = 0;
   if (!ok) {
     cli_error("%s: write failed: %s", path, strerror(errno));
@@ -346,16 +352,7 @@ int cli_write_atomic(const char *path, const char *buf, size_t len, int force)
   }
   cli_temp_begin(tmp);
   int rc = 0;
-  size_t off = 0;
-  while (off < len) {
-    ssize_t w = write(fd, buf + off, len - off);
-    if (w < 0) {
-      if (errno == EINTR) continue;
-      break;
-    }
-    off += (size_t)w;
-  }
-  int ok = off == len && fsync(fd) == 0;
+  int ok = write_all(fd, buf, len) && fsync(fd) == 0;
   /* a replaced file keeps its permissions; a new one gets what umask gives (mkstemp makes
    * it 0600) */
   mode_t um = umask(0);
