@@ -72,6 +72,10 @@ void cli_output_discard(cli_output *o);
  * what names the kind of file in messages. Returns 0 or an exit code (message printed). */
 int cli_read_file(const char *path, size_t max, const char *what, char **text, size_t *len);
 
+/* Can a new file be created in dir? (an exclusive temporary created and removed; errno set
+ * when not). 1 or 0. */
+int cli_dir_writable(const char *dir);
+
 /* Is path usable as an output (nothing there, a regular file with force, or a character
  * device / FIFO)? Folders, symbolic links, block devices and sockets are refused. Returns 0
  * or CLI_EXIT_OUTPUT (message printed). */

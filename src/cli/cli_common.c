@@ -295,6 +295,20 @@ int cli_output_check(const char *path, int force)
   return output_kind(path, force, &mode) < 0 ? CLI_EXIT_OUTPUT : 0;
 }
 
+int cli_dir_writable(const char *dir)
+{
+  char probe[4200];
+  if (snprintf(probe, sizeof probe, "%s/.airscrew-probe-XXXXXX", dir) >= (int)sizeof probe) {
+    errno = ENAMETOOLONG;
+    return 0;
+  }
+  int fd = mkstemp(probe);
+  if (fd < 0) return 0;
+  close(fd);
+  unlink(probe);
+  return 1;
+}
+
 /* All of buf to fd (retried when interrupted); 1 on success. */
 static int write_all(int fd, const char *buf, size_t len)
 {

@@ -43,14 +43,10 @@ int fig_prepare_dir(const char *dir, const char *const *names, int force)
     }
   }
   /* writable? (the plotting library ends the process when it cannot open its file) */
-  snprintf(path, sizeof path, "%s/.airscrew-probe-XXXXXX", dir);
-  int fd = mkstemp(path);
-  if (fd < 0) {
+  if (!cli_dir_writable(dir)) {
     cli_error("%s: cannot write figures there: %s", dir, strerror(errno));
     return CLI_EXIT_OUTPUT;
   }
-  close(fd);
-  unlink(path);
   return 0;
 }
 

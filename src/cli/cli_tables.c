@@ -137,18 +137,10 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
   }
   /* a folder that cannot take new entries: read from, not written to, said once */
   int cache_ro = 0;
-  if (cache != NULL) {
-    char probe[4200];
-    snprintf(probe, sizeof probe, "%s/.airscrew-probe-XXXXXX", cache);
-    int fd = mkstemp(probe);
-    if (fd < 0) {
-      cli_warn("cache folder %s is not writable (%s): curves are read from it but not stored",
-               cache, strerror(errno));
-      cache_ro = 1;
-    } else {
-      close(fd);
-      unlink(probe);
-    }
+  if (cache != NULL && !cli_dir_writable(cache)) {
+    cli_warn("cache folder %s is not writable (%s): curves are read from it but not stored",
+             cache, strerror(errno));
+    cache_ro = 1;
   }
   ascr_visc_params vp = cli_visc_params(&o->vo, 1e5, 0.0);
   size_t njobs = 0;
