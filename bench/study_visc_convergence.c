@@ -3,7 +3,9 @@
  * sections and NACA 0012, 2412, 4412 at Re 30k, 60k, 100k, 200k and 1e6, alpha -6 to 16 deg
  * by 0.5 deg. Prints a table and the total; takes minutes. Figures only. With STUDY_LIST_FAILED
  * set, the angles that failed are listed on stderr; with STUDY_EXACT set, the exact transition
- * formulation is used (ascr_visc_params.exact_transition).
+ * formulation is used (ascr_visc_params.exact_transition). With STUDY_LOWRE set, the grid is
+ * issue 11's low-Reynolds-number extension instead: thin cambered plates (2, 3, 4 % thick,
+ * 3-6 % camber; generator and coordinate-file forms) at Re 5k, 10k and 20k, -6 to 14 deg.
  */
 #include <airscrew/airscrew.h>
 #include <gsl/gsl_errno.h>
@@ -20,14 +22,22 @@ int main(int argc, char **argv)
   char plate[512], n4412[512];
   snprintf(plate, sizeof plate, "%s/microprop-plate-t25-f45.dat", dir);
   snprintf(n4412, sizeof n4412, "%s/naca4412.dat", dir);
-  const char *secs[] = {plate, n4412, "naca0012", "naca2412", "naca4412"};
-  const double res[] = {3e4, 6e4, 1e5, 2e5, 1e6};
+  const char *secs_main[] = {plate, n4412, "naca0012", "naca2412", "naca4412"};
+  const double res_main[] = {3e4, 6e4, 1e5, 2e5, 1e6};
+  const char *secs_low[] = {plate, "plate:t=2,f=3", "plate:t=3,f=4.5,xf=45", "plate:t=4,f=6,xf=40",
+                            "plate:t=2,f=6,xf=40"};
+  const double res_low[] = {5e3, 1e4, 2e4};
+  const int low = getenv("STUDY_LOWRE") != NULL;
+  const char **secs = low ? secs_low : secs_main;
+  const double *res = low ? res_low : res_main;
+  const int nsec = low ? 5 : 5, nre = low ? 3 : 5;
+  const double a_hi = low ? 14.0 : 16.0;
   size_t total = 0, conv = 0;
   double its_conv = 0.0, its_fail = 0.0; /* Newton iterations spent on converged / failed points */
   printf("%-32s", "section \\ Re");
-  for (int ir = 0; ir < 5; ir++) printf(" %8.0f", res[ir]);
+  for (int ir = 0; ir < nre; ir++) printf(" %8.0f", res[ir]);
   printf("\n");
-  for (int is = 0; is < 5; is++) {
+  for (int is = 0; is < nsec; is++) {
     ascr_geom_section *raw = NULL, *s = NULL;
     ascr_status st = ascr_geom_is_spec(secs[is]) ? ascr_geom_section_from_spec(secs[is], &raw, NULL)
                                                  : ascr_geom_section_read(secs[is], &raw, NULL, NULL);
@@ -40,15 +50,15 @@ int main(int argc, char **argv)
     ascr_panel_solver_set(w, s, NULL);
     ascr_visc_solver *v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
     printf("%-32.32s", secs[is]);
-    for (int ir = 0; ir < 5; ir++) {
+    for (int ir = 0; ir < nre; ir++) {
       ascr_visc_params p = ascr_visc_params_defaults();
       p.re = res[ir];
       p.exact_transition = getenv("STUDY_EXACT") != NULL;
       ascr_visc_solver_set(v, w, &p, NULL);
-      size_t np = ascr_polar_grid_size(-6.0, 16.0, 0.5);
+      size_t np = ascr_polar_grid_size(-6.0, a_hi, 0.5);
       ascr_polar_point *pts = calloc(np, sizeof *pts);
       ascr_polar_summary sum;
-      ascr_polar_sweep(v, -6.0, 16.0, 0.5, pts, &sum, NULL, NULL, NULL);
+      ascr_polar_sweep(v, -6.0, a_hi, 0.5, pts, &sum, NULL, NULL, NULL);
       printf("  %3zu/%-3zu", sum.n_converged, sum.n_points);
       fflush(stdout);
       if (getenv("STUDY_LIST_FAILED") != NULL) { /* where the failures are, on stderr */

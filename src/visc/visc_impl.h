@@ -133,6 +133,13 @@ struct ascr_visc_solver {
   void *trace_ctx;
 };
 
+/* ascr_visc_solver_solve with the fresh starts that follow a failed warm start allowed
+ * (cold_ok = 1, the public behaviour) or not (cold_ok = 0: continuation only). A fresh start
+ * depends only on the condition, so a caller that has already tried it at this angle (a sweep
+ * retrying a point, a second walk) passes 0 and is spared repeating it. */
+ascr_status visc_solve(ascr_visc_solver *v, double alpha_rad, int warm, int cold_ok,
+                       ascr_visc_result *r, ascr_errbuf *err);
+
 /* Save the current converged state / bring it back (for continuation after a failed point). */
 void visc_snapshot(ascr_visc_solver *v, int slot);
 void visc_restore(ascr_visc_solver *v, int slot);
