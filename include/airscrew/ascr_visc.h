@@ -34,13 +34,15 @@ typedef struct ascr_visc_params {
   double wake_length;   /* wake length, chords (default 1) */
   int max_iter;         /* Newton iteration limit (default 60) */
   double tol;           /* convergence: largest relative update of theta and m (default 1e-7) */
-  int exact_transition; /* 1: transition placed by the e^N rule exactly, without band or budget,
-                           as a second phase after the banded iteration; only a state that
-                           phase accepts is converged (one answer per condition where it
-                           converges; see docs/theory/viscous.md). Experimental, default 0. */
+  int exact_transition; /* 1 (default): transition placed by the e^N rule exactly, without band
+                           or budget; only a state that rule accepts is converged, so a
+                           converged result depends only on the condition. 0: the previous
+                           banded rules, kept for comparison (their result can depend on the
+                           start). docs/theory/viscous.md */
 } ascr_visc_params;
 
-/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7. */
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7, exact
+ *  transition. */
 ASCR_EXPORT ascr_visc_params ascr_visc_params_defaults(void);
 
 /** Default number of wake nodes for a section of n_nodes nodes. */

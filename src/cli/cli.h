@@ -133,7 +133,7 @@ typedef struct cli_visc_opts {
   double turbulence;  /* percent; NaN: not given */
   double trip_upper;  /* x/c; NaN: none */
   double trip_lower;
-  int exact;          /* --exact-transition given */
+  int banded;         /* --banded-transition given (the exact formulation is the default) */
 } cli_visc_opts;
 void cli_visc_opts_init(cli_visc_opts *o);
 /* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower,

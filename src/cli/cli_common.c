@@ -494,7 +494,7 @@ void cli_visc_opts_init(cli_visc_opts *o)
   o->turbulence = NAN;
   o->trip_upper = NAN;
   o->trip_lower = NAN;
-  o->exact = 0;
+  o->banded = 0;
 }
 
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
@@ -516,8 +516,11 @@ int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
     return cli_parse_double("--trip-upper", arg, 0.0, 1.0, &o->trip_upper);
   case 'L':
     return cli_parse_double("--trip-lower", arg, 0.0, 1.0, &o->trip_lower);
-  case 'X':
-    o->exact = 1;
+  case 'X': /* --exact-transition: the default, accepted for scripts written before */
+    o->banded = 0;
+    return 0;
+  case 'Y':
+    o->banded = 1;
     return 0;
   }
   return 1;
@@ -535,7 +538,7 @@ ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach)
   }
   if (!isnan(o->trip_upper)) p.trip_upper = o->trip_upper;
   if (!isnan(o->trip_lower)) p.trip_lower = o->trip_lower;
-  p.exact_transition = o->exact;
+  p.exact_transition = !o->banded;
   return p;
 }
 

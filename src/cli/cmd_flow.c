@@ -31,7 +31,8 @@ static void flow_help(FILE *fp)
         "      --turbulence PCT  free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
-        "      --exact-transition  transition placed by the e^N rule exactly (experimental;\n"
+        "      --banded-transition  the previous transition rules, with a band in N (for\n"
+        "                        comparison only: the answer can depend on the start;\n"
         "                        docs/theory/viscous.md)\n"
         "  -p, --panels N        panels on the contour (default 160)\n"
         "      --json         JSON output\n"
@@ -315,6 +316,7 @@ int cmd_flow(int argc, char **argv)
     {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
     {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
     {"plot", required_argument, NULL, 'G'},   {"exact-transition", no_argument, NULL, 'X'},
+    {"banded-transition", no_argument, NULL, 'Y'},
     {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -344,7 +346,7 @@ int cmd_flow(int argc, char **argv)
       if (cli_parse_double("--re", optarg, 1e3, 1e8, &re)) return CLI_EXIT_USAGE;
       have_re = 1;
       break;
-    case 'N': case 'T': case 'U': case 'L': case 'X':
+    case 'N': case 'T': case 'U': case 'L': case 'X': case 'Y':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       have_visc_opt = 1;
       break;

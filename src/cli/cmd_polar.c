@@ -19,8 +19,10 @@ static void polar_help(FILE *fp)
         "\n"
         "Viscous polars: cl, cd, cm and transition against angle of attack, for every\n"
         "Reynolds number (and Mach number) in the lists. The sweep starts near zero lift\n"
-        "and continues outward from each converged point; points that do not converge\n"
-        "are kept and flagged, never reported as results.\n"
+        "and continues outward from each converged point, then reaches every angle from\n"
+        "the other side too: an angle with two converged states (hysteresis, a bubble\n"
+        "that bursts) is flagged with both. Points that do not converge are kept and\n"
+        "flagged, never reported as results.\n"
         "\n"
         "options:\n"
         "  -r, --re LIST          chord Reynolds numbers, comma separated (1e3 .. 1e8)\n"
@@ -30,9 +32,9 @@ static void polar_help(FILE *fp)
         "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
-        "      --exact-transition transition placed by the e^N rule exactly: one answer per\n"
-        "                         condition wherever it converges (experimental; converges\n"
-        "                         fewer points than the default, docs/theory/viscous.md)\n"
+        "      --banded-transition the previous transition rules, with a band in N (for\n"
+        "                         comparison only: the answer can depend on where the sweep\n"
+        "                         started; docs/theory/viscous.md)\n"
         "  -p, --panels N         panels on the contour (default 160)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
@@ -65,6 +67,7 @@ int cmd_polar(int argc, char **argv)
     {"turbulence", required_argument, NULL, 'T'}, {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
     {"exact-transition", no_argument, NULL, 'X'},
+    {"banded-transition", no_argument, NULL, 'Y'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
@@ -90,7 +93,7 @@ int cmd_polar(int argc, char **argv)
     case 'm':
       if (cli_parse_list("--mach", optarg, 0.0, 0.7, machs, &nmach)) return CLI_EXIT_USAGE;
       break;
-    case 'N': case 'T': case 'U': case 'L': case 'X':
+    case 'N': case 'T': case 'U': case 'L': case 'X': case 'Y':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
     case 'p':
@@ -123,9 +126,9 @@ int cmd_polar(int argc, char **argv)
     cli_error("polar: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
-  if (vo.exact && tablepath != NULL) {
-    cli_error("polar: --exact-transition and --table exclude each other (polar-table files do "
-              "not record the formulation yet)");
+  if (vo.banded && tablepath != NULL) {
+    cli_error("polar: --banded-transition and --table exclude each other (a polar table holds "
+              "the default formulation's curves: the rotor reads it as such)");
     return CLI_EXIT_USAGE;
   }
   if (tablepath != NULL) {

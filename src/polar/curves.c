@@ -172,8 +172,9 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
 
 /* Raised whenever the viscous numerics change their results (so that cached curves computed by
  * the earlier numerics are not used): 2 = smooth transition crossing and transition check;
- * 3 = a cold retry computes its stagnation contexts from the inviscid edge velocities. */
-#define CURVE_NUMERICS_REVISION 3
+ * 3 = a cold retry computes its stagnation contexts from the inviscid edge velocities;
+ * 4 = the exact transition formulation is the default (docs/theory/viscous.md). */
+#define CURVE_NUMERICS_REVISION 4
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

@@ -22,7 +22,7 @@ ascr_visc_params ascr_visc_params_defaults(void)
   p.wake_length = 1.0;
   p.max_iter = 60;
   p.tol = 1e-7;
-  p.exact_transition = 0;
+  p.exact_transition = 1;
   return p;
 }
 

@@ -123,7 +123,7 @@ static void test_visc_naca0012_re6e6_drag_matches_abbott(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 6e6, 0.0, 8.0, 1.0, 2.0, 0);
+  polar pl = run_polar(raw, 6e6, 0.0, 8.0, 1.0, 2.0, 1);
   double cl[40], cd[40];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cd_cl_digitized.csv", -1, 0, 0, 1, cl, cd, 40);
   assert_true(nr > 10);
@@ -153,7 +153,7 @@ static void test_visc_naca0012_tripped_drag_matches_ladson(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 6e6, -2.0, 8.0, 1.0, 0.05, 0);
+  polar pl = run_polar(raw, 6e6, -2.0, 8.0, 1.0, 0.05, 1);
   double al[40], cd[40], al2[40], cl[40];
   size_t nr = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 3, al, cd, 40);
   size_t nr2 = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 2, al2, cl, 40);
@@ -179,8 +179,8 @@ static void sd7003_drag(int exact)
   double cl[40], cd[40];
   size_t nr = read_ref("sd7003_uiuc_lsat_drag.csv", 0, 101600.0, 2, 3, cl, cd, 40);
   assert_true(nr >= 8);
-  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, exact ? "SD7003 Re 1e5 exact" : "SD7003 Re 1e5",
-                         "UIUC", exact ? "sd7003_re1e5_exact" : "sd7003_re1e5",
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, exact ? "SD7003 Re 1e5" : "SD7003 Re 1e5 banded",
+                         "UIUC", exact ? "sd7003_re1e5" : "sd7003_re1e5_banded",
                          "UIUC low-speed airfoil tests (Selig et al.), SD7003 Re 1.016e5") >= 3);
   free(pl.p);
   ascr_geom_section_free(raw);
@@ -189,15 +189,15 @@ static void sd7003_drag(int exact)
 static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
 {
   (void)state;
-  sd7003_drag(0);
+  sd7003_drag(1);
 }
 
-/* The same comparison with the exact transition formulation (docs/theory/viscous.md), same
- * source and tolerance. */
-static void test_visc_sd7003_low_re_drag_matches_uiuc_exact(void **state)
+/* The same comparison with the banded transition rules kept for comparison
+ * (ascr_visc_params.exact_transition = 0; docs/theory/viscous.md), same source and tolerance. */
+static void test_visc_sd7003_low_re_drag_matches_uiuc_banded(void **state)
 {
   (void)state;
-  sd7003_drag(1);
+  sd7003_drag(0);
 }
 
 int main(void)
@@ -207,7 +207,7 @@ int main(void)
     cmocka_unit_test(test_visc_naca0012_re6e6_drag_matches_abbott),
     cmocka_unit_test(test_visc_naca0012_tripped_drag_matches_ladson),
     cmocka_unit_test(test_visc_sd7003_low_re_drag_matches_uiuc),
-    cmocka_unit_test(test_visc_sd7003_low_re_drag_matches_uiuc_exact),
+    cmocka_unit_test(test_visc_sd7003_low_re_drag_matches_uiuc_banded),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
