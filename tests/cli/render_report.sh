@@ -1,12 +1,16 @@
 #!/bin/sh
 # The demo's report renders in a browser: run "airscrew demo" into a fresh folder (with a cache
 # of its own), check its outputs, open report.html in headless Chromium and take a screenshot.
-# usage: render_report.sh AIRSCREW CHROMIUM
+# With CACHE_DIR the cache is made there afresh and kept (the valgrind test reads it, so the
+# demo's polars are computed once per test run).
+# usage: render_report.sh AIRSCREW CHROMIUM [CACHE_DIR]
 set -u
 exe=$1; browser=$2
 tmp=$(mktemp -d) || exit 1
 trap 'rm -rf "$tmp"' EXIT
-AIRSCREW_CACHE_DIR="$tmp/cache"; export AIRSCREW_CACHE_DIR
+AIRSCREW_CACHE_DIR="$tmp/cache"
+if [ $# -ge 3 ]; then rm -rf "$3" && AIRSCREW_CACHE_DIR=$3; fi
+export AIRSCREW_CACHE_DIR
 if ! "$exe" demo --out "$tmp/demo" > "$tmp/out" 2> "$tmp/err"; then
   echo "FAIL: airscrew demo exited non-zero"; cat "$tmp/err"; exit 1
 fi
