@@ -495,6 +495,7 @@ void cli_visc_opts_init(cli_visc_opts *o)
   o->trip_upper = NAN;
   o->trip_lower = NAN;
   o->banded = 0;
+  o->formulation_given = 0;
 }
 
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
@@ -517,10 +518,13 @@ int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
   case 'L':
     return cli_parse_double("--trip-lower", arg, 0.0, 1.0, &o->trip_lower);
   case 'X': /* --exact-transition: the default, accepted for scripts written before */
-    o->banded = 0;
-    return 0;
   case 'Y':
-    o->banded = 1;
+    if (o->formulation_given && o->banded != (code == 'Y')) {
+      cli_error("--exact-transition and --banded-transition exclude each other");
+      return 1;
+    }
+    o->formulation_given = 1;
+    o->banded = code == 'Y';
     return 0;
   }
   return 1;

@@ -173,8 +173,9 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
 /* Raised whenever the viscous numerics change their results (so that cached curves computed by
  * the earlier numerics are not used): 2 = smooth transition crossing and transition check;
  * 3 = a cold retry computes its stagnation contexts from the inviscid edge velocities;
- * 4 = the exact transition formulation is the default (docs/theory/viscous.md). */
-#define CURVE_NUMERICS_REVISION 4
+ * 4 = the exact transition formulation is the default (docs/theory/viscous.md);
+ * 5 = warm starts begin at the secant predictor (which state a sweep reaches where two exist). */
+#define CURVE_NUMERICS_REVISION 5
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

@@ -10,7 +10,10 @@
  * The downward walk starts from the lowest point that converged on the way up (so a failed
  * start point does not leave the lower half without continuation).
  * A point that still fails is recorded unconverged and the walk continues from the last
- * converged solution. cl_max is the largest converged cl; stall is reported when a converged
+ * converged solution. A fresh start depends only on the condition, so it is tried once per
+ * angle (the first time the walk reaches it); every retry (the refinement's intermediate
+ * angles, the downward walk over points that failed going up, the second walk) continues only.
+ * A warm start begins at the solver's secant predictor (src/visc/predictor.c). cl_max is the largest converged cl; stall is reported when a converged
  * point beyond it has a lower cl.
  * With the exact transition formulation a converged state depends only on the condition, so
  * where two walks reach an angle with different converged states the physics has two states
@@ -71,8 +74,14 @@ static void fill(ascr_polar_point *p, double alpha_deg, const ascr_visc_result *
 static int solve_point(ascr_visc_solver *v, int have_last, double alast, double target,
                        int cold_ok, ascr_visc_result *r)
 {
+  if (!have_last && !cold_ok) {
+    /* nothing to continue from, and the fresh starts were tried before */
+    memset(r, 0, sizeof *r);
+    r->cl = r->cd = r->cm = NAN;
+    return 0;
+  }
   if (have_last) visc_restore(v, 0);
-  ascr_status st = visc_solve(v, target * DEG, have_last, cold_ok || !have_last, r, NULL);
+  ascr_status st = visc_solve(v, target * DEG, have_last, cold_ok, r, NULL);
   if (st == ASCR_OK) {
     visc_snapshot(v, 0);
     return 1;

@@ -122,10 +122,18 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   size_t is;
   double ss;
   int use_warm = warm && v->have_solution;
+  /* exact formulation: a warm start to another angle of the same Reynolds number begins at the
+   * secant predictor (predictor.c) when the live state was itself continued from a neighbour */
+  int pred = use_warm && v->p.exact_transition && !v->pred_off && v->cur_re == v->p.re &&
+             alpha_rad != v->cur_alpha;
+  v->pred_start.valid = 0;
+  v->pred_used = 0;
   if (use_warm) {
     /* keep the previous state by station; restage at the previous stagnation point, then let
      * relocate_stagnation move it with the new inviscid part */
+    if (pred) visc_pred_capture(v, &v->pred_start, v->cur_alpha);
     visc_restage(v, v->is, v->s_stag);
+    if (pred) v->pred_used = visc_pred_apply(v, &v->pred_prev, v->cur_alpha, alpha_rad);
     visc_update_ue(v);
     visc_relocate_stagnation(v);
   } else {
@@ -352,6 +360,19 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
   int finite = isfinite(r->cl) && isfinite(r->cd) && isfinite(r->cm);
   if (!finite) r->converged = converged = 0;
   v->have_solution = converged;
+  if (converged) {
+    /* the predictor's pair: this state and the one it was continued from */
+    if (v->pred_start.valid) {
+      visc_pred_rec t = v->pred_prev;
+      v->pred_prev = v->pred_start;
+      v->pred_start = t;
+    } else {
+      v->pred_prev.valid = 0;
+    }
+    v->pred_start.valid = 0;
+    v->cur_alpha = alpha_rad;
+    v->cur_re = v->p.re;
+  }
   if (!converged) {
     return core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged "
                      "after %d iterations (largest relative update %.2e%s)",
@@ -428,7 +449,20 @@ ascr_status visc_solve(ascr_visc_solver *v, double alpha_rad, int warm, int cold
                        ascr_visc_result *r, ascr_errbuf *err)
 {
   v->cold_kind = 0;
+  /* a warm start from the secant predictor that fails is repeated from the plain last state
+   * (slot 1 keeps it): the extrapolation can overshoot where the layer changes fast (a bubble
+   * forming, stall) */
+  int keep = warm && v->have_solution;
+  if (keep) visc_snapshot(v, 1);
   ascr_status st = solve_once(v, alpha_rad, warm, r, err);
+  if ((st == ASCR_EMAXITER || st == ASCR_ESING) && keep && v->pred_used) {
+    int its = r->iterations;
+    visc_restore(v, 1);
+    v->pred_off = 1;
+    st = solve_once(v, alpha_rad, 1, r, err);
+    v->pred_off = 0;
+    r->iterations += its;
+  }
   if (!cold_ok && warm) return st;
   if ((st == ASCR_EMAXITER || st == ASCR_ESING) && warm) {
     /* the continuation start did not lead anywhere: start afresh from a march */

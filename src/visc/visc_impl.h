@@ -20,6 +20,16 @@
 /* Saved-state slots of a solver (visc_snapshot / visc_restore). */
 #define VISC_SLOTS 4
 
+/* A converged state by node (surface nodes 0..n-1, then the wake n..n+nw-1) with its
+ * condition, for the secant predictor (predictor.c). turb holds regime + 2 * (lower side). */
+typedef struct visc_pred_rec {
+  double *th, *mm, *cc;
+  int *turb;
+  size_t is;
+  double alpha, re;
+  int valid;
+} visc_pred_rec;
+
 /* Local state of one station as the residuals see it. */
 typedef struct vstate {
   double th, m, c, ue; /* unknowns and edge velocity */
@@ -129,6 +139,13 @@ struct ascr_visc_solver {
   size_t sv_is[VISC_SLOTS];
   double sv_s_stag[VISC_SLOTS];
   int sv_have[VISC_SLOTS];
+  /* secant predictor (predictor.c): the angle of the live converged state, the converged state
+   * it was continued from, and the start of the solve under way; snapshots keep both */
+  double cur_alpha, cur_re;
+  int pred_off, pred_used;   /* visc_solve: predictor not to be used / used by the last solve */
+  visc_pred_rec pred_prev, pred_start;
+  double sv_alpha[VISC_SLOTS], sv_re[VISC_SLOTS];
+  visc_pred_rec sv_prev[VISC_SLOTS];
   ascr_visc_trace_fn trace;
   void *trace_ctx;
 };
@@ -184,6 +201,13 @@ int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3]);              
 /* coldstart.c: the two cold starts (exact formulation; default direct march). */
 void visc_initial_state_exact(ascr_visc_solver *v);
 ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errbuf *err);
+
+/* predictor.c: capture the live state as a record at angle alpha; copy a record; apply the
+ * secant predictor from prev (angle prev->alpha) through the live state (angle alpha1) to
+ * alpha, returning 1 if it was applied. */
+void visc_pred_capture(const ascr_visc_solver *v, visc_pred_rec *rec, double alpha);
+void visc_pred_copy(const ascr_visc_solver *v, visc_pred_rec *dst, const visc_pred_rec *src);
+int visc_pred_apply(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha1, double alpha);
 
 /* forces.c: results of the current state. */
 void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r);

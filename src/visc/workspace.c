@@ -93,12 +93,21 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
+#define ALLOC_REC(rec)                                                                             \
+  ALLOC((rec).th, nst);                                                                            \
+  ALLOC((rec).mm, nst);                                                                            \
+  ALLOC((rec).cc, nst);                                                                            \
+  ALLOC((rec).turb, nst)
+  ALLOC_REC(v->pred_prev);
+  ALLOC_REC(v->pred_start);
   for (int q = 0; q < VISC_SLOTS; q++) {
+    ALLOC_REC(v->sv_prev[q]);
     ALLOC(v->sv_th[q], nst);
     ALLOC(v->sv_mm[q], nst);
     ALLOC(v->sv_cc[q], nst);
     ALLOC(v->sv_turb[q], nst);
   }
+#undef ALLOC_REC
 #undef ALLOC
   if (!ok) {
     ascr_visc_solver_free(v);
@@ -118,9 +127,14 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->ipiv); free(v->iscratch); free(v->cp);
   free(v->lst); free(v->lblk); free(v->uidx); free(v->ucoef); free(v->ucnt); free(v->zm);
   free(v->mmat); free(v->wv); free(v->yv); free(v->chk); free(v->ipiv2); free(v->dinv);
+#define FREE_REC(rec) free((rec).th), free((rec).mm), free((rec).cc), free((rec).turb)
+  FREE_REC(v->pred_prev);
+  FREE_REC(v->pred_start);
   for (int q = 0; q < VISC_SLOTS; q++) {
+    FREE_REC(v->sv_prev[q]);
     free(v->sv_th[q]); free(v->sv_mm[q]); free(v->sv_cc[q]); free(v->sv_turb[q]);
   }
+#undef FREE_REC
   free(v);
 }
 
@@ -143,6 +157,9 @@ void visc_snapshot(ascr_visc_solver *v, int q)
   memcpy(v->sv_turb[q], v->turb, v->nst * sizeof *v->turb);
   v->sv_is[q] = v->is;
   v->sv_s_stag[q] = v->s_stag;
+  v->sv_alpha[q] = v->cur_alpha;
+  v->sv_re[q] = v->cur_re;
+  visc_pred_copy(v, &v->sv_prev[q], &v->pred_prev);
 }
 
 void visc_restore(ascr_visc_solver *v, int q)
@@ -155,6 +172,9 @@ void visc_restore(ascr_visc_solver *v, int q)
   v->is = v->sv_is[q];
   v->s_stag = v->sv_s_stag[q];
   v->have_solution = 1;
+  v->cur_alpha = v->sv_alpha[q];
+  v->cur_re = v->sv_re[q];
+  visc_pred_copy(v, &v->pred_prev, &v->sv_prev[q]);
 }
 
 ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *ps,
@@ -188,6 +208,8 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   v->is_set = 0;
   v->have_solution = 0;
   v->alpha = NAN;
+  v->cur_alpha = v->cur_re = NAN;
+  v->pred_prev.valid = 0;
   const size_t n = v->n, m = n + 1, np = v->np;
   v->snode[0] = 0.0;
   for (size_t i = 1; i < n; i++) {

@@ -3,9 +3,13 @@
  * (section, Re) pairs from Re 1e4 to 1e6, thin cambered plates included, at two angles drawn
  * per pair from a fixed-seed generator, the result of a cold start at the angle, of a warm-started walk
  * up to the angle from 1.5 deg below and of a walk down from 1.5 deg above (0.5 deg steps) agree
- * to |dcl| <= 0.005 and |dcd| <= 1 % wherever two of them converge. (No point is flagged
- * bistable yet: the sweeps do not look for second states; a real second state would show here
- * as a disagreement and fail the test, which is what it should do until it is reported.)
+ * to |dcl| <= 0.005 and |dcd| <= 1 % wherever two of them converge, except where the physics
+ * has two states: a disagreement passes only if a polar sweep over the walks' range (which
+ * reaches each angle from both sides, src/polar/sweep.c) flags the angle bistable and every
+ * path's result is one of the sweep's two states (so a second state must be reported, and
+ * must be the one the paths found). Measured 2026-12-03 with the secant predictor: plate
+ * t=3 %, f=5 % at Re 3e4, 4.1 deg: cl 0.7879 (cold) and 0.5439 (walk from below: transition
+ * at 0.92 chord behind an open laminar separation), both reported by the sweep.
  * The exact formulation does not converge everywhere yet (docs/theory/viscous.md): the test
  * also requires at least MIN_COMPARED compared angles, so that it cannot pass by converging
  * nothing (23 of 24 pair-angles had two or three converged paths on 2026-12-02 with the start
@@ -44,6 +48,31 @@ static int walk(ascr_visc_solver *v, double a_start, double a_end, ascr_visc_res
   return have && r->converged;
 }
 
+static int same_state(double cl1, double cd1, double cl2, double cd2)
+{
+  return fabs(cl1 - cl2) <= DCL_MAX && fabs(cd1 - cd2) <= DCD_REL_MAX * fmin(cd1, cd2);
+}
+
+/* A disagreement of the paths at angle a is real bistability if the polar sweep over
+ * a - 1.5 .. a + 1.5 deg flags a bistable and each converged path found one of its states. */
+static int explained_by_sweep(ascr_visc_solver *v, double a, const int ok[3],
+                              const ascr_visc_result *const r[3])
+{
+  ascr_polar_point pts[7];
+  ascr_polar_summary sum;
+  if (ascr_polar_sweep(v, a - 1.5, a + 1.5, 0.5, pts, &sum, NULL, NULL, NULL) != ASCR_OK) return 0;
+  const ascr_polar_point *q = &pts[3];
+  if (!q->converged || !q->bistable) return 0;
+  for (int i = 0; i < 3; i++) {
+    if (!ok[i]) continue;
+    if (!same_state(r[i]->cl, r[i]->cd, q->cl, q->cd) &&
+        !same_state(r[i]->cl, r[i]->cd, q->other_cl, q->other_cd)) {
+      return 0;
+    }
+  }
+  return 1;
+}
+
 static void test_visc_exact_transition_gives_one_answer_per_condition(void **state)
 {
   (void)state;
@@ -54,7 +83,7 @@ static void test_visc_exact_transition_gives_one_answer_per_condition(void **sta
     {plate, 2e4}, {plate, 6e4}, {"plate:t=3,f=5", 3e4}, {"plate:t=2,f=3", 1e4},
   };
   unsigned long seed = 20261202UL;
-  size_t compared = 0, bad = 0;
+  size_t compared = 0, bad = 0, n_bistable = 0;
   for (size_t ip = 0; ip < sizeof pairs / sizeof pairs[0]; ip++) {
     ascr_geom_section *raw = NULL, *s = NULL;
     ascr_errbuf e;
@@ -93,19 +122,29 @@ static void test_visc_exact_transition_gives_one_answer_per_condition(void **sta
           dcd = fmax(dcd, fabs(r[i]->cd - r[j]->cd) / fmin(r[i]->cd, r[j]->cd));
         }
       }
+      const char *why = "";
       if (pairs_cmp > 0) {
         compared++;
-        if (dcl > DCL_MAX || dcd > DCD_REL_MAX) bad++;
+        if (dcl > DCL_MAX || dcd > DCD_REL_MAX) {
+          if (explained_by_sweep(v, a, ok, r)) {
+            n_bistable++;
+            why = "  (bistable, both states reported by the sweep)";
+          } else {
+            bad++;
+          }
+        }
       }
-      print_message("%-28.28s Re %8.0f alpha %4.1f: converged %d%d%d  dcl %.5f  dcd %.3f %%\n",
-                    ascr_geom_section_name(s), p.re, a, ok[0], ok[1], ok[2], dcl, 100.0 * dcd);
+      print_message("%-28.28s Re %8.0f alpha %4.1f: converged %d%d%d  dcl %.5f  dcd %.3f %%%s\n",
+                    ascr_geom_section_name(s), p.re, a, ok[0], ok[1], ok[2], dcl, 100.0 * dcd,
+                    why);
     }
     ascr_visc_solver_free(v);
     ascr_panel_solver_free(w);
     ascr_geom_section_free(s);
     ascr_geom_section_free(raw);
   }
-  print_message("compared %zu angles, %zu disagree\n", compared, bad);
+  print_message("compared %zu angles, %zu disagree, %zu bistable (reported)\n", compared, bad,
+                n_bistable);
   assert_int_equal(bad, 0);
   assert_true(compared >= MIN_COMPARED);
 }
