@@ -253,14 +253,16 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     }
     double rlx;
     rel = step_limit(v, &rlx);
-    /* backtracking on the residual norm: halve the step while it does not decrease */
+    /* backtracking on the residual norm: halve the step while it does not decrease; the norm
+     * at the current state is that of R (as visc_residual_norm2 sums it) */
+    double f0 = 0.0;
+    for (size_t i = 0; i < N; i++) f0 += isfinite(v->R[i]) ? v->R[i] * v->R[i] : 1e300;
     double *saved = v->R; /* R is no longer needed: keep the current unknowns there */
     for (size_t k = 0; k < nst; k++) {
       saved[3 * k] = v->th[k];
       saved[3 * k + 1] = v->mm[k];
       saved[3 * k + 2] = v->cc[k];
     }
-    double f0 = visc_residual_norm2(v, cxs);
     int descended = 0;
     for (int ls = 0; ls < 8 && f0 > 1e-16; ls++) {
       set_trial(v, saved, rlx);
