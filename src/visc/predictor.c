@@ -13,6 +13,8 @@
  * of either stagnation point and anything from another Reynolds number keeps the last state.
  * The extrapolation is used for |f| <= PRED_MAX_F (not far beyond the pair) and each factor is
  * held within e^(+-PRED_MAX_LOG) (a path control; the Newton step's own limit is e^1).
+ * The transition point of each side is extrapolated likewise, in arc length along the surface,
+ * and the interval placed there (visc_transition_place) before the first iteration.
  */
 #include "visc/visc_impl.h"
 
@@ -86,4 +88,43 @@ int visc_pred_apply(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha
     }
   }
   return 1;
+}
+
+/* Arc length (snode) of the first turbulent node of a side in a record (NaN if laminar to the
+ * trailing edge): upper nodes is, is-1, .., 0; lower is+1, .., n-1. */
+static double rec_transition_s(const ascr_visc_solver *v, const visc_pred_rec *rec, int side)
+{
+  if (side == 0) {
+    for (size_t i = rec->is + 1; i-- > 0;) {
+      if (rec->turb[i] == 1) return v->snode[i];
+    }
+  } else {
+    for (size_t i = rec->is + 1; i < v->n; i++) {
+      if (rec->turb[i] == 3) return v->snode[i];
+    }
+  }
+  return NAN;
+}
+
+void visc_pred_transition(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha1,
+                          double alpha, const visc_pred_rec *cur)
+{
+  double f = (alpha - alpha1) / (alpha1 - prev->alpha);
+  for (int side = 0; side < 2; side++) {
+    double s0 = rec_transition_s(v, prev, side), s1 = rec_transition_s(v, cur, side);
+    if (!isfinite(s0) || !isfinite(s1) || s0 == s1) continue;
+    double sp = s1 + f * (s1 - s0);
+    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl, kbest = k1;
+    double dbest = INFINITY;
+    for (size_t k = k0 + 1; k < k1; k++) {
+      double d = fabs(v->snode[v->node[k]] - sp);
+      if (d < dbest) {
+        dbest = d;
+        kbest = k;
+      }
+    }
+    if (kbest == k1) continue;
+    vctx cx = visc_context(v, side);
+    v->itr[side] = visc_transition_place(v, &cx, side, kbest, 1);
+  }
 }

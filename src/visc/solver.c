@@ -134,6 +134,11 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm,
     if (pred) visc_pred_capture(v, &v->pred_start, v->cur_alpha);
     visc_restage(v, v->is, v->s_stag);
     if (pred) v->pred_used = visc_pred_apply(v, &v->pred_prev, v->cur_alpha, alpha_rad);
+    if (v->pred_used) {
+      visc_update_ue(v);
+      visc_set_xi(v);
+      visc_pred_transition(v, &v->pred_prev, v->cur_alpha, alpha_rad, &v->pred_start);
+    }
     visc_update_ue(v);
     visc_relocate_stagnation(v);
   } else {

@@ -176,40 +176,72 @@ int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3])
     for (size_t k = k0 + 1; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip;
       if (v->cc[k] >= cx->ncrit || trip) {
-        for (size_t j = k; j < kt; j++) {
-          vstate s = visc_get_state(v, j);
-          v->turb[j] = 1;
-          v->cc[j] = visc_sqrt_ctau_start(cx, &s);
-        }
-        kt = k;
+        kt = visc_transition_place(v, cx, side, k, 0);
         moved = 1;
         break;
       }
     }
     if (!moved && kt < k1 && kt > k0 + 1) {
-      vstate sa = visc_get_state(v, kt - 1), sb = visc_get_state(v, kt);
-      double R[3], f[3] = {1.0, INFINITY, 0.0};
-      visc_residual(VR_TRANS, cx, &sa, &sb, NULL, R, f);
-      if (isfinite(f[1]) && f[1] < cx->ncrit) {
-        /* N grows on at the rate of the last laminar station, the stations passed turn
-         * laminar, until N_crit or the trip is reached: a first guess, which the following
-         * iterations settle and the rule above may move back upstream */
-        double na = sa.c, rate = (f[1] - na) / fmax(log(sb.xi / sa.xi) * 0.5 * (sa.xi + sb.xi), 1e-300);
-        size_t j = kt;
-        while (j < k1 && j < kt + TR_MOVE_STATIONS) {
-          double nj = na + rate * 0.5 * (sa.xi + v->xi[j]) * log(v->xi[j] / sa.xi);
-          if (!(nj < cx->ncrit) || (cx->xi_trip >= 0.0 && v->xi[j] >= cx->xi_trip)) break;
-          v->turb[j] = 0;
-          v->cc[j] = fmax(nj, 0.0);
-          j++;
-        }
-        kt = j;
-        moved = 1;
-      }
+      size_t knew = visc_transition_place(v, cx, side, kt + TR_MOVE_STATIONS, 0);
+      moved = knew != kt;
+      kt = knew;
     }
     changed |= moved;
     v->itr[side] = kt;
   }
   return changed;
+}
+
+/* Put the first turbulent station of a side at kt_new (clamped to the side): upstream, the
+ * stations passed turn turbulent with sqrt(Ctau) from the transition relation at their state
+ * (bl_ctau_initial); downstream, only where the interval's laminar end, at its own rate of
+ * amplification, stays below N_crit at the interval's end: N grows on at that rate over the
+ * stations passed, which turn laminar (theta and m kept), until N_crit or the trip is reached.
+ * With to_place (the predictor's placement), downstream moves go to kt_new whatever the
+ * rate says, N rising linearly in xi to N_crit there. A first guess, which the following
+ * iterations settle and the exact rule may move back. Returns the side's first turbulent
+ * station. */
+size_t visc_transition_place(ascr_visc_solver *v, const vctx *cx, int side, size_t kt_new,
+                             int to_place)
+{
+  size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+  size_t kt = visc_first_turbulent(v, k0, k1);
+  if (kt_new <= k0) kt_new = k0 + 1;
+  if (kt_new > k1) kt_new = k1;
+  if (kt_new < kt) {
+    for (size_t j = kt_new; j < kt; j++) {
+      vstate s = visc_get_state(v, j);
+      v->turb[j] = 1;
+      v->cc[j] = visc_sqrt_ctau_start(cx, &s);
+    }
+    return kt_new;
+  }
+  if (kt_new == kt || kt >= k1 || kt <= k0 + 1) return kt;
+  if (to_place) {
+    /* N rising linearly in xi from the last laminar station to N_crit at kt_new */
+    double na = v->cc[kt - 1], xa = v->xi[kt - 1], xb = v->xi[kt_new < k1 ? kt_new : k1 - 1];
+    size_t j = kt;
+    for (; j < kt_new && j < k1; j++) {
+      if (cx->xi_trip >= 0.0 && v->xi[j] >= cx->xi_trip) break;
+      v->turb[j] = 0;
+      v->cc[j] = fmax(na + (cx->ncrit - na) * (v->xi[j] - xa) / fmax(xb - xa, 1e-300), 0.0);
+      if (!(v->cc[j] < cx->ncrit)) v->cc[j] = 0.999 * cx->ncrit;
+    }
+    return j;
+  }
+  vstate sa = visc_get_state(v, kt - 1), sb = visc_get_state(v, kt);
+  double R[3], f[3] = {1.0, INFINITY, 0.0};
+  visc_residual(VR_TRANS, cx, &sa, &sb, NULL, R, f);
+  if (!(isfinite(f[1]) && f[1] < cx->ncrit)) return kt;
+  double na = sa.c, rate = (f[1] - na) / fmax(log(sb.xi / sa.xi) * 0.5 * (sa.xi + sb.xi), 1e-300);
+  size_t j = kt;
+  while (j < kt_new) {
+    double nj = na + rate * 0.5 * (sa.xi + v->xi[j]) * log(v->xi[j] / sa.xi);
+    if (!(nj < cx->ncrit) || (cx->xi_trip >= 0.0 && v->xi[j] >= cx->xi_trip)) break;
+    v->turb[j] = 0;
+    v->cc[j] = fmax(nj, 0.0);
+    j++;
+  }
+  return j;
 }
 

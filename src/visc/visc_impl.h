@@ -197,6 +197,8 @@ size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size
                             double hyst, int forced);
 int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst); /* banded */
 int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3]);               /* exact */
+size_t visc_transition_place(ascr_visc_solver *v, const vctx *cx, int side, size_t kt_new,
+                             int to_place);
 
 /* coldstart.c: the two cold starts (exact formulation; default direct march). */
 void visc_initial_state_exact(ascr_visc_solver *v);
@@ -208,6 +210,10 @@ ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errb
 void visc_pred_capture(const ascr_visc_solver *v, visc_pred_rec *rec, double alpha);
 void visc_pred_copy(const ascr_visc_solver *v, visc_pred_rec *dst, const visc_pred_rec *src);
 int visc_pred_apply(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha1, double alpha);
+/* After visc_pred_apply (edge velocities and xi updated): the transition interval of each side
+ * placed at the transition point extrapolated from prev and cur (the live state's record). */
+void visc_pred_transition(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha1,
+                          double alpha, const visc_pred_rec *cur);
 
 /* forces.c: results of the current state. */
 void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r);
