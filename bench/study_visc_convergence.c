@@ -6,6 +6,7 @@
  * rules instead of the default exact formulation (ascr_visc_params.exact_transition). With STUDY_LOWRE set, the grid is
  * issue 11's low-Reynolds-number extension instead: thin cambered plates (2, 3, 4 % thick,
  * 3-6 % camber; generator and coordinate-file forms) at Re 5k, 10k and 20k, -6 to 14 deg.
+ * STUDY_STEP=1 sweeps by 1 deg instead of 0.5 (the same angles every second point).
  */
 #include <airscrew/airscrew.h>
 #include <gsl/gsl_errno.h>
@@ -28,6 +29,8 @@ int main(int argc, char **argv)
                             "plate:t=2,f=6,xf=40"};
   const double res_low[] = {5e3, 1e4, 2e4};
   const int low = getenv("STUDY_LOWRE") != NULL;
+  const char *step_env = getenv("STUDY_STEP"); /* the sweep's step, deg (default 0.5) */
+  const double step = step_env != NULL && atof(step_env) > 0.0 ? atof(step_env) : 0.5;
   const char **secs = low ? secs_low : secs_main;
   const double *res = low ? res_low : res_main;
   const int nsec = low ? 5 : 5, nre = low ? 3 : 5;
@@ -55,10 +58,10 @@ int main(int argc, char **argv)
       p.re = res[ir];
       p.exact_transition = getenv("STUDY_BANDED") == NULL; /* the default unless asked */
       ascr_visc_solver_set(v, w, &p, NULL);
-      size_t np = ascr_polar_grid_size(-6.0, a_hi, 0.5);
+      size_t np = ascr_polar_grid_size(-6.0, a_hi, step);
       ascr_polar_point *pts = calloc(np, sizeof *pts);
       ascr_polar_summary sum;
-      ascr_polar_sweep(v, -6.0, a_hi, 0.5, pts, &sum, NULL, NULL, NULL);
+      ascr_polar_sweep(v, -6.0, a_hi, step, pts, &sum, NULL, NULL, NULL);
       printf("  %3zu/%-3zu", sum.n_converged, sum.n_points);
       fflush(stdout);
       if (getenv("STUDY_LIST_FAILED") != NULL) { /* where the failures are, on stderr */

@@ -79,8 +79,13 @@ typedef struct ascr_visc_result {
 } ascr_visc_result;
 
 /** Solve at angle alpha_rad. warm != 0 starts from the previous solution of this object (if
- *  any), which is how polar sweeps continue from point to point; otherwise the layer is
- *  initialised by a direct march on the inviscid velocity.
+ *  any), which is how polar sweeps continue from point to point: where that solution was
+ *  itself continued from another angle at the same Reynolds number, the start is the secant
+ *  extrapolation through the two (transition points included), and the plain previous solution
+ *  if that fails. Otherwise, or if the continuation fails, the layer is initialised by marches
+ *  on the inviscid velocity (and, failing those, continued down from a higher Reynolds
+ *  number). The start decides the path, not the result: a converged state is one the
+ *  equations and the transition rule accept at this condition.
  *  @return ASCR_OK if converged; ASCR_EMAXITER if not (r is still filled, r->converged = 0:
  *          the numbers are the last iterate and must not be used as a result); ASCR_EINVAL;
  *          ASCR_ESING (singular Newton system). */
