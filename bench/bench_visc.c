@@ -1,7 +1,7 @@
 /* bench/bench_visc.c
  * Timing of the viscous stage: an alpha sweep of NACA 2412 at 160 panels, Re 1e5 and 1e6
  * (-2 to 10 deg by 0.5 deg, continuation), reporting the median wall time per converged point,
- * the mean Newton iterations per point, and the time of one dense LU (LAPACKE dgesv) of the
+ * the mean and median Newton iterations per point, and the time of one dense LU (LAPACKE dgesv) of the
  * coupled system's order measured in the same run, so that the cost per point can be read in
  * LU-equivalents. A cold start (one point from a fresh march) is timed too.
  * Issue goal: <= 3 LU-equivalents per swept point, <= 10 for a cold start (issue 11). With
@@ -57,8 +57,8 @@ int main(void)
   printf("viscous stage, NACA 2412, %zu panels, %zu wake nodes: Newton system of order %d\n",
          n - 1, nw, order);
   printf("one dense LU (dgesv) of that order: %.2f ms (median of 7)\n\n", 1e3 * tlu);
-  printf("%8s %10s %12s %12s %10s %12s\n", "Re", "converged", "ms/point", "its/point", "LU-eq",
-         "cold ms");
+  printf("%8s %10s %12s %8s %6s %10s %12s\n", "Re", "converged", "ms/point", "its mean", "median",
+         "LU-eq", "cold ms");
   const double res[2] = {1e5, 1e6};
   for (int k = 0; k < 2; k++) {
     ascr_visc_params p = ascr_visc_params_defaults();
@@ -73,7 +73,7 @@ int main(void)
     /* sweep: per-point time from the progress callback is not available, so time each point
      * by sweeping in single steps with continuation */
     size_t np = ascr_polar_grid_size(-2.0, 10.0, 0.5);
-    double *tp = malloc(np * sizeof *tp);
+    double *tp = malloc(np * sizeof *tp), *ip = malloc(np * sizeof *ip);
     long its = 0;
     size_t conv = 0;
     int warm = 0;
@@ -83,14 +83,17 @@ int main(void)
       ascr_status st = ascr_visc_solver_solve(v, a, warm, &r, NULL);
       tp[i] = bench_now() - t0;
       its += r.iterations;
+      ip[i] = (double)r.iterations;
       if (st == ASCR_OK) conv++;
       warm = st == ASCR_OK;
     }
     qsort(tp, np, sizeof *tp, bench_cmp);
+    qsort(ip, np, sizeof *ip, bench_cmp);
     double med = tp[np / 2];
-    printf("%8.0e %6zu/%-3zu %12.2f %12.1f %10.1f %12.1f\n", res[k], conv, np, 1e3 * med,
-           (double)its / (double)np, med / tlu, 1e3 * tcold);
+    printf("%8.0e %6zu/%-3zu %12.2f %8.1f %6.0f %10.1f %12.1f\n", res[k], conv, np, 1e3 * med,
+           (double)its / (double)np, ip[np / 2], med / tlu, 1e3 * tcold);
     free(tp);
+    free(ip);
   }
   ascr_visc_solver_free(v);
   ascr_panel_solver_free(w);
