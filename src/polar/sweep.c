@@ -13,8 +13,8 @@
  * converged solution. A fresh start depends only on the condition, so it is tried once per
  * angle (the first time the walk reaches it); every retry (the refinement's intermediate
  * angles, the downward walk over points that failed going up, the second walk) continues only.
- * A warm start begins at the solver's secant predictor (src/visc/predictor.c). cl_max is the largest converged cl; stall is reported when a converged
- * point beyond it has a lower cl.
+ * A warm start begins at the solver's secant predictor (src/visc/predictor.c). cl_max is the
+ * largest converged cl; stall is reported when a converged point beyond it has a lower cl.
  * With the exact transition formulation a converged state depends only on the condition, so
  * where two walks reach an angle with different converged states the physics has two states
  * (hysteresis near stall, a bubble that bursts): each point is therefore also reached from the
