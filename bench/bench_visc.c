@@ -4,8 +4,7 @@
  * the mean and median Newton iterations per point, and the time of one dense LU (LAPACKE dgesv) of the
  * coupled system's order measured in the same run, so that the cost per point can be read in
  * LU-equivalents. A cold start (one point from a fresh march) is timed too.
- * Issue goal: <= 3 LU-equivalents per swept point, <= 10 for a cold start (issue 11). With
- * BENCH_BANDED set, the banded transition rules instead of the default exact formulation.
+ * Issue goal: <= 3 LU-equivalents per swept point, <= 10 for a cold start (issue 11).
  * Figures only.
  */
 #define _POSIX_C_SOURCE 200809L
@@ -63,7 +62,6 @@ int main(void)
   for (int k = 0; k < 2; k++) {
     ascr_visc_params p = ascr_visc_params_defaults();
     p.re = res[k];
-    p.exact_transition = getenv("BENCH_BANDED") == NULL; /* the default unless asked */
     ascr_visc_solver_set(v, w, &p, NULL);
     /* cold start at 2 deg */
     ascr_visc_result r;

@@ -2,8 +2,7 @@
  * The converged share of the viscous polar sweep on the full grid of issue 3: the sample
  * sections and NACA 0012, 2412, 4412 at Re 30k, 60k, 100k, 200k and 1e6, alpha -6 to 16 deg
  * by 0.5 deg. Prints a table and the total; takes minutes. Figures only. With STUDY_LIST_FAILED
- * set, the angles that failed are listed on stderr; with STUDY_BANDED set, the banded transition
- * rules instead of the default exact formulation (ascr_visc_params.exact_transition). With STUDY_LOWRE set, the grid is
+ * set, the angles that failed are listed on stderr. With STUDY_LOWRE set, the grid is
  * issue 11's low-Reynolds-number extension instead: thin cambered plates (2, 3, 4 % thick,
  * 3-6 % camber; generator and coordinate-file forms) at Re 5k, 10k and 20k, -6 to 14 deg.
  * STUDY_STEP=1 sweeps by 1 deg instead of 0.5 (the same angles every second point).
@@ -56,7 +55,6 @@ int main(int argc, char **argv)
     for (int ir = 0; ir < nre; ir++) {
       ascr_visc_params p = ascr_visc_params_defaults();
       p.re = res[ir];
-      p.exact_transition = getenv("STUDY_BANDED") == NULL; /* the default unless asked */
       ascr_visc_solver_set(v, w, &p, NULL);
       size_t np = ascr_polar_grid_size(-6.0, a_hi, step);
       ascr_polar_point *pts = calloc(np, sizeof *pts);

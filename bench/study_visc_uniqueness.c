@@ -3,8 +3,7 @@
  * reached by three paths -- a cold single point, a warm-started walk up to the angle from 3 deg
  * below (0.5 deg steps), a walk down from 3 deg above -- and the largest differences in cl and
  * (relative) cd. Figures only; a property test (planned: tests/visc/test_visc_uniqueness.c) will assert a
- * subset once it passes. Arguments: [airfoils folder]. STUDY_VERBOSE=1 prints every angle;
- * STUDY_BANDED=1 uses the banded transition rules instead of the default exact formulation.
+ * subset once it passes. Arguments: [airfoils folder]. STUDY_VERBOSE=1 prints every angle.
  */
 #include <airscrew/airscrew.h>
 #include <gsl/gsl_errno.h>
@@ -64,7 +63,6 @@ int main(int argc, char **argv)
     ascr_visc_solver *v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
     ascr_visc_params p = ascr_visc_params_defaults();
     p.re = pairs[ip].re;
-    p.exact_transition = getenv("STUDY_BANDED") == NULL; /* the default unless asked */
     ascr_visc_solver_set(v, w, &p, NULL);
     size_t bad_here = 0, cmp_here = 0;
     for (size_t ia = 0; ia < sizeof angles / sizeof angles[0]; ia++) {

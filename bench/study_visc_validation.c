@@ -1,7 +1,6 @@
 /* bench/study_visc_validation.c
  * Section polars against the UIUC low-speed airfoil tests (Selig et al.; reference/sd7003_*,
- * sd8000_*, clarky_*: every Reynolds number the drag files hold), for both transition
- * formulations. Figures only (the issue-12 baseline); per (section, Re):
+ * sd8000_*, clarky_*: every Reynolds number the drag files hold). Figures only (the issue-12 baseline); per (section, Re):
  *   - drag: mean and largest |cd error| at the measured cl, over the measured low-drag range
  *     (points whose cd is at most 1.5 times the run's smallest cd: our definition of "attached");
  *   - lift: mean and largest |cl error| at the measured angle, -2 to 6 deg, from the lift run of
@@ -9,8 +8,7 @@
  *   - cl_max: measured (up-going branch) against the sweep's largest cl, -4 to 16 deg;
  *   - converged points of the sweep.
  * Polars: 160 panels, N_crit 9, -4 to 16 deg by 0.5 deg, at the run's average Re.
- * Arguments: [reference folder] (default: reference). STUDY_FORMULATION=banded or exact runs one
- * formulation only. Reading: libcsv after the '#' lines.
+ * Arguments: [reference folder] (default: reference). Reading: libcsv after the '#' lines.
  */
 #include <airscrew/airscrew.h>
 #include <csv.h>
@@ -99,11 +97,10 @@ static double cd_at_cl(const polar *pl, double cl)
   return NAN;
 }
 
-static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, int exact, polar *pl)
+static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, polar *pl)
 {
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
-  p.exact_transition = exact;
   ascr_visc_solver_set(v, w, &p, NULL);
   pl->n = ascr_polar_grid_size(-4.0, 16.0, 0.5);
   ascr_polar_summary sum;
@@ -117,8 +114,7 @@ int main(int argc, char **argv)
   openblas_set_num_threads(1);
   const char *dir = argc > 1 ? argv[1] : "reference";
   const char *names[] = {"sd7003", "sd8000", "clarky"};
-  const char *only = getenv("STUDY_FORMULATION");
-  printf("%-7s %7s %-6s %5s | %-21s | %-19s | %-13s\n", "section", "Re", "form.", "conv",
+  printf("%-7s %7s %5s | %-21s | %-19s | %-13s\n", "section", "Re", "conv",
          "cd err % mean / max (n)", "cl err mean / max (n)", "cl_max calc/meas");
   for (int is = 0; is < 3; is++) {
     char path[512];
@@ -164,10 +160,9 @@ int main(int argc, char **argv)
         double x = lift.v[r][0];
         if (fabs(x - re) <= 0.05 * re && (isnan(re_lift) || fabs(x - re) < fabs(re_lift - re))) re_lift = x;
       }
-      for (int form = 0; form < 2; form++) {
-        if (only != NULL && strcmp(only, form ? "exact" : "banded") != 0) continue;
+      {
         polar pl;
-        run_polar(v, w, re, form, &pl);
+        run_polar(v, w, re, &pl);
         double sd = 0.0, md = 0.0;
         size_t nd = 0;
         for (size_t r = 0; r < drag.nrow; r++) {
@@ -200,8 +195,8 @@ int main(int argc, char **argv)
         for (size_t i = 0; i < pl.n; i++) {
           if (pl.p[i].converged) clmax = fmax(clmax, pl.p[i].cl);
         }
-        printf("%-7s %7.0f %-6s %2zu/%-2zu | %6.1f / %6.1f (%2zu) | %.3f / %.3f (%2zu) | %5.2f / %5.2f\n",
-               names[is], re, form ? "exact" : "banded", pl.n_conv, pl.n,
+        printf("%-7s %7.0f %2zu/%-2zu | %6.1f / %6.1f (%2zu) | %.3f / %.3f (%2zu) | %5.2f / %5.2f\n",
+               names[is], re, pl.n_conv, pl.n,
                nd ? 100.0 * sd / (double)nd : NAN, nd ? 100.0 * md : NAN, nd,
                nl ? sl / (double)nl : NAN, nl ? ml : NAN, nl, clmax, clmax_meas);
         fflush(stdout);

@@ -29,9 +29,9 @@ typedef struct ascr_polar_point {
   int converged;
   int iterations;
   double residual;
-  int bistable;      /* exact transition formulation only: 1 if the sweep, reaching this angle
-                        from the other side, converged to a second state (|dcl| > 0.005 or
-                        |dcd| > 1 %); its values below, NaN otherwise */
+  int bistable;      /* 1 if the sweep, reaching this angle from the other side, converged to
+                        a second state (|dcl| > 0.005 or |dcd| > 1 %); its values below, NaN
+                        otherwise */
   double other_cl, other_cd, other_cm;
 } ascr_polar_point;
 
@@ -56,9 +56,8 @@ ASCR_EXPORT size_t ascr_polar_grid_size(double a0_deg, double a1_deg, double ste
 /** Sweep the set viscous solver v over the grid a0..a1 by step (degrees). pts must hold
  *  ascr_polar_grid_size() entries (caller owned), filled in ascending alpha. A point that does
  *  not converge after step refinement (halving the step from the last converged point up to
- *  three times) is kept, flagged unconverged, and the sweep goes on. With the exact transition
- *  formulation (ascr_visc_params.exact_transition) every point is also reached from the other
- *  side (a second walk down from the highest and up from the lowest converged point): a point
+ *  three times) is kept, flagged unconverged, and the sweep goes on. Every point is also
+ *  reached from the other side (a second walk down from the highest and up from the lowest converged point): a point
  *  found only that way is taken, and a point with two different converged states is flagged
  *  bistable with the second state's cl, cd, cm.
  *  @return ASCR_OK (even if some points did not converge: see the flags and summary);

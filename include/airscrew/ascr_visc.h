@@ -34,15 +34,9 @@ typedef struct ascr_visc_params {
   double wake_length;   /* wake length, chords (default 1) */
   int max_iter;         /* Newton iteration limit (default 60) */
   double tol;           /* convergence: largest relative update of theta and m (default 1e-7) */
-  int exact_transition; /* 1 (default): transition placed by the e^N rule exactly, without band
-                           or budget; only a state that rule accepts is converged, so a
-                           converged result depends only on the condition. 0: the previous
-                           banded rules, kept for comparison (their result can depend on the
-                           start). docs/theory/viscous.md */
 } ascr_visc_params;
 
-/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7, exact
- *  transition. */
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7. */
 ASCR_EXPORT ascr_visc_params ascr_visc_params_defaults(void);
 
 /** Default number of wake nodes for a section of n_nodes nodes. */
@@ -104,11 +98,67 @@ ASCR_EXPORT void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *
 /** Surface pressure of the last solve at the section nodes (n_nodes entries). */
 ASCR_EXPORT void ascr_visc_solver_cp(const ascr_visc_solver *v, double *cp);
 
-/** Per-iteration trace: iteration number, largest residual, largest Newton update (log units),
- *  relaxation applied, 1 if a transition interval moved, 1 if the stagnation point changed
- *  panel. Called from _solve when set; ctx is borrowed. */
-typedef void (*ascr_visc_trace_fn)(void *ctx, int iteration, double residual_max, double update,
-                                   double relax, int transition_moved, int stagnation_moved);
+/* ---- stepping: the Newton iteration of one start, a step at a time ----
+ * ascr_visc_solver_solve tries several starts in turn (the previous state, a march, a
+ * coupled march, a continuation down from a higher Reynolds number). A caller may instead run
+ * one start itself, as GSL's iterative solvers are run:
+ *     ascr_visc_solver_start(v, alpha, ASCR_VISC_START_MARCH, err);
+ *     while (ascr_visc_solver_test(v) == ASCR_CONTINUE) ascr_visc_solver_iterate(v, &step, err);
+ *     ascr_visc_solver_result(v, &r, err);
+ * A converged run leaves the state a later warm start (or ASCR_VISC_START_PREVIOUS) continues
+ * from, as a converged solve does. */
+
+/** Where a run starts. */
+typedef enum ascr_visc_start {
+  ASCR_VISC_START_PREVIOUS = 0,     /* the last converged state (secant predictor where it was
+                                       itself continued from another angle at this Re) */
+  ASCR_VISC_START_MARCH = 1,        /* a march on the inviscid edge velocity, inverse mode
+                                       through laminar separation */
+  ASCR_VISC_START_COUPLED_MARCH = 2 /* a direct march repeated on the coupled edge velocity;
+                                       transition placed by a look-ahead march until the
+                                       iteration settles, by the exact rule after that */
+} ascr_visc_start;
+
+/** One Newton step of a run. */
+typedef struct ascr_visc_step {
+  int start;                 /* ascr_visc_start of the run */
+  double alpha_rad;          /* angle of the run */
+  double re;                 /* Reynolds number of the run (a continuation from a higher Re
+                                runs above the requested one) */
+  int iteration;             /* 1, 2, ... within the run */
+  double residual_max;       /* largest residual before the step */
+  double update;             /* largest Newton update of ln theta and ln m */
+  double relax;              /* fraction of the Newton step taken */
+  int transition_moved;      /* 1 if a transition interval moved before the step */
+  int stagnation_moved;      /* 1 if the stagnation point changed panel after it */
+  int exact_rule;            /* 1 once the exact rule places transition (0: placement phase of
+                                the coupled-march start) */
+  double x_transition_upper; /* x/c of the crossing points after the step (NaN: laminar) */
+  double x_transition_lower;
+} ascr_visc_step;
+
+/** Begin a run at angle alpha_rad from the given start. ASCR_EINVAL if the solver is not set,
+ *  the start is unknown or ASCR_VISC_START_PREVIOUS has no converged state; ASCR_EGEOM if the
+ *  inviscid solution has no stagnation point. */
+ASCR_EXPORT ascr_status ascr_visc_solver_start(ascr_visc_solver *v, double alpha_rad,
+                                               ascr_visc_start start, ascr_errbuf *err);
+/** One Newton step of the run (step may be NULL). ASCR_OK when taken; ASCR_ESING if the Newton
+ *  system is singular (the run ends); ASCR_EINVAL if no run is under way. */
+ASCR_EXPORT ascr_status ascr_visc_solver_iterate(ascr_visc_solver *v, ascr_visc_step *step,
+                                                 ascr_errbuf *err);
+/** State of the run: ASCR_CONTINUE (going on), ASCR_OK (converged), ASCR_EMAXITER (ended
+ *  without convergence: iteration limit, no descent, stagnation point lost), ASCR_ESING,
+ *  ASCR_EINVAL (no run started). */
+ASCR_EXPORT ascr_status ascr_visc_solver_test(const ascr_visc_solver *v);
+/** Results of the run: of its last iterate once it has ended (the status of _test, with the
+ *  reason in err where it did not converge), of the present iterate (converged = 0,
+ *  ASCR_CONTINUE) while it goes on. */
+ASCR_EXPORT ascr_status ascr_visc_solver_result(ascr_visc_solver *v, ascr_visc_result *r,
+                                                ascr_errbuf *err);
+
+/** Called by ascr_visc_solver_solve after every Newton step of every run it makes (ctx
+ *  borrowed; fn NULL to stop). */
+typedef void (*ascr_visc_trace_fn)(void *ctx, const ascr_visc_step *step);
 ASCR_EXPORT void ascr_visc_solver_set_trace(ascr_visc_solver *v, ascr_visc_trace_fn fn, void *ctx);
 
 /** Free; NULL is a no-op. */

@@ -133,12 +133,9 @@ typedef struct cli_visc_opts {
   double turbulence;  /* percent; NaN: not given */
   double trip_upper;  /* x/c; NaN: none */
   double trip_lower;
-  int banded;         /* --banded-transition given (the exact formulation is the default) */
-  int formulation_given; /* --exact-transition or --banded-transition seen */
 } cli_visc_opts;
 void cli_visc_opts_init(cli_visc_opts *o);
-/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower,
- * 'X' --exact-transition, 'Y' --banded-transition (no argument; the two exclude each other). */
+/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower. */
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg);
 ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach);
 

@@ -494,8 +494,6 @@ void cli_visc_opts_init(cli_visc_opts *o)
   o->turbulence = NAN;
   o->trip_upper = NAN;
   o->trip_lower = NAN;
-  o->banded = 0;
-  o->formulation_given = 0;
 }
 
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
@@ -517,15 +515,6 @@ int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
     return cli_parse_double("--trip-upper", arg, 0.0, 1.0, &o->trip_upper);
   case 'L':
     return cli_parse_double("--trip-lower", arg, 0.0, 1.0, &o->trip_lower);
-  case 'X': /* --exact-transition: the default, accepted for scripts written before */
-  case 'Y':
-    if (o->formulation_given && o->banded != (code == 'Y')) {
-      cli_error("--exact-transition and --banded-transition exclude each other");
-      return 1;
-    }
-    o->formulation_given = 1;
-    o->banded = code == 'Y';
-    return 0;
   }
   return 1;
 }
@@ -542,7 +531,6 @@ ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach)
   }
   if (!isnan(o->trip_upper)) p.trip_upper = o->trip_upper;
   if (!isnan(o->trip_lower)) p.trip_lower = o->trip_lower;
-  p.exact_transition = !o->banded;
   return p;
 }
 

@@ -31,13 +31,13 @@ static void flow_help(FILE *fp)
         "      --turbulence PCT  free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
-        "      --banded-transition  the previous transition rules, with a band in N (for\n"
-        "                        comparison only: the answer can depend on the start;\n"
-        "                        docs/theory/viscous.md)\n"
         "  -p, --panels N        panels on the contour (default 160)\n"
         "      --json         JSON output\n"
         "      --csv          CSV output (surface table; summary in '#' lines)\n"
         "  -o, --output FILE  write to FILE (whole or not at all) instead of standard output\n"
+        "      --history      viscous: also list every Newton step of every start the solver\n"
+        "                     made (residual, update, step length, transition points), also\n"
+        "                     when it does not converge (table or JSON, not with --csv)\n"
         "      --plot DIR     viscous: also draw -Cp (with the inviscid curve, transition and\n"
         "                     separation marked) and the boundary layer, DIR/flow-cp and flow-bl\n"
         "      --force        replace FILE if it exists\n"
@@ -143,9 +143,82 @@ static json_t *darray(const double *v, size_t n)
   return a;
 }
 
+/* The Newton steps of a solve (--history), collected from the solver's trace. */
+typedef struct flow_history {
+  ascr_visc_step *steps;
+  size_t n, cap;
+  int failed; /* out of memory */
+} flow_history;
+
+static void history_add(void *ctx, const ascr_visc_step *st)
+{
+  flow_history *hh = ctx;
+  if (hh->failed) return;
+  if (hh->n == hh->cap) {
+    size_t cap = hh->cap ? 2 * hh->cap : 256;
+    ascr_visc_step *p = realloc(hh->steps, cap * sizeof *p);
+    if (p == NULL) {
+      hh->failed = 1;
+      return;
+    }
+    hh->steps = p;
+    hh->cap = cap;
+  }
+  hh->steps[hh->n++] = *st;
+}
+
+static const char *start_name(int start)
+{
+  return start == ASCR_VISC_START_PREVIOUS ? "previous" :
+         start == ASCR_VISC_START_MARCH ? "march" : "coupled-march";
+}
+
+static json_t *history_json(const flow_history *hh)
+{
+  json_t *a = json_array();
+  for (size_t i = 0; i < hh->n; i++) {
+    const ascr_visc_step *st = &hh->steps[i];
+    json_t *o = json_object();
+    json_object_set_new(o, "start", json_string(start_name(st->start)));
+    json_object_set_new(o, "alpha_deg", json_real(st->alpha_rad * 180.0 / FLOW_PI));
+    json_object_set_new(o, "re", json_real(st->re));
+    json_object_set_new(o, "iteration", json_integer(st->iteration));
+    json_object_set_new(o, "residual_max", cli_json_num(isfinite(st->residual_max), st->residual_max));
+    json_object_set_new(o, "update", cli_json_num(isfinite(st->update), st->update));
+    json_object_set_new(o, "relax", json_real(st->relax));
+    json_object_set_new(o, "transition_moved", json_boolean(st->transition_moved));
+    json_object_set_new(o, "stagnation_moved", json_boolean(st->stagnation_moved));
+    json_object_set_new(o, "exact_rule", json_boolean(st->exact_rule));
+    json_object_set_new(o, "x_transition_upper", cli_json_num(isfinite(st->x_transition_upper), st->x_transition_upper));
+    json_object_set_new(o, "x_transition_lower", cli_json_num(isfinite(st->x_transition_lower), st->x_transition_lower));
+    json_array_append_new(a, o);
+  }
+  return a;
+}
+
+static void history_table(FILE *fp, const flow_history *hh)
+{
+  fprintf(fp, "Newton steps (%zu), a run per start; rule * while the coupled march's look-ahead\n"
+          "places transition, blank once the exact rule does; T transition moved, S stagnation\n"
+          "point moved\n", hh->n);
+  fprintf(fp, "%-13s %7s %9s %4s %10s %10s %7s %2s %2s %4s %7s %7s\n", "start", "alpha", "Re", "it",
+          "residual", "update", "relax", "tr", "st", "rule", "xtr_up", "xtr_lo");
+  for (size_t i = 0; i < hh->n; i++) {
+    const ascr_visc_step *st = &hh->steps[i];
+    char xu[16], xl[16];
+    snprintf(xu, sizeof xu, isfinite(st->x_transition_upper) ? "%.4f" : "-", st->x_transition_upper);
+    snprintf(xl, sizeof xl, isfinite(st->x_transition_lower) ? "%.4f" : "-", st->x_transition_lower);
+    fprintf(fp, "%-13s %7.3f %9.4g %4d %10.3e %10.3e %7.4f %2s %2s %4s %7s %7s\n",
+            start_name(st->start), st->alpha_rad * 180.0 / FLOW_PI, st->re, st->iteration,
+            st->residual_max, st->update, st->relax, st->transition_moved ? "T" : "",
+            st->stagnation_moved ? "S" : "", st->exact_rule ? "" : "*", xu, xl);
+  }
+  fputc('\n', fp);
+}
+
 /* Viscous analysis of one point; output to fp. Returns an exit code. */
 static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_visc_params *vp,
-                        size_t panels, int json, int csv, const char *plotdir)
+                        size_t panels, int json, int csv, const char *plotdir, int history)
 {
   cli_analysis an;
   int rc = cli_analysis_open(&an, arg, panels);
@@ -154,18 +227,28 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
   ascr_status st = ascr_visc_solver_set(an.visc, an.panel, vp, &err);
   ascr_visc_result r;
   memset(&r, 0, sizeof r);
+  flow_history hh = {NULL, 0, 0, 0};
+  if (history) ascr_visc_solver_set_trace(an.visc, history_add, &hh);
   if (st == ASCR_OK) st = ascr_polar_solve_point(an.visc, alpha_deg, &r, &err);
+  ascr_visc_solver_set_trace(an.visc, NULL, NULL);
   if (st != ASCR_OK && st != ASCR_EMAXITER) {
     cli_error("%s", err.msg);
+    free(hh.steps);
     cli_analysis_close(&an);
     return cli_exit_for(st);
+  }
+  if (hh.failed) {
+    cli_error("out of memory");
+    free(hh.steps);
+    cli_analysis_close(&an);
+    return CLI_EXIT_INTERNAL;
   }
   int ok = r.converged;
   size_t ns = ascr_visc_solver_stations(an.visc), n = ascr_geom_section_size(an.section);
   int *side = calloc(ns, sizeof *side), *turb = calloc(ns, sizeof *turb);
   double *buf = calloc(10 * ns + n, sizeof *buf);
   if (side == NULL || turb == NULL || buf == NULL) {
-    free(side); free(turb); free(buf);
+    free(side); free(turb); free(buf); free(hh.steps);
     cli_analysis_close(&an);
     cli_error("out of memory");
     return CLI_EXIT_INTERNAL;
@@ -193,7 +276,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     }
     free(cpi);
     if (rc != 0) {
-      free(side); free(turb); free(buf);
+      free(side); free(turb); free(buf); free(hh.steps);
       cli_analysis_close(&an);
       return rc;
     }
@@ -253,6 +336,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
       json_object_set_new(bl, "turbulent", ta);
       json_object_set_new(o, "boundary_layer", bl);
     }
+    if (history) json_object_set_new(o, "history", history_json(&hh));
     json_object_set_new(o, "note", json_string(CLI_ESTIMATE_NOTE));
     json_dumpf(o, fp, JSON_REAL_PRECISION(10) | JSON_COMPACT);
     fputc('\n', fp);
@@ -267,6 +351,8 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
               side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], y[k], ue[k],
               cps[k], ds[k], th[k], h[k], cf[k], am[k], turb[k]);
     }
+  } else if (!ok && history) {
+    history_table(fp, &hh);
   } else if (ok) {
     char tu[16], tl[16];
     snprintf(tu, sizeof tu, isfinite(r.x_transition_upper) ? "%.4f" : "none", r.x_transition_upper);
@@ -290,6 +376,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
       fputc('\n', fp);
     }
     fprintf(fp, "converged in %d iterations\nnote      %s\n\n", r.iterations, CLI_ESTIMATE_NOTE);
+    if (history) history_table(fp, &hh);
     fprintf(fp, "%6s %9s %9s %8s %10s %10s %7s %9s %7s %s\n", "side", "s", "x/c", "ue/V",
             "dstar/c", "theta/c", "H", "cf", "N|Ct^.5", "state");
     for (size_t k = 0; k < ns; k++) {
@@ -301,6 +388,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
   free(side);
   free(turb);
   free(buf);
+  free(hh.steps);
   cli_analysis_close(&an);
   return rc;
 }
@@ -315,8 +403,7 @@ int cmd_flow(int argc, char **argv)
     {"re", required_argument, NULL, 'R'},     {"help", no_argument, NULL, 'h'},
     {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
     {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
-    {"plot", required_argument, NULL, 'G'},   {"exact-transition", no_argument, NULL, 'X'},
-    {"banded-transition", no_argument, NULL, 'Y'},
+    {"plot", required_argument, NULL, 'G'},   {"history", no_argument, NULL, 'H'},
     {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -324,7 +411,7 @@ int cmd_flow(int argc, char **argv)
   int have_visc_opt = 0;
   double alpha_deg = NAN, mach = 0.0;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
-  int inviscid = 0, json = 0, csv = 0, force = 0, have_re = 0;
+  int inviscid = 0, json = 0, csv = 0, force = 0, have_re = 0, history = 0;
   const char *outpath = NULL, *plotdir = NULL;
   int c;
   opterr = 0;
@@ -346,7 +433,7 @@ int cmd_flow(int argc, char **argv)
       if (cli_parse_double("--re", optarg, 1e3, 1e8, &re)) return CLI_EXIT_USAGE;
       have_re = 1;
       break;
-    case 'N': case 'T': case 'U': case 'L': case 'X': case 'Y':
+    case 'N': case 'T': case 'U': case 'L':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       have_visc_opt = 1;
       break;
@@ -354,6 +441,7 @@ int cmd_flow(int argc, char **argv)
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
     case 'G': plotdir = optarg; break;
+    case 'H': history = 1; break;
     case 'F': force = 1; break;
     case 'h': flow_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("flow: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -378,6 +466,15 @@ int cmd_flow(int argc, char **argv)
   }
   if (json && csv) {
     cli_error("flow: --json and --csv exclude each other");
+    return CLI_EXIT_USAGE;
+  }
+  if (history && inviscid) {
+    cli_error("flow: --history lists the viscous solver's steps (give --re)");
+    return CLI_EXIT_USAGE;
+  }
+  if (history && csv) {
+    cli_error("flow: --history and --csv exclude each other (the history is a second table: "
+              "use the table output or --json)");
     return CLI_EXIT_USAGE;
   }
   if (plotdir != NULL && inviscid) {
@@ -408,8 +505,10 @@ int cmd_flow(int argc, char **argv)
     int vrc = cli_output_open(&vout, outpath, force);
     if (vrc) return vrc;
     ascr_visc_params vp = cli_visc_params(&vo, re, mach);
-    vrc = flow_viscous(vout.fp, argv[optind], alpha_deg, &vp, panels, json, csv, plotdir);
-    if (vrc != 0 && !(vrc == CLI_EXIT_ANALYSIS && json)) {
+    vrc = flow_viscous(vout.fp, argv[optind], alpha_deg, &vp, panels, json, csv, plotdir, history);
+    /* an unconverged point: its JSON record (converged false, no numbers) or the history of
+     * the steps that did not converge is still written */
+    if (vrc != 0 && !(vrc == CLI_EXIT_ANALYSIS && (json || history))) {
       cli_output_discard(&vout);
       return vrc;
     }

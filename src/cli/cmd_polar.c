@@ -32,9 +32,6 @@ static void polar_help(FILE *fp)
         "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
-        "      --banded-transition the previous transition rules, with a band in N (for\n"
-        "                         comparison only: the answer can depend on where the sweep\n"
-        "                         started; docs/theory/viscous.md)\n"
         "  -p, --panels N         panels on the contour (default 160)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
@@ -66,8 +63,6 @@ int cmd_polar(int argc, char **argv)
     {"mach", required_argument, NULL, 'm'},      {"ncrit", required_argument, NULL, 'N'},
     {"turbulence", required_argument, NULL, 'T'}, {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
-    {"exact-transition", no_argument, NULL, 'X'},
-    {"banded-transition", no_argument, NULL, 'Y'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
@@ -93,7 +88,7 @@ int cmd_polar(int argc, char **argv)
     case 'm':
       if (cli_parse_list("--mach", optarg, 0.0, 0.7, machs, &nmach)) return CLI_EXIT_USAGE;
       break;
-    case 'N': case 'T': case 'U': case 'L': case 'X': case 'Y':
+    case 'N': case 'T': case 'U': case 'L':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
     case 'p':
@@ -124,11 +119,6 @@ int cmd_polar(int argc, char **argv)
   }
   if (json && csv) {
     cli_error("polar: --json and --csv exclude each other");
-    return CLI_EXIT_USAGE;
-  }
-  if (vo.banded && tablepath != NULL) {
-    cli_error("polar: --banded-transition and --table exclude each other (a polar table holds "
-              "the default formulation's curves: the rotor reads it as such)");
     return CLI_EXIT_USAGE;
   }
   if (tablepath != NULL) {
@@ -267,7 +257,6 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "re", json_real(res[ir]));
         json_object_set_new(po, "mach", json_real(machs[im]));
         json_object_set_new(po, "ncrit", json_real(vp.ncrit));
-        json_object_set_new(po, "exact_transition", json_boolean(vp.exact_transition));
         json_object_set_new(po, "trip_upper", vp.trip_upper <= 1.0 ? json_real(vp.trip_upper) : json_null());
         json_object_set_new(po, "trip_lower", vp.trip_lower <= 1.0 ? json_real(vp.trip_lower) : json_null());
         json_object_set_new(po, "converged_points", json_integer((json_int_t)sums[k].n_converged));

@@ -15,8 +15,8 @@
  * angles, the downward walk over points that failed going up, the second walk) continues only.
  * A warm start begins at the solver's secant predictor (src/visc/predictor.c). cl_max is the
  * largest converged cl; stall is reported when a converged point beyond it has a lower cl.
- * With the exact transition formulation a converged state depends only on the condition, so
- * where two walks reach an angle with different converged states the physics has two states
+ * A converged state depends only on the condition (the exact transition rule), so where two
+ * walks reach an angle with different converged states the physics has two states
  * (hysteresis near stall, a bubble that bursts): each point is therefore also reached from the
  * other side (down from the highest converged point, up from the lowest) and flagged bistable
  * where the second state differs by more than 0.005 in cl or 1 % in cd (issue 11's uniqueness
@@ -163,7 +163,7 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
   return st;
 }
 
-/* Second pass of an exact-formulation sweep: the angles i0..i1 (stepping by dir) reached from
+/* Second pass of a sweep: the angles i0..i1 (stepping by dir) reached from
  * the converged state of slot `slot` at index istart; a point that failed before and converges
  * now is taken, a point with a different converged state is flagged bistable. */
 static void return_pass(ascr_visc_solver *v, int slot, size_t istart, long dir, size_t iend,
@@ -275,19 +275,17 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
       alast = a;
     }
   }
-  if (v->p.exact_transition) {
-    /* every point from the other side too: down from the highest converged point, then up
-     * from the lowest (the downward walk ended there: its state is in slot 0) */
-    size_t ilo = n;
-    for (size_t i = 0; i < n && ilo == n; i++) {
-      if (pts[i].converged) ilo = i;
-    }
-    if (ilo < n && ilo < i0 && v->sv_have[0]) {
-      visc_snapshot(v, 2); /* slot 0 may be overwritten by the first return pass */
-    }
-    if (ihigh < n && ihigh > i0) return_pass(v, 3, ihigh, -1, i0, a0, step, pts);
-    if (ilo < n && ilo < i0 && v->sv_have[2]) return_pass(v, 2, ilo, 1, i0 - 1, a0, step, pts);
+  /* every point from the other side too: down from the highest converged point, then up from
+   * the lowest (the downward walk ended there: its state is in slot 0) */
+  size_t ilo = n;
+  for (size_t i = 0; i < n && ilo == n; i++) {
+    if (pts[i].converged) ilo = i;
   }
+  if (ilo < n && ilo < i0 && v->sv_have[0]) {
+    visc_snapshot(v, 2); /* slot 0 may be overwritten by the first return pass */
+  }
+  if (ihigh < n && ihigh > i0) return_pass(v, 3, ihigh, -1, i0, a0, step, pts);
+  if (ilo < n && ilo < i0 && v->sv_have[2]) return_pass(v, 2, ilo, 1, i0 - 1, a0, step, pts);
   /* summary */
   sum->cl_max = NAN;
   sum->cl_min = NAN;

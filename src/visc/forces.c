@@ -20,6 +20,13 @@ static double station_x(const ascr_visc_solver *v, size_t k, double f)
   return xa + f * (xb - xa);
 }
 
+double visc_x_transition(const ascr_visc_solver *v, int side)
+{
+  size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
+  size_t kt = v->itr[side];
+  return kt < k1 && kt > k0 ? station_x(v, kt, v->f_tr[side]) : NAN;
+}
+
 void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
 {
   const size_t n = v->n;
@@ -73,9 +80,7 @@ void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
       cfprev = c.cf;
       xprev = x;
     }
-    double xtr = NAN;
-    size_t kt = v->itr[side];
-    if (kt < k1 && kt > k0) xtr = station_x(v, kt, v->f_tr[side]);
+    double xtr = visc_x_transition(v, side);
     int forced = 0;
     if (!isnan(xtr) && cxs[side].xi_trip >= 0.0) {
       double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;

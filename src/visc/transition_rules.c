@@ -1,8 +1,9 @@
 /* src/visc/transition_rules.c
- * Where transition lies during the coupled iteration: the banded rules of the default
- * formulation (look-ahead march, forced moves, acceptance check) and the exact rule of the
- * exact formulation (docs/theory/viscous.md). The crossing point inside an interval is part of
- * the residual (residual.c); these functions decide which interval is the transition interval.
+ * Which station interval holds transition during the coupled iteration: the exact rule
+ * (docs/theory/viscous.md), which alone decides whether a state is converged, and the
+ * look-ahead placement that the coupled-march start uses until its iteration has settled (a
+ * path to a state the exact rule then judges). The crossing point inside an interval is part
+ * of the residual (residual.c).
  */
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
@@ -11,51 +12,21 @@
 #include <stdlib.h>
 #include <string.h>
 
-/* Is the converged transition on each surface one the e^N criterion allows? The interval
- * kt-1 -> kt holds transition where N, growing at the rate of its laminar end, reaches N_crit;
- * where it cannot (the crossing held at the interval's end), the interval must end at a
- * laminar separation (Hk at its laminar end near the separation value: a bubble transition)
- * or contain a trip. A transition left where N is far below N_crit on an attached layer (for
- * instance a leading-edge transition of a cold start that the iteration could not move) is
- * not a solution of the model. Returns a bit per side that fails (1 upper, 2 lower). */
-#define TR_CHECK_DN 1.0  /* N may fall short of N_crit by this much (hysteresis, smoothing) */
-#define TR_CHECK_HK 3.0  /* Hk from which a laminar layer is taken as separating */
-int visc_transition_inconsistent(const ascr_visc_solver *v, const vctx cxs[3])
-{
-  int bad = 0;
-  for (int side = 0; side < 2; side++) {
-    size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
-    for (size_t k = k0 + 1; k < k1; k++) {
-      if (!v->turb[k]) continue;
-      if (v->turb[k - 1]) break;
-      vstate sa = visc_get_state(v, k - 1), sb = visc_get_state(v, k);
-      double R[3], f[3] = {1.0, INFINITY, 0.0};
-      visc_residual(VR_TRANS, &cxs[side], &sa, &sb, NULL, R, f);
-      if (!(f[1] >= cxs[side].ncrit - TR_CHECK_DN || f[2] >= TR_CHECK_HK)) bad |= 1 << side;
-      break;
-    }
-  }
-  return bad;
-}
-
-
 /* Downstream move of the transition interval that starts at kt (first turbulent station) on a
- * side ending before k1: a laminar march from the last laminar station over the next stations
- * (at most 12) says where N reaches N_crit (or where the laminar layer separates: transition
- * is then taken there, as in a separation bubble); the stations passed become laminar with the
- * marched state. On the present edge velocity, or (forced = 1) on the inviscid one, moving at
- * least one station: used when the iteration has settled with a transition the e^N criterion
- * does not allow, where the present edge velocity carries the displacement of the turbulent
- * layer that should not be there. Returns the new first turbulent station. */
-size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size_t kt,
-                              double hyst, int forced)
+ * side ending before k1: a laminar march (bl_march_laminar_from) from the last laminar station
+ * on the present edge velocity over the next stations (at most 12) says where N reaches
+ * N_crit - hyst (or where the laminar layer separates: transition is then taken there, as in a
+ * separation bubble); the stations passed become laminar with the marched state. Returns the
+ * new first turbulent station. */
+static size_t move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size_t kt,
+                              double hyst)
 {
   enum { LOOK = 13 };
   double ss[LOOK], uu[LOOK], tt[LOOK], hh[LOOK], nn[LOOK];
   size_t cnt = 0;
   for (size_t j = kt - 1; j < k1 && cnt < LOOK; j++, cnt++) {
     ss[cnt] = v->xi[j];
-    uu[cnt] = fmax(forced && cnt > 0 ? v->ue_inv[j] : v->ue[j], 1e-4);
+    uu[cnt] = fmax(v->ue[j], 1e-4);
   }
   vstate a = visc_get_state(v, kt - 1);
   double ha = a.m / (fmax(a.ue, 1e-6) * a.th);
@@ -67,14 +38,6 @@ size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size
    * 1..stop-1 become laminar */
   size_t knew = kt + (stop > 0 ? stop - 1 : 0);
   if (why == 0) knew = kt + cnt - 1;
-  if (forced && knew == kt && cnt > 1 && kt + 1 < k1) {
-    knew = kt + 1;
-    if (!isfinite(tt[1]) || !isfinite(hh[1]) || !isfinite(nn[1])) {
-      tt[1] = a.th;
-      hh[1] = ha;
-      nn[1] = a.c;
-    }
-  }
   if (cx->xi_trip >= 0.0) {
     for (size_t j = kt; j < knew; j++) {
       if (v->xi[j] >= cx->xi_trip) {
@@ -93,10 +56,6 @@ size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size
   return knew > kt ? knew : kt;
 }
 
-/* Re-locate transition per side from the current state. Returns 1 if a flag changed.
- * Hysteresis of TR_HYST in N: within it the transition interval keeps its place and the
- * crossing point moves inside it (clamped to its ends), which stops the interval from
- * hopping back and forth between iterations. */
 /* First turbulent station of the side's stations k0+1 .. k1-1 (k1 if none). */
 size_t visc_first_turbulent(const ascr_visc_solver *v, size_t k0, size_t k1)
 {
@@ -106,6 +65,11 @@ size_t visc_first_turbulent(const ascr_visc_solver *v, size_t k0, size_t k1)
   return k1;
 }
 
+/* Look-ahead placement (the coupled-march start's first phase, driver.c): per side, upstream
+ * to the first laminar station with N >= N_crit + hyst (or the trip), else downstream by a
+ * look-ahead march (move_downstream). Within hyst the interval keeps its place, which stops it
+ * hopping between neighbours while the iteration is far from a solution. Returns 1 if an
+ * interval moved. A path only: the exact rule judges the state the iteration settles in. */
 int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
 {
   int changed = 0;
@@ -133,7 +97,7 @@ int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
      * laminar layer separates: transition is then taken there, as in a separation bubble);
      * the stations passed become laminar with the marched state */
     if (!changed && kt < k1 && kt > k0) {
-      size_t knew = visc_move_downstream(v, cx, k1, kt, hyst, 0);
+      size_t knew = move_downstream(v, cx, k1, kt, hyst);
       if (knew > kt) {
         changed = 1;
         kt = knew;
@@ -162,7 +126,7 @@ int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
  * are judged once the largest relative update is below TR_EXACT_SETTLED. Measured on the thin
  * plate at Re 2e5, 2 deg: 1 station / 0.05 crept for 100 iterations without arriving; 2 / 0.15,
  * 4 / 0.15 and 3 / 0.3 converged to the same state in 113, 97 and 85 iterations. */
-#define TR_MOVE_STATIONS 3 /* TR_EXACT_SETTLED is the driver's (solver.c) */
+#define TR_MOVE_STATIONS 3 /* TR_EXACT_SETTLED is the driver's (driver.c) */
 int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3])
 {
   int changed = 0;

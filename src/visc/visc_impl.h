@@ -46,7 +46,7 @@ typedef struct vctx {
   double xi_trip; /* forced transition xi on this side (negative for none) */
   double stag_a;  /* edge-velocity gradient at the stagnation point, d ue / d xi */
   double xi_min;  /* least distance of a first station from the stagnation point */
-  int exact_tr;   /* 1: exact transition formulation (ascr_visc_params.exact_transition) */
+  int exact_tr;   /* 1: the exact rule places transition (0: placement phase of a start) */
 } vctx;
 
 /* Residuals R[0..2] of one station (kinds above). For VR_MERGE, a = upper TE, b = lower TE,
@@ -70,14 +70,40 @@ int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue
 /* Station with the stagnation similarity start: the Hiemenz shape parameter of the closure. */
 double visc_hiemenz_h(void);
 
+/* The run under way (driver.c): one start's Newton iteration. */
+enum {
+  VISC_RUN_NONE = 0,   /* no run started (or the start failed) */
+  VISC_RUN_GOING,
+  VISC_RUN_CONVERGED,
+  VISC_RUN_LIMIT,      /* iteration limit */
+  VISC_RUN_STALLED,    /* steps in a row without descent */
+  VISC_RUN_LOST,       /* the stagnation point was lost */
+  VISC_RUN_NONFINITE,  /* converged to a state whose forces are not finite */
+  VISC_RUN_SINGULAR    /* singular Newton system */
+};
+typedef struct visc_run {
+  double alpha;        /* angle of the run, rad */
+  int kind;            /* ascr_visc_start actually used */
+  int warm;            /* 1: started from the previous converged state */
+  int state;           /* VISC_RUN_* */
+  int it;              /* Newton steps taken */
+  int exact;           /* 1 once the exact rule places transition */
+  int it_exact;        /* step at which it took over after a placement phase (0: from the start) */
+  int n_moves;         /* moves of the placement phase */
+  int since_best;      /* steps since the residual last fell below 0.7 of its best */
+  int n_uphill;        /* steps in a row without descent */
+  double rel, rbest;   /* largest relative update of the last step; best residual */
+  ascr_visc_result res; /* results, filled when the run ends */
+} visc_run;
+
 struct ascr_visc_solver {
   size_t n, nw, np;          /* nodes, wake nodes, source panels */
   size_t nst;                /* stations = n + nw */
   const ascr_panel_solver *ps; /* borrowed */
   ascr_visc_params p;
   int is_set, have_solution;
-  int exact_phase;           /* 1 while the exact transition phase runs (residual rules) */
-  int cold_kind;             /* exact formulation: 0 inverse-mode cold start, 1 direct march */
+  int exact_phase;           /* 1 while the exact rule places transition (residual forms) */
+  visc_run run;              /* the run under way (driver.c) */
   double alpha;              /* angle of the prepared wake */
   double *snode;             /* arc length at the nodes, n */
   double *xw, *yw, *sw;      /* wake nodes and arc length from the TE, nw */
@@ -150,6 +176,15 @@ struct ascr_visc_solver {
   void *trace_ctx;
 };
 
+/* driver.c: the run of one start (warm: from the previous converged state if there is one,
+ * otherwise the fresh start kind, an ascr_visc_start), its steps, its state (the status of
+ * ascr_visc_solver_test) and, for a run that ended unconverged, its message in err. */
+ascr_status visc_run_start(ascr_visc_solver *v, double alpha_rad, int warm, int kind,
+                           ascr_errbuf *err);
+ascr_status visc_run_iterate(ascr_visc_solver *v, ascr_visc_step *step, ascr_errbuf *err);
+ascr_status visc_run_test(const ascr_visc_solver *v);
+ascr_status visc_run_message(const ascr_visc_solver *v, ascr_errbuf *err);
+
 /* ascr_visc_solver_solve with the fresh starts that follow a failed warm start allowed
  * (cold_ok = 1, the public behaviour) or not (cold_ok = 0: continuation only). A fresh start
  * depends only on the condition, so a caller that has already tried it at this angle (a sweep
@@ -192,15 +227,13 @@ int visc_solve_structured(ascr_visc_solver *v);
 
 /* transition_rules.c */
 size_t visc_first_turbulent(const ascr_visc_solver *v, size_t k0, size_t k1);
-int visc_transition_inconsistent(const ascr_visc_solver *v, const vctx cxs[3]); /* bits per side */
-size_t visc_move_downstream(ascr_visc_solver *v, const vctx *cx, size_t k1, size_t kt,
-                            double hyst, int forced);
-int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst); /* banded */
-int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3]);               /* exact */
+/* look-ahead placement (the coupled-march start's first phase) and the exact rule */
+int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst);
+int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3]);
 size_t visc_transition_place(ascr_visc_solver *v, const vctx *cx, int side, size_t kt_new,
                              int to_place);
 
-/* coldstart.c: the two cold starts (exact formulation; default direct march). */
+/* coldstart.c: the two fresh starts (ASCR_VISC_START_MARCH, ASCR_VISC_START_COUPLED_MARCH). */
 void visc_initial_state_exact(ascr_visc_solver *v);
 ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errbuf *err);
 
@@ -215,7 +248,8 @@ int visc_pred_apply(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha
 void visc_pred_transition(ascr_visc_solver *v, const visc_pred_rec *prev, double alpha1,
                           double alpha, const visc_pred_rec *cur);
 
-/* forces.c: results of the current state. */
+/* forces.c: results of the current state; x/c of a side's transition crossing (NaN if none). */
 void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r);
+double visc_x_transition(const ascr_visc_solver *v, int side);
 
 #endif

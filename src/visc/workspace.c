@@ -22,7 +22,6 @@ ascr_visc_params ascr_visc_params_defaults(void)
   p.wake_length = 1.0;
   p.max_iter = 60;
   p.tol = 1e-7;
-  p.exact_transition = 1;
   return p;
 }
 
@@ -207,6 +206,7 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   v->p = *p;
   v->is_set = 0;
   v->have_solution = 0;
+  v->run.state = VISC_RUN_NONE;
   v->alpha = NAN;
   v->cur_alpha = v->cur_re = NAN;
   v->pred_prev.valid = 0;

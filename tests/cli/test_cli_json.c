@@ -181,6 +181,41 @@ static void test_cli_flow_viscous_json_contract(void **state)
   json_decref(j);
 }
 
+/* --history: a list "history" of the solver's Newton steps over every start it made (as many
+ * as the reported iterations); the last is the converged run's, with an update below the
+ * default tolerance (1e-7) and the result's transition point. */
+static void test_cli_flow_history_lists_the_newton_steps(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("flow naca0012 --alpha 2 --re 1e6 --history --json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  assert_true(json_is_true(json_object_get(j, "converged")));
+  json_t *h = json_object_get(j, "history");
+  assert_true(json_is_array(h));
+  size_t n = json_array_size(h);
+  assert_true(n >= 2);
+  /* every step counted in "iterations" */
+  assert_int_equal((long)n, (long)num(j, "iterations"));
+  json_t *last = json_array_get(h, n - 1);
+  assert_true(num(last, "update") < 1e-7);
+  assert_true(json_is_true(json_object_get(last, "exact_rule")));
+  ascr_assert_close(num(last, "x_transition_upper"), num(j, "x_transition_upper"), 0.0, 1e-9,
+                    "last step's transition = result's");
+  const char *start = json_string_value(json_object_get(last, "start"));
+  assert_non_null(start);
+  assert_true(strcmp(start, "march") == 0 || strcmp(start, "coupled-march") == 0);
+  for (size_t i = 0; i < n; i++) {
+    json_t *st = json_array_get(h, i);
+    double relax = num(st, "relax");
+    assert_true(relax > 0.0 && relax <= 1.0);
+    assert_true(num(st, "iteration") >= 1.0);
+    ascr_assert_close(num(st, "alpha_deg"), 2.0, 0.0, 1e-12, "alpha of every step");
+  }
+  json_decref(j);
+}
+
 /* Polar contract: an object with a list "polars", each with re, mach, ncrit and a list
  * "points" of alpha_deg, cl, cd, cdf, cdp, cm, x_transition_upper, x_transition_lower,
  * converged. */
@@ -319,6 +354,7 @@ int main(void)
     cmocka_unit_test(test_cli_flow_json_mach_raises_lift),
     cmocka_unit_test(test_cli_section_points_round_trip),
     cmocka_unit_test(test_cli_flow_viscous_json_contract),
+    cmocka_unit_test(test_cli_flow_history_lists_the_newton_steps),
     cmocka_unit_test(test_cli_polar_json_contract),
     cmocka_unit_test(test_cli_rotor_json_contract),
     cmocka_unit_test(test_cli_output_is_deterministic),

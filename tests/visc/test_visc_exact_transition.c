@@ -1,5 +1,5 @@
 /* tests/visc/test_visc_exact_transition.c
- * The exact transition formulation (ascr_visc_params.exact_transition): where it converges, a
+ * The exact transition rule (docs/theory/viscous.md): where the solver converges, a
  * condition has one answer whatever path reached it, and a symmetric section at zero incidence
  * has zero lift and equal transition points. Regression-level claims on cases that converge
  * today; the full property test over 12 (section, Re) pairs waits until the formulation
@@ -13,8 +13,8 @@
 #include <stdlib.h>
 
 #define DEG (3.14159265358979323846 / 180.0)
-/* issue 11's uniqueness tolerances: well below the differences the banded iteration gives
- * between paths (up to 0.11 in cl and 32 % in cd on the study's pairs) */
+/* issue 11's uniqueness tolerances: well below the differences the earlier banded transition
+ * rules gave between paths (up to 0.11 in cl and 32 % in cd on the study's pairs) */
 #define DCL_MAX 0.005
 #define DCD_REL_MAX 0.01
 /* symmetric section at 0 deg: issue 11's targets */
@@ -38,7 +38,6 @@ static void setup(fixture *f, const char *spec, double re)
   f->v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
-  p.exact_transition = 1;
   assert_int_equal(ascr_visc_solver_set(f->v, f->w, &p, &e), ASCR_OK);
 }
 
@@ -122,24 +121,6 @@ static void test_visc_exact_sweep_flags_no_second_state_where_there_is_one(void 
   teardown(&f);
 }
 
-/* The banded formulation (kept for comparison) does not look for second states. */
-static void test_visc_banded_sweep_never_flags_bistable(void **state)
-{
-  (void)state;
-  fixture f;
-  setup(&f, "naca2412", 1e5);
-  ascr_visc_params p = ascr_visc_params_defaults();
-  p.re = 1e5;
-  p.exact_transition = 0;
-  ascr_errbuf e;
-  assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, &e), ASCR_OK);
-  ascr_polar_point pts[5];
-  ascr_polar_summary sum;
-  assert_int_equal(ascr_polar_sweep(f.v, 2.0, 6.0, 1.0, pts, &sum, NULL, NULL, &e), ASCR_OK);
-  for (int i = 0; i < 5; i++) assert_int_equal(pts[i].bistable, 0);
-  teardown(&f);
-}
-
 /* The wake behind a thick or separated trailing edge (docs/theory/viscous.md, "The wake"): with
  * the wall layer's lag constant in the wake these three points did not converge (the far-wake
  * shape factor ran into its floor H = 1.0001 and the kinetic-energy residual stalled at 3e-3);
@@ -215,7 +196,6 @@ int main(void)
     cmocka_unit_test(test_visc_exact_transition_one_answer_whatever_the_path),
     cmocka_unit_test(test_visc_exact_transition_symmetric_section_has_no_lift_at_zero),
     cmocka_unit_test(test_visc_exact_sweep_flags_no_second_state_where_there_is_one),
-    cmocka_unit_test(test_visc_banded_sweep_never_flags_bistable),
     cmocka_unit_test(test_visc_exact_low_reynolds_start_and_sweep_agree),
     cmocka_unit_test(test_visc_exact_wake_shape_factor_decays_towards_one),
   };

@@ -16,7 +16,7 @@
  * continued from a higher Reynolds number, 12 before it, all agreeing to round-off; the margin
  * of 2 absorbs a BLAS or CPU that lands a point either side).
  * About 95 s in a release build (label long: the sanitizer run leaves it out).
- * The banded default formulation does not have this property (bench/study_visc_uniqueness,
+ * The earlier banded transition rules did not have this property (bench/study_visc_uniqueness,
  * 3 deg walks: 34 of 44 angles disagree, up to 0.112 in cl and 32.5 % in cd).
  */
 #include "ascr_test.h"
@@ -99,7 +99,6 @@ static void test_visc_exact_transition_gives_one_answer_per_condition(void **sta
     ascr_visc_solver *v = ascr_visc_solver_alloc(n, ascr_visc_default_wake_nodes(n));
     ascr_visc_params p = ascr_visc_params_defaults();
     p.re = pairs[ip].re;
-    p.exact_transition = 1;
     assert_int_equal(ascr_visc_solver_set(v, w, &p, &e), ASCR_OK);
     for (int ka = 0; ka < 2; ka++) {
       /* an angle in [0, 6) deg on a 0.1 deg grid from a linear congruential generator

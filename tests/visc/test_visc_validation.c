@@ -21,7 +21,7 @@ typedef struct polar {
 } polar;
 
 static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, double da,
-                       double trip, int exact)
+                       double trip)
 {
   ascr_geom_section *s = NULL;
   ascr_errbuf e;
@@ -33,7 +33,6 @@ static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, 
   assert_non_null(v);
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
-  p.exact_transition = exact;
   if (trip <= 1.0) {
     p.trip_upper = trip;
     p.trip_lower = trip;
@@ -123,7 +122,7 @@ static void test_visc_naca0012_re6e6_drag_matches_abbott(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 6e6, 0.0, 8.0, 1.0, 2.0, 1);
+  polar pl = run_polar(raw, 6e6, 0.0, 8.0, 1.0, 2.0);
   double cl[40], cd[40];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cd_cl_digitized.csv", -1, 0, 0, 1, cl, cd, 40);
   assert_true(nr > 10);
@@ -153,7 +152,7 @@ static void test_visc_naca0012_tripped_drag_matches_ladson(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 6e6, -2.0, 8.0, 1.0, 0.05, 1);
+  polar pl = run_polar(raw, 6e6, -2.0, 8.0, 1.0, 0.05);
   double al[40], cd[40], al2[40], cl[40];
   size_t nr = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 3, al, cd, 40);
   size_t nr2 = read_ref("naca0012_ladson_tm4074_tripped_re6e6.csv", 0, 120.0, 1, 2, al2, cl, 40);
@@ -170,34 +169,20 @@ static void test_visc_naca0012_tripped_drag_matches_ladson(void **state)
  * from their mean at these conditions (the listed cd_s1..cd_s4), the laminar separation bubble
  * that decides the drag at this Reynolds number is sensitive to N_crit (tunnel turbulence),
  * and the model was measured at 1.016e5, not 1e5. */
-static void sd7003_drag(int exact)
-{
-  ascr_geom_section *raw = NULL;
-  ascr_errbuf e;
-  assert_int_equal(ascr_geom_section_read(ASCR_REFERENCE_DIR "/sd7003_coords_uiuc.csv", &raw, NULL, &e), ASCR_OK);
-  polar pl = run_polar(raw, 1.016e5, -2.0, 9.0, 1.0, 2.0, exact);
-  double cl[40], cd[40];
-  size_t nr = read_ref("sd7003_uiuc_lsat_drag.csv", 0, 101600.0, 2, 3, cl, cd, 40);
-  assert_true(nr >= 8);
-  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, exact ? "SD7003 Re 1e5" : "SD7003 Re 1e5 banded",
-                         "UIUC", exact ? "sd7003_re1e5" : "sd7003_re1e5_banded",
-                         "UIUC low-speed airfoil tests (Selig et al.), SD7003 Re 1.016e5") >= 3);
-  free(pl.p);
-  ascr_geom_section_free(raw);
-}
-
 static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
 {
   (void)state;
-  sd7003_drag(1);
-}
-
-/* The same comparison with the banded transition rules kept for comparison
- * (ascr_visc_params.exact_transition = 0; docs/theory/viscous.md), same source and tolerance. */
-static void test_visc_sd7003_low_re_drag_matches_uiuc_banded(void **state)
-{
-  (void)state;
-  sd7003_drag(0);
+  ascr_geom_section *raw = NULL;
+  ascr_errbuf e;
+  assert_int_equal(ascr_geom_section_read(ASCR_REFERENCE_DIR "/sd7003_coords_uiuc.csv", &raw, NULL, &e), ASCR_OK);
+  polar pl = run_polar(raw, 1.016e5, -2.0, 9.0, 1.0, 2.0);
+  double cl[40], cd[40];
+  size_t nr = read_ref("sd7003_uiuc_lsat_drag.csv", 0, 101600.0, 2, 3, cl, cd, 40);
+  assert_true(nr >= 8);
+  assert_true(compare_cd(&pl, cl, cd, nr, 0.3, 0.9, 0.20, "SD7003 Re 1e5", "UIUC", "sd7003_re1e5",
+                         "UIUC low-speed airfoil tests (Selig et al.), SD7003 Re 1.016e5") >= 3);
+  free(pl.p);
+  ascr_geom_section_free(raw);
 }
 
 int main(void)
@@ -207,7 +192,6 @@ int main(void)
     cmocka_unit_test(test_visc_naca0012_re6e6_drag_matches_abbott),
     cmocka_unit_test(test_visc_naca0012_tripped_drag_matches_ladson),
     cmocka_unit_test(test_visc_sd7003_low_re_drag_matches_uiuc),
-    cmocka_unit_test(test_visc_sd7003_low_re_drag_matches_uiuc_banded),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
