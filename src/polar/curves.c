@@ -174,8 +174,10 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * the earlier numerics are not used): 2 = smooth transition crossing and transition check;
  * 3 = a cold retry computes its stagnation contexts from the inviscid edge velocities;
  * 4 = the exact transition formulation is the default (docs/theory/viscous.md);
- * 5 = warm starts begin at the secant predictor (which state a sweep reaches where two exist). */
-#define CURVE_NUMERICS_REVISION 5
+ * 5 = warm starts begin at the secant predictor (which state a sweep reaches where two exist);
+ * 6 = the march start's trailing edge and the predictor after a plain retry (which points
+ * converge). */
+#define CURVE_NUMERICS_REVISION 6
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

@@ -106,14 +106,16 @@ ascr_status visc_run_start(ascr_visc_solver *v, double alpha_rad, int warm, int 
   if (st != ASCR_OK) return st;
   int use_warm = warm && v->have_solution;
   /* a warm start to another angle of the same Reynolds number begins at the secant predictor
-   * (predictor.c) when the live state was itself continued from a neighbour */
-  int pred = use_warm && !v->pred_off && v->cur_re == v->p.re && alpha_rad != v->cur_alpha;
+   * (predictor.c) when the live state was itself continued from a neighbour; the live state is
+   * recorded for the next one's predictor also when this start is the plain retry (pred_off) */
+  int cont = use_warm && v->cur_re == v->p.re && alpha_rad != v->cur_alpha;
+  int pred = cont && !v->pred_off;
   v->pred_start.valid = 0;
   v->pred_used = 0;
   if (use_warm) {
     /* keep the previous state by station; restage at the previous stagnation point, then let
      * relocate_stagnation move it with the new inviscid part */
-    if (pred) visc_pred_capture(v, &v->pred_start, v->cur_alpha);
+    if (cont) visc_pred_capture(v, &v->pred_start, v->cur_alpha);
     visc_restage(v, v->is, v->s_stag);
     if (pred) v->pred_used = visc_pred_apply(v, &v->pred_prev, v->cur_alpha, alpha_rad);
     if (v->pred_used) {
