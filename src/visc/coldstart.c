@@ -240,12 +240,8 @@ ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errb
   if (pass > 0) visc_update_ue(v);
   for (int side = 0; side < 2; side++) {
     size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
-    double *s = core_calloc(cnt, sizeof *s), *ue = core_calloc(cnt, sizeof *ue);
-    ascr_bl_station *out = core_calloc(cnt, sizeof *out);
-    if (!s || !ue || !out) {
-      free(s); free(ue); free(out);
-      return core_fail(err, ASCR_ENOMEM, "viscous solver: out of memory");
-    }
+    double *s = v->march_s, *ue = v->march_ue;
+    ascr_bl_station *out = v->march_out;
     for (size_t j = 0; j < cnt; j++) {
       s[j] = v->xi[k0 + j];
       ue[j] = fmax(pass == 0 ? v->ue_inv[k0 + j] : v->ue[k0 + j], 1e-3);
@@ -292,7 +288,6 @@ ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errb
         v->cc[k] = 0.0;
       }
     }
-    free(s); free(ue); free(out);
   }
   wake_start(v);
   }

@@ -158,6 +158,8 @@ struct ascr_visc_solver {
   double *dinv;              /* nst x 9: inverses of the diagonal blocks of L */
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
+  double *march_s, *march_ue; /* n: one side's arc lengths and velocities (coupled-march start) */
+  ascr_bl_station *march_out; /* n: its marched stations */
   /* saved converged states (visc_snapshot / visc_restore): slots 0, 2 and 3 for callers
    * (sweeps), slot 1 for the solver's own use */
   double *sv_th[VISC_SLOTS], *sv_mm[VISC_SLOTS], *sv_cc[VISC_SLOTS];

@@ -92,6 +92,9 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
+  ALLOC(v->march_s, n);
+  ALLOC(v->march_ue, n);
+  ALLOC(v->march_out, n);
 #define ALLOC_REC(rec)                                                                             \
   ALLOC((rec).th, nst);                                                                            \
   ALLOC((rec).mm, nst);                                                                            \
@@ -124,6 +127,9 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp);
+  free(v->march_s);
+  free(v->march_ue);
+  free(v->march_out);
   free(v->lst); free(v->lblk); free(v->uidx); free(v->ucoef); free(v->ucnt); free(v->zm);
   free(v->mmat); free(v->wv); free(v->yv); free(v->chk); free(v->ipiv2); free(v->dinv);
 #define FREE_REC(rec) free((rec).th), free((rec).mm), free((rec).cc), free((rec).turb)
