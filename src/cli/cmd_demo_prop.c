@@ -172,8 +172,9 @@ int demo_prop(int argc, char **argv)
   cli_table_opts to;
   cli_table_opts_init(&to);
   to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
-  fprintf(stderr, "airscrew demo: %s\n", b->name);
-  fprintf(stderr, "  section polars over the blade Reynolds numbers (cached after the first run)...\n");
+  /* progress only: the demo's title heads the summary on standard output */
+  fprintf(stderr, "airscrew demo: section polars over the blade Reynolds numbers (cached after the "
+                  "first run)...\n");
   cli_tables tabs;
   int rc = cli_tables_prepare(b, &rp, demo_rpm[0], demo_rpm[NRPM - 1], demo_speed[0],
                               demo_speed[NSPD - 1], &to, &tabs);

@@ -21,6 +21,9 @@ for f in blade.json polars.csv rotor-map.csv hover.json report.html rotor-map.sv
 done
 grep -q "outputs in" "$tmp/out" || { echo "FAIL: no output listing"; fail=1; }
 grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report lacks the cautions"; fail=1; }
+# the demo's title once over both streams (issue 17: it was printed as progress and as summary)
+n_title=$(cat "$tmp/out" "$tmp/err" | grep -c "three-blade prop")
+[ "$n_title" = 1 ] || { echo "FAIL: the demo's title appears $n_title times in its output"; fail=1; }
 grep -q "<svg" "$tmp/demo/report.html" || { echo "FAIL: report has no inline figures"; fail=1; }
 # a second run into the same folder is refused without --force and leaves it as it was
 before=$(cksum < "$tmp/demo/report.html")
