@@ -50,39 +50,37 @@ int fig_prepare_dir(const char *dir, const char *const *names, int force)
   return 0;
 }
 
-int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np)
+int fig_polar_set(const char *base, const char *title, const fig_polar *p, size_t np)
 {
-  plot_series *sr = calloc(4 * np + 1, sizeof *sr);
-  double **ld = calloc(np + 1, sizeof *ld);
-  int rc = sr == NULL || ld == NULL;
+  fig_polar_work w;
+  w.sr = calloc(4 * np + 1, sizeof *w.sr);
+  w.ld = calloc(np + 1, sizeof *w.ld);
+  w.label = calloc(np + 1, sizeof *w.label);
+  int rc = w.sr == NULL || w.ld == NULL || w.label == NULL;
   for (size_t k = 0; rc == 0 && k < np; k++) {
-    ld[k] = calloc(p[k].n + 1, sizeof **ld);
-    if (ld[k] == NULL) {
-      rc = 1;
-      break;
-    }
-    for (size_t i = 0; i < p[k].n; i++) ld[k][i] = p[k].cl[i] / p[k].cd[i];
-    sr[k] = (plot_series){p[k].label, p[k].n, p[k].alpha, p[k].cl, 0};
-    sr[np + k] = (plot_series){NULL, p[k].n, p[k].cl, p[k].cd, 0};
-    sr[2 * np + k] = (plot_series){NULL, p[k].n, p[k].alpha, p[k].cm, 0};
-    sr[3 * np + k] = (plot_series){NULL, p[k].n, p[k].alpha, ld[k], 0};
+    w.ld[k] = calloc(p[k].n + 1, sizeof **w.ld);
+    if (w.ld[k] == NULL) rc = 1;
   }
   if (rc == 0) {
-    char t0[200], base[4200];
-    snprintf(t0, sizeof t0, "lift, %s", section);
-    plot_panel pan[4] = {{t0, "angle of attack #ga (deg)", "lift coefficient c#dl#u", sr, np},
-                         {"drag polar", "lift coefficient c#dl#u", "drag coefficient c#dd#u", sr + np, np},
-                         {"pitching moment", "angle of attack #ga (deg)", "c#dm#u (quarter chord)", sr + 2 * np, np},
-                         {"lift-to-drag ratio", "angle of attack #ga (deg)", "c#dl#u / c#dd#u", sr + 3 * np, np}};
-    snprintf(base, sizeof base, "%s/polar", dir);
+    plot_panel pan[4];
+    fig_polar_panels(title, p, np, &w, pan);
     rc = plot_figure(base, NULL, 2, 2, pan, 4);
   } else {
     cli_error("out of memory");
   }
-  for (size_t k = 0; ld != NULL && k < np; k++) free(ld[k]);
-  free(ld);
-  free(sr);
+  for (size_t k = 0; w.ld != NULL && k < np; k++) free(w.ld[k]);
+  free(w.ld);
+  free(w.label);
+  free(w.sr);
   return rc ? CLI_EXIT_OUTPUT : 0;
+}
+
+int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np)
+{
+  char t0[200], base[4200];
+  snprintf(t0, sizeof t0, "lift, %s", section);
+  snprintf(base, sizeof base, "%s/polar", dir);
+  return fig_polar_set(base, t0, p, np);
 }
 
 /* distinct values of v (at most max), ascending */

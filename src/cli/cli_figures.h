@@ -7,6 +7,8 @@
 
 #include <stddef.h>
 
+#include "cli_plot.h"
+
 /* one polar: NaN where a point did not converge */
 typedef struct fig_polar {
   char label[96];
@@ -16,6 +18,23 @@ typedef struct fig_polar {
 
 /* Polars of one section: DIR/polar.svg and .png (cl-alpha, drag polar, cm-alpha, L/D). */
 int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np);
+
+/* The same figure at BASE.svg and BASE.png with the first panel titled title. */
+int fig_polar_set(const char *base, const char *title, const fig_polar *p, size_t np);
+
+/* Scratch of fig_polar_panels for np polars: sr 4 np series, ld np arrays of each polar's
+ * length, label np legend texts. */
+typedef struct fig_polar_work {
+  plot_series *sr;
+  double **ld;
+  char (*label)[128];
+} fig_polar_work;
+
+/* The four panels of a polar figure (fig_polar_panels.c): lift against angle (legend), the drag
+ * polar (cd across, cl up), cm against angle, L/D against angle; a polar without a converged
+ * point is named "...: no converged points" in the legend. pan points into w. */
+void fig_polar_panels(const char *title, const fig_polar *p, size_t np, fig_polar_work *w,
+                      plot_panel pan[4]);
 
 /* one rotor operating point (numbers NaN where not converged); stations optional */
 typedef struct fig_rotor_point {

@@ -6,6 +6,7 @@
  */
 #define _POSIX_C_SOURCE 200809L
 #include "cli.h"
+#include "cli_figures.h"
 #include "cli_plot.h"
 #include "cli_tables.h"
 #include "commands.h"
@@ -311,49 +312,43 @@ int demo_prop(int argc, char **argv)
   for (size_t s = 0; rc == 0 && s < tabs.n; s++) {
     const cli_section_info *in = &tabs.info[s];
     size_t nc = in->n_curve;
-    plot_series *sr = calloc(4 * nc + 1, sizeof *sr);
-    double **ld = calloc(nc + 1, sizeof *ld);
-    char (*lab)[48] = calloc(nc + 1, sizeof *lab);
-    double **cl = calloc(nc + 1, sizeof *cl), **cd = calloc(nc + 1, sizeof *cd), **cm = calloc(nc + 1, sizeof *cm);
-    for (size_t k = 0; k < nc; k++) {
+    fig_polar *fp = calloc(nc + 1, sizeof *fp);
+    int mem = fp == NULL;
+    for (size_t k = 0; !mem && k < nc; k++) {
       const ascr_curve_data *c = &in->curve[k];
-      ld[k] = calloc(c->n + 1, sizeof **ld);
-      cl[k] = calloc(c->n + 1, sizeof **cl);
-      cd[k] = calloc(c->n + 1, sizeof **cd);
-      cm[k] = calloc(c->n + 1, sizeof **cm);
+      fig_polar *f = &fp[k];
+      f->n = c->n;
+      f->alpha = c->alpha_deg;
+      f->cl = calloc(c->n + 1, sizeof *f->cl);
+      f->cd = calloc(c->n + 1, sizeof *f->cd);
+      f->cm = calloc(c->n + 1, sizeof *f->cm);
+      if (f->cl == NULL || f->cd == NULL || f->cm == NULL) {
+        mem = 1;
+        break;
+      }
       for (size_t i = 0; i < c->n; i++) {
         int ok = c->converged[i];
-        cl[k][i] = ok ? c->cl[i] : NAN;
-        cd[k][i] = ok ? c->cd[i] : NAN;
-        cm[k][i] = ok ? c->cm[i] : NAN;
-        ld[k][i] = ok ? c->cl[i] / c->cd[i] : NAN;
+        f->cl[i] = ok ? c->cl[i] : NAN;
+        f->cd[i] = ok ? c->cd[i] : NAN;
+        f->cm[i] = ok ? c->cm[i] : NAN;
       }
-      snprintf(lab[k], sizeof lab[k], "Re %.3gk, N#dcrit#u %.0f", c->re / 1000.0, c->ncrit);
-      sr[k] = (plot_series){lab[k], c->n, c->alpha_deg, cl[k], 0};
-      sr[nc + k] = (plot_series){NULL, c->n, cl[k], cd[k], 0};
-      sr[2 * nc + k] = (plot_series){NULL, c->n, c->alpha_deg, cm[k], 0};
-      sr[3 * nc + k] = (plot_series){NULL, c->n, c->alpha_deg, ld[k], 0};
+      snprintf(f->label, sizeof f->label, "Re %.3gk, N#dcrit#u %.0f", c->re / 1000.0, c->ncrit);
     }
     char t0[160];
     snprintf(t0, sizeof t0, "lift, section '%s'", b->section_name[s]);
-    plot_panel pan[4] = {{t0, "angle of attack #ga (deg)", "lift coefficient c#dl#u", sr, nc},
-                         {"drag polar", "lift coefficient c#dl#u", "drag coefficient c#dd#u", sr + nc, nc},
-                         {"pitching moment", "angle of attack #ga (deg)", "c#dm#u (quarter chord)", sr + 2 * nc, nc},
-                         {"lift-to-drag ratio", "angle of attack #ga (deg)", "c#dl#u / c#dd#u", sr + 3 * nc, nc}};
     snprintf(base, sizeof base, "%s/polars-%s", outdir, b->section_name[s]);
-    if (nc > 0 && plot_figure(base, NULL, 2, 2, pan, 4) != 0) rc = CLI_EXIT_OUTPUT;
-    for (size_t k = 0; k < nc; k++) {
-      free(ld[k]);
-      free(cl[k]);
-      free(cd[k]);
-      free(cm[k]);
+    if (mem) {
+      cli_error("out of memory");
+      rc = CLI_EXIT_INTERNAL;
+    } else if (nc > 0 && fig_polar_set(base, t0, fp, nc) != 0) {
+      rc = CLI_EXIT_OUTPUT;
     }
-    free(ld);
-    free(cl);
-    free(cd);
-    free(cm);
-    free(lab);
-    free(sr);
+    for (size_t k = 0; fp != NULL && k < nc; k++) {
+      free(fp[k].cl);
+      free(fp[k].cd);
+      free(fp[k].cm);
+    }
+    free(fp);
   }
   if (rc == 0) {
     /* rotor map: CT, CP, efficiency against J per rpm (BEMT), and static thrust against rpm */
