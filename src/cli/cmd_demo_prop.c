@@ -88,6 +88,32 @@ static int mwrite(mbuf *m, const char *dir, const char *name)
   return rc;
 }
 
+/* Write an SVG document inline with its ids (and the references to them: href="#...",
+ * url(#...)) prefixed, so that several figures in one HTML page keep their own glyph and clip
+ * definitions (issue 17: the plotting library names them alike in every figure, and a browser
+ * drew every figure after the first with the first one's glyphs). */
+static void write_svg_scoped(FILE *f, const char *svg, const char *prefix)
+{
+  static const char *const marks[] = {" id=\"", "href=\"#", "url(#"};
+  const char *p = svg;
+  for (;;) {
+    const char *best = NULL;
+    size_t blen = 0;
+    for (size_t m = 0; m < sizeof marks / sizeof marks[0]; m++) {
+      const char *q = strstr(p, marks[m]);
+      if (q != NULL && (best == NULL || q < best)) {
+        best = q;
+        blen = strlen(marks[m]);
+      }
+    }
+    if (best == NULL) break;
+    fwrite(p, 1, (size_t)(best - p) + blen, f);
+    fputs(prefix, f);
+    p = best + blen;
+  }
+  fputs(p, f);
+}
+
 static char *slurp(const char *path, size_t *len)
 {
   FILE *f = fopen(path, "rb");
@@ -462,7 +488,11 @@ int demo_prop(int argc, char **argv)
       char *svg = slurp(path, &n);
       if (svg == NULL) continue;
       char *start = strstr(svg, "<svg");
-      fprintf(f, "<figure>%s<figcaption>%s</figcaption></figure>\n", start != NULL ? start : "", figs[q][1]);
+      char prefix[16];
+      snprintf(prefix, sizeof prefix, "f%zu-", q);
+      fputs("<figure>", f);
+      if (start != NULL) write_svg_scoped(f, start, prefix);
+      fprintf(f, "<figcaption>%s</figcaption></figure>\n", figs[q][1]);
       free(svg);
     }
     fprintf(f, "<h2>Files</h2>\n<p>blade.json, polars.csv, rotor-map.csv, hover.json, and every plot as "

@@ -25,6 +25,15 @@ grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report l
 n_title=$(cat "$tmp/out" "$tmp/err" | grep -c "three-blade prop")
 [ "$n_title" = 1 ] || { echo "FAIL: the demo's title appears $n_title times in its output"; fail=1; }
 grep -q "<svg" "$tmp/demo/report.html" || { echo "FAIL: report has no inline figures"; fail=1; }
+# every element id once in the page (issue 17: the inline figures repeated the plotting library's
+# glyph ids, and a browser drew every figure after the first with the first one's glyphs), and
+# every reference to an id names one that exists
+n_dup=$(grep -o ' id="[^"]*"' "$tmp/demo/report.html" | sort | uniq -d | wc -l)
+[ "$n_dup" = 0 ] || { echo "FAIL: $n_dup element ids repeated in report.html"; fail=1; }
+grep -o ' id="[^"]*"' "$tmp/demo/report.html" | sed 's/ id="\(.*\)"/\1/' | sort -u > "$tmp/ids"
+grep -o 'href="#[^"]*"' "$tmp/demo/report.html" | sed 's/href="#\(.*\)"/\1/' | sort -u > "$tmp/refs"
+n_dangling=$(comm -13 "$tmp/ids" "$tmp/refs" | wc -l)
+[ "$n_dangling" = 0 ] || { echo "FAIL: $n_dangling references to missing ids in report.html"; fail=1; }
 # a second run into the same folder is refused without --force and leaves it as it was
 before=$(cksum < "$tmp/demo/report.html")
 if "$exe" demo --out "$tmp/demo" > /dev/null 2>&1; then echo "FAIL: demo overwrote its folder"; fail=1; fi
