@@ -292,7 +292,29 @@ static int output_kind(const char *path, int force, mode_t *mode)
 int cli_output_check(const char *path, int force)
 {
   mode_t mode = 0;
-  return output_kind(path, force, &mode) < 0 ? CLI_EXIT_OUTPUT : 0;
+  int kind = output_kind(path, force, &mode);
+  if (kind < 0) return CLI_EXIT_OUTPUT;
+  if (kind == 2) return 0; /* a device or FIFO is written directly */
+  /* a file is written through a temporary beside it: that folder must take new files, checked
+   * before anything is computed (issue 17: "-o nodir/p.csv" failed after the whole run) */
+  char dir[4200];
+  const char *slash = strrchr(path, '/');
+  if (slash == NULL) {
+    snprintf(dir, sizeof dir, ".");
+  } else if (slash == path) {
+    snprintf(dir, sizeof dir, "/");
+  } else if ((size_t)(slash - path) < sizeof dir) {
+    memcpy(dir, path, (size_t)(slash - path));
+    dir[slash - path] = '\0';
+  } else {
+    cli_error("%s: path too long", path);
+    return CLI_EXIT_OUTPUT;
+  }
+  if (!cli_dir_writable(dir)) {
+    cli_error("%s: cannot write in the folder %s: %s", path, dir, strerror(errno));
+    return CLI_EXIT_OUTPUT;
+  }
+  return 0;
 }
 
 int cli_dir_writable(const char *dir)

@@ -496,6 +496,11 @@ int cmd_flow(int argc, char **argv)
     }
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
+  /* the output file checked before the plot folder is created (nothing left behind) */
+  if (outpath != NULL) {
+    int orc = cli_output_check(outpath, force);
+    if (orc) return orc;
+  }
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, (const char *const[]){"flow-cp", "flow-bl", NULL}, force);
     if (prc) return prc;

@@ -131,15 +131,18 @@ int cmd_polar(int argc, char **argv)
     }
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
+  /* every output checked before anything is computed, the plot folder (which is created) last */
+  if (tablepath != NULL) {
+    int prc = cli_output_check(tablepath, force); /* refuses an existing file */
+    if (prc) return prc;
+  }
+  if (outpath != NULL) {
+    int prc = cli_output_check(outpath, force);
+    if (prc) return prc;
+  }
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, (const char *const[]){"polar", NULL}, force);
     if (prc) return prc;
-  }
-  if (tablepath != NULL) {
-    cli_output probe;
-    int prc = cli_output_open(&probe, tablepath, force); /* refuses an existing file */
-    if (prc) return prc;
-    cli_output_discard(&probe);
   }
   cli_output out;
   int rc = cli_output_open(&out, outpath, force);

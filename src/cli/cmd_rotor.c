@@ -280,6 +280,11 @@ int cmd_rotor(int argc, char **argv)
   to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
 
   if (cli_check_options_only) return CLI_EXIT_OK;
+  /* the output file checked before the plot folder is created (nothing left behind) */
+  if (outpath != NULL) {
+    int orc = cli_output_check(outpath, force);
+    if (orc) return orc;
+  }
   if (plotdir != NULL) {
     int prc = fig_prepare_dir(plotdir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
     if (prc) return prc;

@@ -93,6 +93,10 @@ if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$
 if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
   echo "FAIL: replaced file lost its mode 640 or was not replaced"; fail=$((fail + 1))
 fi
+# runs refused for an output in a missing folder left nothing (whole or nothing, issue 17)
+for f in wn-figs wn-t.json wn-figs2 wn-figs3 nodir; do
+  if [ -e "$tmp/$f" ]; then echo "FAIL: a refused run left $f"; fail=$((fail + 1)); fi
+done
 # no temporary files left behind
 if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"
