@@ -180,6 +180,15 @@ int cmd_section(int argc, char **argv)
     }
     fprintf(fp, "nodes        %zu (%zu panels), leading edge at node %zu\n", n, n - 1,
             ascr_geom_section_le_index(s));
+    /* the shape as given or generated is not what the analyses see (issue 17: 401 nodes here,
+     * 160 panels in flow and polar, without a word on which is which) */
+    if (panels == 0) {
+      fprintf(fp, "analyses     respace it on %d panels (flow, polar, rotor: --panels N)\n",
+              ASCR_GEOM_DEFAULT_PANELS);
+    } else {
+      fprintf(fp, "analyses     these %zu panels with flow, polar or rotor --panels %zu\n", n - 1,
+              panels);
+    }
     fprintf(fp, "thickness    %.3f %% of chord at x/c = %.3f\n", 100.0 * m.thickness, m.thickness_x);
     fprintf(fp, "camber       %.3f %% of chord at x/c = %.3f\n", 100.0 * m.camber, m.camber_x);
     fprintf(fp, "LE radius    %.5f chord\n", m.le_radius);

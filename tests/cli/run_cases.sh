@@ -97,6 +97,10 @@ fi
 for f in wn-figs wn-t.json wn-figs2 wn-figs3 nodir; do
   if [ -e "$tmp/$f" ]; then echo "FAIL: a refused run left $f"; fail=$((fail + 1)); fi
 done
+# section says which panels the analyses use (issue 17: it showed 401 nodes, the analyses 160)
+"$exe" section naca2412 > "$tmp/sec.out" 2>&1
+grep -q "^nodes        401 (400 panels)" "$tmp/sec.out" && grep -q "respace it on 160 panels" "$tmp/sec.out" ||
+  { echo "FAIL: section does not say which panels the analyses use"; fail=$((fail + 1)); }
 # no temporary files left behind
 if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"
