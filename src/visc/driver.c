@@ -79,18 +79,24 @@ static double step_limit(ascr_visc_solver *v, double *rlx_out)
 }
 
 /* Keep H above its floor with the current ue (the closures are not defined below it). The
- * first station of each side is left alone: its residual and the closures of the first interval
- * see it with the stagnation flow's ue = stag_a xi (residual.c, first_view), under which the
- * stagnation residual holds H at the Hiemenz value; a floor on m / (ue th) with the node's own ue
- * fought that residual (measured: a cycle of constant residual 0.27 on the plate at Re 5e3, 1 deg,
- * the floor raising m and the Newton step lowering it again, every iteration). */
+ * first station of each side is seen by its residual and the closures of the first interval
+ * with the stagnation flow's ue = stag_a max(xi, xi_min) (residual.c, first_view), under which
+ * the stagnation residual holds H at the Hiemenz value: its floor is applied with that ue, so
+ * that it is never active at a solution. With the node's own ue it fought that residual
+ * (measured: a cycle of constant residual 0.27 on the plate at Re 5e3, 1 deg, the floor raising
+ * m and the Newton step lowering it again); leaving those stations out of the floor cured the
+ * cycle but let early iterates reach shape factors the closures do not cover, and doubled the
+ * Newton iterations of a swept point (bench_visc medians 7 -> 13 and 8 -> 16). */
 static void clamp_shape(ascr_visc_solver *v)
 {
   for (size_t k = 0; k < v->nst; k++) {
-    if (k == 0 || k == v->nu) continue;
     /* floors: wake 1.0001, turbulent wall layer 1.05, laminar 1.8 (below the fits' range) */
     double hmin = v->side[k] == 2 ? 1.0001 : (v->turb[k] ? 1.05 : 1.8);
     double ue = fmax(v->ue[k], 1e-6);
+    if (k == 0 || k == v->nu) {
+      vctx cx = visc_context(v, 0);
+      ue = fmax(cx.stag_a * fmax(v->xi[k], cx.xi_min), 1e-6);
+    }
     if (v->mm[k] < hmin * ue * v->th[k]) v->mm[k] = hmin * ue * v->th[k];
   }
 }
@@ -220,6 +226,7 @@ static void run_end(ascr_visc_solver *v, int state)
     v->pred_start.valid = 0;
     v->cur_alpha = run->alpha;
     v->cur_re = v->p.re;
+    v->cur_cl = r->cl;
   }
 }
 

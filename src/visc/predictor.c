@@ -42,6 +42,7 @@ void visc_pred_capture(const ascr_visc_solver *v, visc_pred_rec *rec, double alp
   rec->is = v->is;
   rec->alpha = alpha;
   rec->re = v->cur_re;
+  rec->cl = v->cur_cl;
   rec->valid = 1;
 }
 
@@ -55,6 +56,7 @@ void visc_pred_copy(const ascr_visc_solver *v, visc_pred_rec *dst, const visc_pr
   dst->is = src->is;
   dst->alpha = src->alpha;
   dst->re = src->re;
+  dst->cl = src->cl;
   dst->valid = src->valid;
 }
 

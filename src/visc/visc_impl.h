@@ -18,7 +18,7 @@
 #include "panel/panel_impl.h"
 
 /* Saved-state slots of a solver (visc_snapshot / visc_restore). */
-#define VISC_SLOTS 4
+#define VISC_SLOTS 6
 
 /* A converged state by node (surface nodes 0..n-1, then the wake n..n+nw-1) with its
  * condition, for the secant predictor (predictor.c). turb holds regime + 2 * (lower side). */
@@ -26,7 +26,7 @@ typedef struct visc_pred_rec {
   double *th, *mm, *cc;
   int *turb;
   size_t is;
-  double alpha, re;
+  double alpha, re, cl;
   int valid;
 } visc_pred_rec;
 
@@ -161,7 +161,7 @@ struct ascr_visc_solver {
   double *march_s, *march_ue; /* n: one side's arc lengths and velocities (coupled-march start) */
   ascr_bl_station *march_out; /* n: its marched stations */
   /* saved converged states (visc_snapshot / visc_restore): slots 0, 2 and 3 for callers
-   * (sweeps), slot 1 for the solver's own use */
+   * (sweeps), slots 1, 4 and 5 for the solver's own use (solver.c) */
   double *sv_th[VISC_SLOTS], *sv_mm[VISC_SLOTS], *sv_cc[VISC_SLOTS];
   int *sv_turb[VISC_SLOTS];
   size_t sv_is[VISC_SLOTS];
@@ -169,10 +169,10 @@ struct ascr_visc_solver {
   int sv_have[VISC_SLOTS];
   /* secant predictor (predictor.c): the angle of the live converged state, the converged state
    * it was continued from, and the start of the solve under way; snapshots keep both */
-  double cur_alpha, cur_re;
+  double cur_alpha, cur_re, cur_cl;
   int pred_off, pred_used;   /* visc_solve: predictor not to be used / used by the last solve */
   visc_pred_rec pred_prev, pred_start;
-  double sv_alpha[VISC_SLOTS], sv_re[VISC_SLOTS];
+  double sv_alpha[VISC_SLOTS], sv_re[VISC_SLOTS], sv_cl[VISC_SLOTS];
   visc_pred_rec sv_prev[VISC_SLOTS];
   ascr_visc_trace_fn trace;
   void *trace_ctx;

@@ -164,6 +164,7 @@ void visc_snapshot(ascr_visc_solver *v, int q)
   v->sv_s_stag[q] = v->s_stag;
   v->sv_alpha[q] = v->cur_alpha;
   v->sv_re[q] = v->cur_re;
+  v->sv_cl[q] = v->cur_cl;
   visc_pred_copy(v, &v->sv_prev[q], &v->pred_prev);
 }
 
@@ -179,6 +180,7 @@ void visc_restore(ascr_visc_solver *v, int q)
   v->have_solution = 1;
   v->cur_alpha = v->sv_alpha[q];
   v->cur_re = v->sv_re[q];
+  v->cur_cl = v->sv_cl[q];
   visc_pred_copy(v, &v->pred_prev, &v->sv_prev[q]);
 }
 
@@ -214,7 +216,7 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   v->have_solution = 0;
   v->run.state = VISC_RUN_NONE;
   v->alpha = NAN;
-  v->cur_alpha = v->cur_re = NAN;
+  v->cur_alpha = v->cur_re = v->cur_cl = NAN;
   v->pred_prev.valid = 0;
   const size_t n = v->n, m = n + 1, np = v->np;
   v->snode[0] = 0.0;

@@ -138,6 +138,31 @@ static void test_visc_exact_wake_shape_factor_decays_towards_one(void **state)
   }
 }
 
+/* Continuation keeps to its branch (solver.c, step control): the 3 %-thick, 5 %-camber plate at
+ * Re 3e4 has two branches side by side at 3-4.6 deg (a layer that separates near 0.65 chord
+ * without reattaching, cl 0.42-0.64, beside one separating near 0.68 with transition at the
+ * trailing edge, 0.53-0.69). Walked up from 2.6 deg by 0.5 deg, the step to 3.6 deg left the
+ * branch it was on (cl 0.4718 against 0.6107 by 0.1 deg steps, measured 2026-12-03, before the
+ * step control); both walks must now reach the same state. */
+static void test_visc_exact_continuation_keeps_to_its_branch(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "plate:t=3,f=5", 3e4);
+  const double coarse[] = {2.6, 3.1, 3.6};
+  double fine[11];
+  for (int i = 0; i < 11; i++) fine[i] = 2.6 + 0.1 * i;
+  ascr_visc_result rc, rf;
+  walk(f.v, coarse, 3, &rc);
+  walk(f.v, fine, 11, &rf);
+  print_message("plate t3 f5, Re 3e4, 3.6 deg: 0.5 deg steps cl %.4f cd %.5f, 0.1 deg steps "
+                "cl %.4f cd %.5f\n", rc.cl, rc.cd, rf.cl, rf.cd);
+  assert_true(rc.converged && rf.converged);
+  assert_true(fabs(rc.cl - rf.cl) <= DCL_MAX);
+  assert_true(fabs(rc.cd - rf.cd) <= DCD_REL_MAX * rf.cd);
+  teardown(&f);
+}
+
 /* Re 5,000, a 3 % plate with 4.5 % camber (issue 11's low-Reynolds grid): both marched fresh
  * starts fail (the start's displacement drives the coupled edge velocity near the leading
  * edge negative); the start continued down from a higher Reynolds number converges, and to the
@@ -169,6 +194,7 @@ int main(void)
     cmocka_unit_test(test_visc_exact_transition_one_answer_whatever_the_path),
     cmocka_unit_test(test_visc_exact_transition_symmetric_section_has_no_lift_at_zero),
     cmocka_unit_test(test_visc_exact_sweep_flags_no_second_state_where_there_is_one),
+    cmocka_unit_test(test_visc_exact_continuation_keeps_to_its_branch),
     cmocka_unit_test(test_visc_exact_low_reynolds_start_and_sweep_agree),
     cmocka_unit_test(test_visc_exact_wake_shape_factor_decays_towards_one),
   };
