@@ -77,6 +77,30 @@ ASCR_EXPORT ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha
  *  polar (pts in increasing alpha, n entries) that bracket it; NaN if no converged pair does. */
 ASCR_EXPORT double ascr_polar_cl_at_alpha(const ascr_polar_point *pts, size_t n, double alpha_deg);
 
+/** The figures a Reynolds-number study compares, from one swept polar (src/polar/re_summary.c
+ *  gives each definition). Every number is taken from converged points only and is NaN where
+ *  the polar does not determine it. */
+typedef struct ascr_polar_re_summary {
+  double cd_min, cl_at_cd_min, alpha_at_cd_min_deg;  /* smallest cd, where it occurs */
+  double ld_max, cl_at_ld_max, alpha_at_ld_max_deg;  /* largest cl / cd (cd > 0), where */
+  double cl_max, alpha_cl_max_deg;                   /* largest cl below the first fall */
+  double alpha_zero_lift_deg;                        /* first sign change of cl, rising */
+  double lift_slope_per_deg;                         /* fit within alpha_0 -2 .. +4 deg */
+  double bubble_cl;                                  /* the cl the bubble is reported at */
+  double x_separation_upper, x_reattach_upper;       /* at bubble_cl (x/c); NaN: none there */
+  int bubble_status; /* 1 closed bubble at bubble_cl, 0 no closed bubble there (separation
+                        may still be given: an open one), -1 bubble_cl not reached */
+  size_t n_converged;
+} ascr_polar_re_summary;
+
+/** Summary of a swept polar (pts in increasing alpha, n entries) for a Reynolds-number study;
+ *  bubble_cl is the lift coefficient at which the upper-surface bubble is reported.
+ *  @return ASCR_OK; ASCR_EINVAL for NULL arguments or a non-finite bubble_cl. */
+ASCR_EXPORT ascr_status ascr_polar_re_summary_compute(const ascr_polar_point *pts, size_t n,
+                                                      double bubble_cl,
+                                                      ascr_polar_re_summary *out,
+                                                      ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

@@ -256,3 +256,53 @@ int fig_flow(const char *dir, const char *title, size_t ns, const int *side, con
   free(b);
   return rc ? CLI_EXIT_OUTPUT : 0;
 }
+
+int fig_re_study(const char *dir, const char *section, double bubble_cl, const fig_re_series *s,
+                 size_t ns)
+{
+  enum { MAXS = 8 };
+  if (ns > MAXS) ns = MAXS;
+  size_t nre = 0;
+  for (size_t k = 0; k < ns; k++) nre = s[k].n > nre ? s[k].n : nre;
+  double *lx = calloc(ns * nre + 1, sizeof *lx);
+  plot_series *sr = calloc(7 * MAXS, sizeof *sr);
+  char (*lab)[64] = calloc(2 * MAXS, sizeof *lab);
+  if (lx == NULL || sr == NULL || lab == NULL) {
+    free(lx);
+    free(sr);
+    free(lab);
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  /* markers only: a study has a few Reynolds numbers, and a figure undetermined at one of them
+   * must not hide its neighbours (a line needs two finite points in a row) */
+  for (size_t k = 0; k < ns; k++) {
+    double *x = lx + k * nre;
+    for (size_t i = 0; i < s[k].n; i++) x[i] = s[k].re[i] > 0.0 ? log10(s[k].re[i]) : NAN;
+    const double *ys[5] = {s[k].cd_min, s[k].ld_max, s[k].cl_max, s[k].alpha0, s[k].slope};
+    for (int f = 0; f < 5; f++) {
+      sr[f * MAXS + k] = (plot_series){f == 0 ? s[k].label : NULL, s[k].n, x, ys[f], 1};
+    }
+    snprintf(lab[2 * k], sizeof lab[0], "separation, %s", s[k].label);
+    snprintf(lab[2 * k + 1], sizeof lab[0], "reattachment, %s", s[k].label);
+    sr[5 * MAXS + 2 * k] = (plot_series){lab[2 * k], s[k].n, x, s[k].x_sep, 1};
+    sr[5 * MAXS + 2 * k + 1] = (plot_series){lab[2 * k + 1], s[k].n, x, s[k].x_re, 1};
+  }
+  char t0[200], t5[96], base[4200];
+  snprintf(t0, sizeof t0, "smallest drag, %s", section);
+  snprintf(t5, sizeof t5, "upper-surface bubble at c#dl#u = %.3g", bubble_cl);
+  snprintf(base, sizeof base, "%s/polar-re", dir);
+  plot_panel pan[6] = {
+    {t0, "Reynolds number", "smallest c#dd#u", sr, ns},
+    {"best lift-to-drag ratio", "Reynolds number", "largest L/D", sr + MAXS, ns},
+    {"maximum lift", "Reynolds number", "c#dl,max#u", sr + 2 * MAXS, ns},
+    {"zero-lift angle", "Reynolds number", "#ga#d0#u (deg)", sr + 3 * MAXS, ns},
+    {"lift slope near zero lift", "Reynolds number", "dc#dl#u/d#ga (1/deg)", sr + 4 * MAXS, ns},
+    {t5, "Reynolds number", "x/c", sr + 5 * MAXS, 2 * ns}};
+  static const int logx[6] = {1, 1, 1, 1, 1, 1};
+  int rc = plot_figure_logx(base, "Reynolds-number study", 2, 3, pan, 6, logx);
+  free(lx);
+  free(sr);
+  free(lab);
+  return rc;
+}

@@ -16,6 +16,18 @@ typedef struct fig_polar {
   double *alpha, *cl, *cd, *cm;
 } fig_polar;
 
+/* The Reynolds-number study of one section (one series per Mach number, nre Reynolds numbers
+ * each; NaN where a figure is undetermined): DIR/polar-re.svg and .png, six panels against Re
+ * on a decade axis: smallest cd, largest L/D, cl_max, zero-lift angle, lift slope, and the
+ * upper-surface laminar separation and reattachment at bubble_cl. */
+typedef struct fig_re_series {
+  char label[48];
+  size_t n;
+  const double *re, *cd_min, *ld_max, *cl_max, *alpha0, *slope, *x_sep, *x_re;
+} fig_re_series;
+int fig_re_study(const char *dir, const char *section, double bubble_cl, const fig_re_series *s,
+                 size_t ns);
+
 /* Polars of one section: DIR/polar.svg and .png (cl-alpha, drag polar, cm-alpha, L/D). */
 int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t np);
 

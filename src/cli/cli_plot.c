@@ -95,18 +95,24 @@ static PLINT legend_corner(const plot_panel *p, int nleg, double x0, double x1, 
   return where;
 }
 
-static void draw_panel(const plot_panel *p)
+static void draw_panel(const plot_panel *p, int logx)
 {
   double x0, x1, y0, y1;
   data_range(p, &x0, &x1, &y0, &y1);
+  if (logx) {
+    /* whole decades, so that the axis has at least two labelled ticks */
+    x0 = floor(x0 + 0.02);
+    x1 = ceil(x1 - 0.02);
+    if (x1 <= x0) x1 = x0 + 1.0;
+  }
   plvsta();
   plwind(x0, x1, y0, y1);
   plcol0(15);
   plwidth(0.5);
-  plbox("g", 0.0, 0, "g", 0.0, 0);
+  plbox(logx ? "gl" : "g", 0.0, 0, "g", 0.0, 0);
   plcol0(1);
   plwidth(1.0);
-  plbox("bcnst", 0.0, 0, "bcnstv", 0.0, 0);
+  plbox(logx ? "bcnstl" : "bcnst", 0.0, 0, "bcnstv", 0.0, 0);
   pllab(p->xlabel, p->ylabel, p->title);
   PLINT opt[16], tcol[16], lcol[16], lsty[16], mcol[16], mnum[16];
   PLFLT lw[16], msc[16];
@@ -159,7 +165,7 @@ static void draw_panel(const plot_panel *p)
 }
 
 static int render(const char *dev, const char *path, const char *title, int nx, int ny,
-                  const plot_panel *panels, size_t n_panels)
+                  const plot_panel *panels, size_t n_panels, const int *logx)
 {
   PLINT strm, old;
   plgstrm(&old);
@@ -176,7 +182,7 @@ static int render(const char *dev, const char *path, const char *title, int nx, 
   plschr(0.0, 0.85);
   for (size_t i = 0; i < n_panels; i++) {
     pladv((PLINT)i + 1);
-    draw_panel(&panels[i]);
+    draw_panel(&panels[i], logx != NULL && logx[i]);
   }
   if (title != NULL) {
     pladv(1);
@@ -196,6 +202,12 @@ static int render(const char *dev, const char *path, const char *title, int nx, 
 
 int plot_figure(const char *base, const char *title, int nx, int ny, const plot_panel *panels,
                 size_t n_panels)
+{
+  return plot_figure_logx(base, title, nx, ny, panels, n_panels, NULL);
+}
+
+int plot_figure_logx(const char *base, const char *title, int nx, int ny,
+                     const plot_panel *panels, size_t n_panels, const int *logx)
 {
   static const char *const dev[2] = {"svgcairo", "pngcairo"};
   static const char *const ext[2] = {"svg", "png"};
@@ -217,7 +229,7 @@ int plot_figure(const char *base, const char *title, int nx, int ny, const plot_
     fchmod(fd, 0666 & ~um);
     close(fd);
     cli_temp_begin(tmp);
-    if (render(dev[k], tmp, title, nx, ny, panels, n_panels) != 0) {
+    if (render(dev[k], tmp, title, nx, ny, panels, n_panels, logx) != 0) {
       remove(tmp);
       cli_temp_end();
       return 1;

@@ -25,4 +25,9 @@ typedef struct plot_panel {
 int plot_figure(const char *base, const char *title, int nx, int ny, const plot_panel *panels,
                 size_t n_panels);
 
+/* The same with a decade x axis (10^n ticks) on the panels whose logx entry is 1: their x values
+ * are log10 of the quantity. */
+int plot_figure_logx(const char *base, const char *title, int nx, int ny,
+                     const plot_panel *panels, size_t n_panels, const int *logx);
+
 #endif

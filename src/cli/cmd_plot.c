@@ -19,7 +19,7 @@ static void plot_help(FILE *fp)
   fputs("usage: airscrew plot RESULT.json|RESULT.csv --out DIR [--model NAME] [--force]\n"
         "\n"
         "Draw the figures of a result saved with --json or --csv by 'airscrew polar' (polars:\n"
-        "DIR/polar) or 'airscrew rotor' (CT, CP, efficiency, thrust and power: DIR/rotor;\n"
+        "DIR/polar; from JSON with several Re also the Reynolds-number study, DIR/polar-re) or 'airscrew rotor' (CT, CP, efficiency, thrust and power: DIR/rotor;\n"
         "spanwise loading: DIR/rotor-spanwise, from JSON with --stations), as SVG and PNG.\n"
         "Files ending in .csv are read as CSV, others as JSON. Unconverged points (null in\n"
         "JSON, converged=false or empty in CSV) are left out. A rotor CSV with a model column\n"
@@ -55,6 +55,100 @@ static int jnums(const char *file, const char *where, size_t i, json_t *o, const
     *out[k] = json_is_number(v) ? json_number_value(v) : NAN;
   }
   return 0;
+}
+
+/* The Reynolds-number study of a polar result (its "re_summary", issue 12): DIR/polar-re, one
+ * series per Mach number, drawn where the result holds at least two Reynolds numbers. */
+static int plot_re_summary(const char *file, json_t *root, const char *dir)
+{
+  enum { MAXM = 8 };
+  json_t *rs = json_object_get(root, "re_summary");
+  size_t n = json_array_size(rs);
+  if (n < 2) return 0;
+  if (n > 4096) {
+    cli_error("%s: re_summary: too many entries", file);
+    return CLI_EXIT_INPUT;
+  }
+  double *v = calloc(11 * n, sizeof *v);
+  double *b = calloc(8 * n, sizeof *b);
+  fig_re_series *fs = calloc(MAXM, sizeof *fs);
+  if (v == NULL || b == NULL || fs == NULL) {
+    free(v);
+    free(b);
+    free(fs);
+    return CLI_EXIT_INTERNAL;
+  }
+  static const char *const keys[7] = {"re", "mach", "cd_min", "ld_max", "cl_max",
+                                      "alpha_zero_lift_deg", "lift_slope_per_deg"};
+  static const char *const bkeys[3] = {"cl", "x_separation_upper", "x_reattach_upper"};
+  int rc = 0;
+  for (size_t i = 0; i < n && rc == 0; i++) {
+    json_t *o = json_array_get(rs, i);
+    double *row = v + 11 * i;
+    double *out[7] = {row, row + 1, row + 2, row + 3, row + 4, row + 5, row + 6};
+    rc = jnums(file, "re_summary", i, o, keys, out, 7);
+    if (rc != 0) break;
+    json_t *bo = json_object_get(o, "bubble");
+    double *bout[3] = {row + 7, row + 8, row + 9};
+    if (bo != NULL) {
+      char where[40];
+      snprintf(where, sizeof where, "re_summary[%zu].bubble", i);
+      rc = jnums(file, where, 0, bo, bkeys, bout, 3);
+      json_t *st = json_object_get(bo, "status");
+      row[10] = json_is_string(st) && strcmp(json_string_value(st), "closed") == 0;
+    } else {
+      row[7] = row[8] = row[9] = NAN;
+      row[10] = 0.0;
+    }
+  }
+  /* group by Mach number, in the order met */
+  double machs[MAXM];
+  size_t nm = 0, used = 0, distinct_re = 0;
+  for (size_t i = 0; i < n && rc == 0; i++) {
+    double m = v[11 * i + 1];
+    size_t k = 0;
+    while (k < nm && !(machs[k] == m || (isnan(machs[k]) && isnan(m)))) k++;
+    if (k == nm && nm < MAXM) machs[nm++] = m;
+  }
+  for (size_t k = 0; k < nm && rc == 0; k++) {
+    fig_re_series *f = &fs[k];
+    double *c = b + used;
+    size_t cnt = 0;
+    for (size_t i = 0; i < n; i++) {
+      double m = v[11 * i + 1];
+      if (!(m == machs[k] || (isnan(m) && isnan(machs[k])))) continue;
+      cnt++;
+    }
+    for (size_t i = 0, j = 0; i < n; i++) {
+      const double *row = v + 11 * i;
+      if (!(row[1] == machs[k] || (isnan(row[1]) && isnan(machs[k])))) continue;
+      c[j] = row[0];
+      for (int q = 0; q < 5; q++) c[(size_t)(q + 1) * cnt + j] = row[2 + q];
+      c[6 * cnt + j] = row[8];
+      c[7 * cnt + j] = row[10] > 0.0 ? row[9] : NAN;
+      j++;
+    }
+    snprintf(f->label, sizeof f->label, "Mach %.2g", machs[k]);
+    f->n = cnt;
+    f->re = c;
+    f->cd_min = c + cnt;
+    f->ld_max = c + 2 * cnt;
+    f->cl_max = c + 3 * cnt;
+    f->alpha0 = c + 4 * cnt;
+    f->slope = c + 5 * cnt;
+    f->x_sep = c + 6 * cnt;
+    f->x_re = c + 7 * cnt;
+    used += 8 * cnt;
+    distinct_re = cnt > distinct_re ? cnt : distinct_re;
+  }
+  if (rc == 0 && distinct_re >= 2) {
+    json_t *sec = json_object_get(root, "section");
+    rc = fig_re_study(dir, json_is_string(sec) ? json_string_value(sec) : file, v[7], fs, nm);
+  }
+  free(v);
+  free(b);
+  free(fs);
+  return rc;
 }
 
 static int plot_polars(const char *file, json_t *root, const char *dir)
@@ -356,8 +450,10 @@ int cmd_plot(int argc, char **argv)
     }
   }
   if (json_is_array(json_object_get(root, "polars"))) {
-    rc = fig_prepare_dir(dir, (const char *const[]){"polar", NULL}, force);
+    int study = json_array_size(json_object_get(root, "re_summary")) >= 2;
+    rc = fig_prepare_dir(dir, (const char *const[]){"polar", study ? "polar-re" : NULL, NULL}, force);
     if (rc == 0) rc = plot_polars(file, root, dir);
+    if (rc == 0) rc = plot_re_summary(file, root, dir);
   } else if (json_is_array(json_object_get(root, "points")) && json_object_get(root, "blade") != NULL) {
     rc = fig_prepare_dir(dir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
     if (rc == 0) rc = plot_rotor(file, root, dir);

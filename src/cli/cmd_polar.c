@@ -22,7 +22,9 @@ static void polar_help(FILE *fp)
         "and continues outward from each converged point, then reaches every angle from\n"
         "the other side too: an angle with two converged states (hysteresis, a bubble\n"
         "that bursts) is flagged with both. Points that do not converge are kept and\n"
-        "flagged, never reported as results.\n"
+        "flagged, never reported as results. With several Reynolds numbers a summary per\n"
+        "Re follows (smallest cd, best L/D, cl_max, zero-lift angle, lift slope, the\n"
+        "upper-surface bubble at a chosen cl; also in --json as re_summary).\n"
         "\n"
         "options:\n"
         "  -r, --re LIST          chord Reynolds numbers, comma separated (1e3 .. 1e8)\n"
@@ -36,7 +38,11 @@ static void polar_help(FILE *fp)
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
         "      --plot DIR         also draw the polars (cl-alpha, drag polar, cm-alpha, L/D;\n"
-        "                         every Re and Mach on one figure) as DIR/polar.svg and .png\n"
+        "                         every Re and Mach on one figure) as DIR/polar.svg and .png,\n"
+        "                         and with several Re the Reynolds-number study as\n"
+        "                         DIR/polar-re.svg and .png\n"
+        "      --bubble-cl CL     lift coefficient at which the Reynolds-number summary\n"
+        "                         reports the upper-surface bubble (default 0.5)\n"
         "      --table FILE       also write the polars as a polar-table file (for rotor\n"
         "                         --polar-table; Mach 0 curves only)\n"
         "      --force            replace FILE if it exists\n"
@@ -66,12 +72,13 @@ int cmd_polar(int argc, char **argv)
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
+    {"bubble-cl", required_argument, NULL, 'Q'},
     {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
   double res[CLI_MAX_LIST], machs[CLI_MAX_LIST] = {0.0};
   size_t nre = 0, nmach = 1;
-  double a0 = NAN, a1 = NAN, da = NAN;
+  double a0 = NAN, a1 = NAN, da = NAN, bubble_cl = 0.5;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int json = 0, csv = 0, force = 0, c;
   const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
@@ -99,6 +106,9 @@ int cmd_polar(int argc, char **argv)
     case 'o': outpath = optarg; break;
     case 'B': tablepath = optarg; break;
     case 'P': plotdir = optarg; break;
+    case 'Q':
+      if (cli_parse_double("--bubble-cl", optarg, -2.0, 3.0, &bubble_cl)) return CLI_EXIT_USAGE;
+      break;
     case 'F': force = 1; break;
     case 'h': polar_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("polar: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -141,7 +151,8 @@ int cmd_polar(int argc, char **argv)
     if (prc) return prc;
   }
   if (plotdir != NULL) {
-    int prc = fig_prepare_dir(plotdir, (const char *const[]){"polar", NULL}, force);
+    int prc = fig_prepare_dir(plotdir, (const char *const[]){"polar", nre > 1 ? "polar-re" : NULL, NULL},
+                              force);
     if (prc) return prc;
   }
   cli_output out;
@@ -156,9 +167,11 @@ int cmd_polar(int argc, char **argv)
   size_t npts = ascr_polar_grid_size(a0, a1, da);
   ascr_polar_point *pts = calloc(npts * nre * nmach, sizeof *pts);
   ascr_polar_summary *sums = calloc(nre * nmach, sizeof *sums);
-  if (pts == NULL || sums == NULL) {
+  ascr_polar_re_summary *rsum = calloc(nre * nmach, sizeof *rsum);
+  if (pts == NULL || sums == NULL || rsum == NULL) {
     free(pts);
     free(sums);
+    free(rsum);
     cli_analysis_close(&an);
     cli_output_discard(&out);
     cli_error("out of memory");
@@ -186,6 +199,7 @@ int cmd_polar(int argc, char **argv)
         break;
       }
       total_conv += sums[k].n_converged;
+      ascr_polar_re_summary_compute(pts + k * npts, npts, bubble_cl, &rsum[k], NULL);
       if (sums[k].n_converged < sums[k].n_points) {
         cli_warn("Re %.4g Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
                  res[ir], machs[im], sums[k].n_points - sums[k].n_converged, sums[k].n_points);
@@ -295,6 +309,36 @@ int cmd_polar(int argc, char **argv)
       }
     }
     json_object_set_new(o, "polars", pl);
+    json_t *ra = json_array();
+    for (size_t im = 0; im < nmach; im++) {
+      for (size_t ir = 0; ir < nre; ir++) {
+        const ascr_polar_re_summary *q = &rsum[im * nre + ir];
+        json_t *ro = json_object();
+        json_object_set_new(ro, "re", json_real(res[ir]));
+        json_object_set_new(ro, "mach", json_real(machs[im]));
+        json_object_set_new(ro, "converged_points", json_integer((json_int_t)q->n_converged));
+        json_object_set_new(ro, "cd_min", cli_json_num(1, q->cd_min));
+        json_object_set_new(ro, "cl_at_cd_min", cli_json_num(1, q->cl_at_cd_min));
+        json_object_set_new(ro, "alpha_at_cd_min_deg", cli_json_num(1, q->alpha_at_cd_min_deg));
+        json_object_set_new(ro, "ld_max", cli_json_num(1, q->ld_max));
+        json_object_set_new(ro, "cl_at_ld_max", cli_json_num(1, q->cl_at_ld_max));
+        json_object_set_new(ro, "alpha_at_ld_max_deg", cli_json_num(1, q->alpha_at_ld_max_deg));
+        json_object_set_new(ro, "cl_max", cli_json_num(1, q->cl_max));
+        json_object_set_new(ro, "alpha_cl_max_deg", cli_json_num(1, q->alpha_cl_max_deg));
+        json_object_set_new(ro, "alpha_zero_lift_deg", cli_json_num(1, q->alpha_zero_lift_deg));
+        json_object_set_new(ro, "lift_slope_per_deg", cli_json_num(1, q->lift_slope_per_deg));
+        json_t *bo = json_object();
+        json_object_set_new(bo, "cl", json_real(q->bubble_cl));
+        json_object_set_new(bo, "status", json_string(q->bubble_status > 0 ? "closed" :
+                                                      q->bubble_status == 0 ? "not closed" :
+                                                      "cl not reached"));
+        json_object_set_new(bo, "x_separation_upper", cli_json_num(1, q->x_separation_upper));
+        json_object_set_new(bo, "x_reattach_upper", cli_json_num(1, q->x_reattach_upper));
+        json_object_set_new(ro, "bubble", bo);
+        json_array_append_new(ra, ro);
+      }
+    }
+    json_object_set_new(o, "re_summary", ra);
     json_object_set_new(o, "note", json_string(CLI_ESTIMATE_NOTE));
     json_dumpf(o, fp, JSON_REAL_PRECISION(10) | JSON_COMPACT);
     fputc('\n', fp);
@@ -356,6 +400,38 @@ int cmd_polar(int argc, char **argv)
         }
       }
     }
+    if (nre > 1) {
+      for (size_t im = 0; im < nmach; im++) {
+        fprintf(fp, "\nReynolds-number summary, Mach %.3g (upper-surface bubble at cl %.3g)\n",
+                machs[im], bubble_cl);
+        fprintf(fp, "%10s %9s %7s %7s %7s %7s %7s %8s %9s %15s\n", "Re", "cd_min", "at cl",
+                "L/D max", "at cl", "cl_max", "at deg", "alpha_0", "slope/deg", "bubble x/c");
+        for (size_t ir = 0; ir < nre; ir++) {
+          const ascr_polar_re_summary *q = &rsum[im * nre + ir];
+          char f[9][16], bub[32];
+          const double vals[9] = {q->cd_min, q->cl_at_cd_min, q->ld_max, q->cl_at_ld_max,
+                                  q->cl_max, q->alpha_cl_max_deg, q->alpha_zero_lift_deg,
+                                  q->lift_slope_per_deg, 0.0};
+          static const char *const fmts[9] = {"%.5f", "%.3f", "%.1f", "%.3f", "%.3f", "%.2f",
+                                              "%.2f", "%.4f", ""};
+          for (int j = 0; j < 8; j++) {
+            if (isfinite(vals[j])) snprintf(f[j], sizeof f[j], fmts[j], vals[j]);
+            else snprintf(f[j], sizeof f[j], "-");
+          }
+          if (q->bubble_status > 0) {
+            snprintf(bub, sizeof bub, "%.3f-%.3f", q->x_separation_upper, q->x_reattach_upper);
+          } else if (q->bubble_status == 0 && isfinite(q->x_separation_upper)) {
+            snprintf(bub, sizeof bub, "open from %.3f", q->x_separation_upper);
+          } else {
+            snprintf(bub, sizeof bub, q->bubble_status == 0 ? "none" : "cl not reached");
+          }
+          fprintf(fp, "%10.4g %9s %7s %7s %7s %7s %7s %8s %9s %15s\n", res[ir], f[0], f[1], f[2],
+                  f[3], f[4], f[5], f[6], f[7], bub);
+        }
+      }
+      fputs("(cd_min, L/D max: the grid point; cl_max: the first peak of the lift curve; slope: "
+            "fitted\nwithin alpha_0 -2 .. +4 deg; '-': not determined by the converged points)\n", fp);
+    }
     fprintf(fp, "\nnote: %s\n", CLI_ESTIMATE_NOTE);
   }
   if (plotdir != NULL) {
@@ -388,15 +464,54 @@ int cmd_polar(int argc, char **argv)
     free(fp2);
     free(buf);
     if (rc != 0) goto fail;
+    if (nre > 1) {
+      fig_re_series *fs = calloc(nmach, sizeof *fs);
+      double *rb = calloc(8 * nk, sizeof *rb);
+      if (fs == NULL || rb == NULL) {
+        cli_error("out of memory");
+        rc = CLI_EXIT_INTERNAL;
+      }
+      for (size_t im = 0; rc == 0 && im < nmach; im++) {
+        double *b = rb + 8 * nre * im;
+        for (size_t ir = 0; ir < nre; ir++) {
+          const ascr_polar_re_summary *q = &rsum[im * nre + ir];
+          b[ir] = res[ir];
+          b[nre + ir] = q->cd_min;
+          b[2 * nre + ir] = q->ld_max;
+          b[3 * nre + ir] = q->cl_max;
+          b[4 * nre + ir] = q->alpha_zero_lift_deg;
+          b[5 * nre + ir] = q->lift_slope_per_deg;
+          b[6 * nre + ir] = q->x_separation_upper;
+          b[7 * nre + ir] = q->bubble_status > 0 ? q->x_reattach_upper : NAN;
+        }
+        fig_re_series *f = &fs[im];
+        snprintf(f->label, sizeof f->label, "Mach %.2g", machs[im]);
+        f->n = nre;
+        f->re = b;
+        f->cd_min = b + nre;
+        f->ld_max = b + 2 * nre;
+        f->cl_max = b + 3 * nre;
+        f->alpha0 = b + 4 * nre;
+        f->slope = b + 5 * nre;
+        f->x_sep = b + 6 * nre;
+        f->x_re = b + 7 * nre;
+      }
+      if (rc == 0) rc = fig_re_study(plotdir, name, bubble_cl, fs, nmach);
+      free(fs);
+      free(rb);
+      if (rc != 0) goto fail;
+    }
   }
   free(pts);
   free(sums);
+  free(rsum);
   cli_analysis_close(&an);
   return cli_output_commit(&out);
 
 fail: /* an error was printed: nothing is written */
   free(pts);
   free(sums);
+  free(rsum);
   cli_analysis_close(&an);
   cli_output_discard(&out);
   return rc;

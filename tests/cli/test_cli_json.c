@@ -248,6 +248,30 @@ static void test_cli_polar_json_contract(void **state)
       for (size_t m = 0; m < 6; m++) (void)num(q, keys[m]);
     }
   }
+  /* the Reynolds-number summary (issue 12): one object per Re, its figures those of the points
+   * printed beside it (smallest cd, largest cl/cd, cl_max of a lift curve rising to the end) */
+  json_t *rs = json_object_get(j, "re_summary");
+  assert_true(json_is_array(rs));
+  assert_int_equal(json_array_size(rs), 2);
+  for (size_t k = 0; k < 2; k++) {
+    json_t *o = json_array_get(rs, k), *pts = json_object_get(json_array_get(pl, k), "points");
+    ascr_assert_close(num(o, "re"), res[k], 1e-12, 0, "re_summary re");
+    double cdmin = INFINITY, ldmax = 0.0, clmax = -INFINITY;
+    for (size_t i = 0; i < json_array_size(pts); i++) {
+      json_t *q = json_array_get(pts, i);
+      cdmin = fmin(cdmin, num(q, "cd"));
+      ldmax = fmax(ldmax, num(q, "cl") / num(q, "cd"));
+      clmax = fmax(clmax, num(q, "cl"));
+    }
+    ascr_assert_close(num(o, "cd_min"), cdmin, 1e-9, 0, "cd_min");
+    ascr_assert_close(num(o, "ld_max"), ldmax, 1e-9, 0, "ld_max");
+    ascr_assert_close(num(o, "cl_max"), clmax, 1e-9, 0, "cl_max");
+    ascr_assert_close(num(o, "alpha_cl_max_deg"), 4.0, 0, 1e-12, "alpha_cl_max_deg");
+    json_t *b = json_object_get(o, "bubble");
+    assert_true(json_is_object(b));
+    ascr_assert_close(num(b, "cl"), 0.5, 0, 0, "bubble cl");
+    assert_true(json_is_string(json_object_get(b, "status")));
+  }
   json_decref(j);
 }
 
