@@ -101,6 +101,23 @@ ASCR_EXPORT ascr_status ascr_polar_re_summary_compute(const ascr_polar_point *pt
                                                       ascr_polar_re_summary *out,
                                                       ascr_errbuf *err);
 
+/** The band one polar point spans over several sweeps of the same angle grid that differ in
+ *  one input (issue 12: the critical amplification exponent N_crit over a range, the transition
+ *  uncertainty): the least and largest cl, cd, cm and cl/cd over the sweeps whose point
+ *  converged (a second state of a bistable point is not counted: it is hysteresis, not the
+ *  input's effect). NaN where no sweep converged. */
+typedef struct ascr_polar_band {
+  double cl_lo, cl_hi, cd_lo, cd_hi, cm_lo, cm_hi, ld_lo, ld_hi;
+  size_t n_runs;      /* sweeps given */
+  size_t n_converged; /* of which converged at this angle: the band is complete if equal */
+} ascr_polar_band;
+
+/** Bands of npts points over nruns sweeps (runs[r] holds npts points on the same grid).
+ *  @return ASCR_OK; ASCR_EINVAL for NULL arguments, no run, or grids that differ. */
+ASCR_EXPORT ascr_status ascr_polar_band_compute(const ascr_polar_point *const *runs,
+                                                size_t nruns, size_t npts,
+                                                ascr_polar_band *out, ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

@@ -42,6 +42,8 @@ int cli_exit_for(ascr_status st);
 int cli_parse_number(const char *text, double *out);
 int cli_parse_double(const char *opt, const char *text, double lo, double hi, double *out);
 int cli_parse_size(const char *opt, const char *text, size_t lo, size_t hi, size_t *out);
+/* LO:HI, both within [lo, hi], HI > LO. Returns 0, or 1 with a message printed. */
+int cli_parse_pair(const char *opt, const char *text, double lo, double hi, double *a, double *b);
 
 /* Load a section named on the command line: an existing file path, else a generator spec.
  * On failure prints the error and returns the exit code; 0 on success. info may be NULL;

@@ -598,3 +598,21 @@ json_t *cli_json_num(int ok, double v)
 {
   return ok && isfinite(v) ? json_real(v) : json_null();
 }
+
+int cli_parse_pair(const char *opt, const char *text, double lo, double hi, double *a, double *b)
+{
+  char buf[128];
+  const char *c = strchr(text, ':');
+  if (c == NULL || strlen(text) >= sizeof buf) {
+    cli_error("%s: '%s' is not LO:HI", opt, text);
+    return 1;
+  }
+  memcpy(buf, text, (size_t)(c - text));
+  buf[c - text] = '\0';
+  if (cli_parse_double(opt, buf, lo, hi, a) || cli_parse_double(opt, c + 1, lo, hi, b)) return 1;
+  if (!(*b > *a)) {
+    cli_error("%s: HI %g must exceed LO %g", opt, *b, *a);
+    return 1;
+  }
+  return 0;
+}

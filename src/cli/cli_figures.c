@@ -53,12 +53,12 @@ int fig_prepare_dir(const char *dir, const char *const *names, int force)
 int fig_polar_set(const char *base, const char *title, const fig_polar *p, size_t np)
 {
   fig_polar_work w;
-  w.sr = calloc(4 * np + 1, sizeof *w.sr);
+  w.sr = calloc(8 * np + 1, sizeof *w.sr);
   w.ld = calloc(np + 1, sizeof *w.ld);
   w.label = calloc(np + 1, sizeof *w.label);
   int rc = w.sr == NULL || w.ld == NULL || w.label == NULL;
   for (size_t k = 0; rc == 0 && k < np; k++) {
-    w.ld[k] = calloc(p[k].n + 1, sizeof **w.ld);
+    w.ld[k] = calloc((p[k].cl_lo != NULL ? 17 : 1) * p[k].n + 1, sizeof **w.ld);
     if (w.ld[k] == NULL) rc = 1;
   }
   if (rc == 0) {

@@ -14,6 +14,9 @@ typedef struct fig_polar {
   char label[96];
   size_t n;
   double *alpha, *cl, *cd, *cm;
+  /* optional band (all NULL: none), e.g. over an N_crit range: the least and largest cl, cd,
+   * cm and cl/cd at each angle, NaN where undetermined; drawn shaded under the curve */
+  double *cl_lo, *cl_hi, *cd_lo, *cd_hi, *cm_lo, *cm_hi, *ld_lo, *ld_hi;
 } fig_polar;
 
 /* The Reynolds-number study of one section (one series per Mach number, nre Reynolds numbers
@@ -34,8 +37,9 @@ int fig_polars(const char *dir, const char *section, const fig_polar *p, size_t 
 /* The same figure at BASE.svg and BASE.png with the first panel titled title. */
 int fig_polar_set(const char *base, const char *title, const fig_polar *p, size_t np);
 
-/* Scratch of fig_polar_panels for np polars: sr 4 np series, ld np arrays of each polar's
- * length, label np legend texts. */
+/* Scratch of fig_polar_panels for np polars: sr 8 np series, ld np arrays of each polar's
+ * length (17 times it for a polar with a band: the band outlines follow), label np legend
+ * texts. */
 typedef struct fig_polar_work {
   plot_series *sr;
   double **ld;

@@ -95,6 +95,47 @@ static PLINT legend_corner(const plot_panel *p, int nleg, double x0, double x1, 
   return where;
 }
 
+/* A shaded band (plot_series marker 2) in a translucent version of palette colour pc. */
+static void draw_band(const plot_series *q, int pc)
+{
+  size_t m = q->n / 2;
+  PLFLT *px = malloc((2 * m + 1) * sizeof *px), *py = malloc((2 * m + 1) * sizeof *py);
+  if (px == NULL || py == NULL) {
+    free(px);
+    free(py);
+    return;
+  }
+  plscol0a(14, palette[pc][0], palette[pc][1], palette[pc][2], 0.22);
+  plcol0(14);
+  size_t i = 0;
+  while (i < m) {
+    while (i < m && !(isfinite(q->x[i]) && isfinite(q->y[i]) && isfinite(q->x[m + i]) &&
+                      isfinite(q->y[m + i]))) {
+      i++;
+    }
+    size_t j = i;
+    while (j < m && isfinite(q->x[j]) && isfinite(q->y[j]) && isfinite(q->x[m + j]) &&
+           isfinite(q->y[m + j])) {
+      j++;
+    }
+    if (j >= i + 2) {
+      size_t k = 0;
+      for (size_t t = i; t < j; t++, k++) {
+        px[k] = q->x[t];
+        py[k] = q->y[t];
+      }
+      for (size_t t = j; t-- > i; k++) {
+        px[k] = q->x[m + t];
+        py[k] = q->y[m + t];
+      }
+      plfill((PLINT)k, px, py);
+    }
+    i = j;
+  }
+  free(px);
+  free(py);
+}
+
 static void draw_panel(const plot_panel *p, int logx)
 {
   double x0, x1, y0, y1;
@@ -118,9 +159,15 @@ static void draw_panel(const plot_panel *p, int logx)
   PLFLT lw[16], msc[16];
   const char *txt[16], *msym[16];
   int nleg = 0;
+  int ci = 0; /* colours count the curves; a band takes the colour of the curve after it */
   for (size_t s = 0; s < p->n_series; s++) {
     const plot_series *q = &p->series[s];
-    int c = 2 + (int)(s % 8);
+    int c = 2 + ci % 8;
+    if (q->marker == 2) {
+      draw_band(q, ci % 8);
+      continue;
+    }
+    ci++;
     plcol0(c);
     plwidth(1.6);
     if (q->marker) {

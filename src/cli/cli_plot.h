@@ -11,7 +11,10 @@ typedef struct plot_series {
   const char *label;      /* legend text (NULL: not in the legend) */
   size_t n;
   const double *x, *y;    /* non-finite points break the line */
-  int marker;             /* 1: draw points as markers, not a line */
+  int marker;             /* 1: draw points as markers, not a line; 2: a shaded band in the colour
+                             of the series that follows it: n = 2 m, the first m points its lower
+                             (or left) edge, the next m its upper edge, both in the same order;
+                             a point where either edge is not finite breaks the band */
 } plot_series;
 
 typedef struct plot_panel {

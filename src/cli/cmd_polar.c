@@ -31,6 +31,8 @@ static void polar_help(FILE *fp)
         "  -a, --alpha A:B:STEP   angle range and step, degrees (e.g. -4:12:0.5)\n"
         "  -m, --mach LIST        free-stream Mach numbers, comma separated (0 .. 0.7; default 0)\n"
         "      --ncrit N          critical amplification exponent (default 9)\n"
+        "      --ncrit-range LO:HI  also sweep at N_crit LO and HI and report the band each\n"
+        "                         point spans over the three (transition uncertainty)\n"
         "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
@@ -72,13 +74,13 @@ int cmd_polar(int argc, char **argv)
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
-    {"bubble-cl", required_argument, NULL, 'Q'},
+    {"bubble-cl", required_argument, NULL, 'Q'}, {"ncrit-range", required_argument, NULL, 'G'},
     {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
   double res[CLI_MAX_LIST], machs[CLI_MAX_LIST] = {0.0};
   size_t nre = 0, nmach = 1;
-  double a0 = NAN, a1 = NAN, da = NAN, bubble_cl = 0.5;
+  double a0 = NAN, a1 = NAN, da = NAN, bubble_cl = 0.5, nc_lo = NAN, nc_hi = NAN;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
   int json = 0, csv = 0, force = 0, c;
   const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
@@ -106,6 +108,9 @@ int cmd_polar(int argc, char **argv)
     case 'o': outpath = optarg; break;
     case 'B': tablepath = optarg; break;
     case 'P': plotdir = optarg; break;
+    case 'G':
+      if (cli_parse_pair("--ncrit-range", optarg, 0.5, 20.0, &nc_lo, &nc_hi)) return CLI_EXIT_USAGE;
+      break;
     case 'Q':
       if (cli_parse_double("--bubble-cl", optarg, -2.0, 3.0, &bubble_cl)) return CLI_EXIT_USAGE;
       break;
@@ -168,10 +173,16 @@ int cmd_polar(int argc, char **argv)
   ascr_polar_point *pts = calloc(npts * nre * nmach, sizeof *pts);
   ascr_polar_summary *sums = calloc(nre * nmach, sizeof *sums);
   ascr_polar_re_summary *rsum = calloc(nre * nmach, sizeof *rsum);
-  if (pts == NULL || sums == NULL || rsum == NULL) {
+  /* the transition band: sweeps at the two ends of the N_crit range beside the nominal one */
+  int banded = !isnan(nc_lo);
+  ascr_polar_point *pts_end = banded ? calloc(2 * npts * nre * nmach, sizeof *pts_end) : NULL;
+  ascr_polar_band *bands = banded ? calloc(npts * nre * nmach, sizeof *bands) : NULL;
+  if (pts == NULL || sums == NULL || rsum == NULL || (banded && (pts_end == NULL || bands == NULL))) {
     free(pts);
     free(sums);
     free(rsum);
+    free(pts_end);
+    free(bands);
     cli_analysis_close(&an);
     cli_output_discard(&out);
     cli_error("out of memory");
@@ -200,6 +211,25 @@ int cmd_polar(int argc, char **argv)
       }
       total_conv += sums[k].n_converged;
       ascr_polar_re_summary_compute(pts + k * npts, npts, bubble_cl, &rsum[k], NULL);
+      for (int e = 0; banded && e < 2 && rc == 0; e++) {
+        ascr_visc_params ve = vp;
+        ve.ncrit = e == 0 ? nc_lo : nc_hi;
+        ascr_polar_summary se;
+        ascr_polar_point *pe = pts_end + (2 * k + (size_t)e) * npts;
+        st = ascr_visc_solver_set(an.visc, an.panel, &ve, &err);
+        if (st == ASCR_OK) {
+          st = ascr_polar_sweep(an.visc, a0, a1, da, pe, &se, tty ? progress : NULL, &pc, &err);
+        }
+        if (st != ASCR_OK) {
+          cli_error("%s", err.msg);
+          rc = cli_exit_for(st);
+        }
+      }
+      if (banded && rc == 0) {
+        const ascr_polar_point *runs[3] = {pts + k * npts, pts_end + 2 * k * npts,
+                                           pts_end + (2 * k + 1) * npts};
+        ascr_polar_band_compute(runs, 3, npts, bands + k * npts, NULL);
+      }
       if (sums[k].n_converged < sums[k].n_points) {
         cli_warn("Re %.4g Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
                  res[ir], machs[im], sums[k].n_points - sums[k].n_converged, sums[k].n_points);
@@ -274,6 +304,12 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "re", json_real(res[ir]));
         json_object_set_new(po, "mach", json_real(machs[im]));
         json_object_set_new(po, "ncrit", json_real(vp.ncrit));
+        if (banded) {
+          json_t *nr = json_array();
+          json_array_append_new(nr, json_real(nc_lo));
+          json_array_append_new(nr, json_real(nc_hi));
+          json_object_set_new(po, "ncrit_range", nr);
+        }
         json_object_set_new(po, "trip_upper", vp.trip_upper <= 1.0 ? json_real(vp.trip_upper) : json_null());
         json_object_set_new(po, "trip_lower", vp.trip_lower <= 1.0 ? json_real(vp.trip_lower) : json_null());
         json_object_set_new(po, "converged_points", json_integer((json_int_t)sums[k].n_converged));
@@ -295,6 +331,21 @@ int cmd_polar(int argc, char **argv)
           json_object_set_new(pt, "converged", json_boolean(ok));
           json_object_set_new(pt, "iterations", json_integer(q->iterations));
           json_object_set_new(pt, "bistable", json_boolean(ok && q->bistable));
+          if (banded) {
+            const ascr_polar_band *bq = &bands[k * npts + i];
+            json_t *cb = json_array(), *db = json_array(), *mb = json_array();
+            int has = bq->n_converged > 0;
+            json_array_append_new(cb, cli_json_num(has, bq->cl_lo));
+            json_array_append_new(cb, cli_json_num(has, bq->cl_hi));
+            json_array_append_new(db, cli_json_num(has, bq->cd_lo));
+            json_array_append_new(db, cli_json_num(has, bq->cd_hi));
+            json_array_append_new(mb, cli_json_num(has, bq->cm_lo));
+            json_array_append_new(mb, cli_json_num(has, bq->cm_hi));
+            json_object_set_new(pt, "cl_band", cb);
+            json_object_set_new(pt, "cd_band", db);
+            json_object_set_new(pt, "cm_band", mb);
+            json_object_set_new(pt, "band_complete", json_boolean(bq->n_converged == bq->n_runs));
+          }
           if (ok && q->bistable) {
             json_t *os = json_object();
             json_object_set_new(os, "cl", json_real(q->other_cl));
@@ -346,7 +397,9 @@ int cmd_polar(int argc, char **argv)
   } else if (csv) {
     fprintf(fp, "# section: %s\n# note: %s\n", name, CLI_ESTIMATE_NOTE);
     fputs("re,mach,ncrit,alpha_deg,cl,cd,cdf,cdp,cm,x_transition_upper,x_transition_lower,converged,"
-          "bistable\n", fp);
+          "bistable", fp);
+    if (banded) fputs(",ncrit_lo,ncrit_hi,cl_lo,cl_hi,cd_lo,cd_hi,band_complete", fp);
+    fputc('\n', fp);
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
@@ -359,24 +412,39 @@ int cmd_polar(int argc, char **argv)
             if (isfinite(q->x_transition_upper)) fprintf(fp, "%.5f", q->x_transition_upper);
             fputc(',', fp);
             if (isfinite(q->x_transition_lower)) fprintf(fp, "%.5f", q->x_transition_lower);
-            fputs(q->bistable ? ",true,true\n" : ",true,false\n", fp);
+            fputs(q->bistable ? ",true,true" : ",true,false", fp);
           } else {
-            fputs(",,,,,,,false,false\n", fp);
+            fputs(",,,,,,,false,false", fp);
           }
+          if (banded) {
+            const ascr_polar_band *bq = &bands[k * npts + i];
+            fprintf(fp, ",%.4g,%.4g,", nc_lo, nc_hi);
+            if (bq->n_converged > 0) {
+              fprintf(fp, "%.6f,%.6f,%.6f,%.6f", bq->cl_lo, bq->cl_hi, bq->cd_lo, bq->cd_hi);
+            } else {
+              fputs(",,,", fp);
+            }
+            fputs(bq->n_converged == bq->n_runs ? ",true" : ",false", fp);
+          }
+          fputc('\n', fp);
         }
       }
     }
   } else {
+    size_t n_partial = 0;
     fprintf(fp, "section   %s  (%zu panels)\n", name, panels);
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
         ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
         fprintf(fp, "\nRe %.4g   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
+        if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
-        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %9s %9s %6s\n", "alpha", "cl", "cd", "cdf", "cdp",
+        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %9s %9s %6s", "alpha", "cl", "cd", "cdf", "cdp",
                 "cm", "trans_up", "trans_lo", "L/D");
+        if (banded) fprintf(fp, " %14s %16s", "cl band", "cd band");
+        fputc('\n', fp);
         for (size_t i = 0; i < npts; i++) {
           const ascr_polar_point *q = &pts[k * npts + i];
           if (!q->converged) {
@@ -386,8 +454,15 @@ int cmd_polar(int argc, char **argv)
           char tu[16], tl[16];
           snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "-", q->x_transition_upper);
           snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
-          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %9s %9s %6.1f\n", q->alpha_deg, q->cl,
+          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %9s %9s %6.1f", q->alpha_deg, q->cl,
                   q->cd, q->cdf, q->cdp, q->cm, tu, tl, q->cl / q->cd);
+          if (banded) {
+            const ascr_polar_band *bq = &bands[k * npts + i];
+            fprintf(fp, "  %6.4f-%6.4f %7.5f-%7.5f%s", bq->cl_lo, bq->cl_hi, bq->cd_lo, bq->cd_hi,
+                    bq->n_converged < bq->n_runs ? " *" : "");
+            n_partial += bq->n_converged < bq->n_runs;
+          }
+          fputc('\n', fp);
           if (q->bistable) {
             fprintf(fp, "%8s two states: reached from the other side cl %.4f, cd %.5f, cm %.4f\n",
                     "", q->other_cl, q->other_cd, q->other_cm);
@@ -432,12 +507,18 @@ int cmd_polar(int argc, char **argv)
       fputs("(cd_min, L/D max: the grid point; cl_max: the first peak of the lift curve; slope: "
             "fitted\nwithin alpha_0 -2 .. +4 deg; '-': not determined by the converged points)\n", fp);
     }
+    if (banded) {
+      fputs("\nband: the least and largest value over the sweeps at the ends of the N_crit range and "
+            "the\nnominal one (the transition uncertainty, not an error bar of the method)", fp);
+      if (n_partial > 0) fprintf(fp, "; * %zu band(s) from fewer sweeps: not every sweep converged there", n_partial);
+      fputc('\n', fp);
+    }
     fprintf(fp, "\nnote: %s\n", CLI_ESTIMATE_NOTE);
   }
   if (plotdir != NULL) {
     size_t nk = nre * nmach;
     fig_polar *fp2 = calloc(nk, sizeof *fp2);
-    double *buf = calloc(4 * npts * nk + 1, sizeof *buf);
+    double *buf = calloc((banded ? 12 : 4) * npts * nk + 1, sizeof *buf);
     if (fp2 == NULL || buf == NULL) {
       cli_error("out of memory");
       rc = CLI_EXIT_INTERNAL;
@@ -456,9 +537,31 @@ int cmd_polar(int argc, char **argv)
         f->cd[i] = q->converged ? q->cd : NAN;
         f->cm[i] = q->converged ? q->cm : NAN;
       }
+      if (banded) {
+        double *bb = buf + 4 * npts * nk + 8 * npts * k;
+        double **dst[8] = {&f->cl_lo, &f->cl_hi, &f->cd_lo, &f->cd_hi,
+                           &f->cm_lo, &f->cm_hi, &f->ld_lo, &f->ld_hi};
+        for (int j = 0; j < 8; j++) *dst[j] = bb + (size_t)j * npts;
+        for (size_t i = 0; i < npts; i++) {
+          const ascr_polar_band *bq = &bands[k * npts + i];
+          f->cl_lo[i] = bq->cl_lo;
+          f->cl_hi[i] = bq->cl_hi;
+          f->cd_lo[i] = bq->cd_lo;
+          f->cd_hi[i] = bq->cd_hi;
+          f->cm_lo[i] = bq->cm_lo;
+          f->cm_hi[i] = bq->cm_hi;
+          f->ld_lo[i] = bq->ld_lo;
+          f->ld_hi[i] = bq->ld_hi;
+        }
+      }
       ascr_visc_params vp = cli_visc_params(&vo, res[k % nre], machs[k / nre]);
-      snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
-               machs[k / nre], vp.ncrit);
+      if (banded) {
+        snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g (band %.3g-%.3g)",
+                 res[k % nre] / 1000.0, machs[k / nre], vp.ncrit, nc_lo, nc_hi);
+      } else {
+        snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
+                 machs[k / nre], vp.ncrit);
+      }
     }
     if (rc == 0) rc = fig_polars(plotdir, name, fp2, nk);
     free(fp2);
@@ -505,6 +608,8 @@ int cmd_polar(int argc, char **argv)
   free(pts);
   free(sums);
   free(rsum);
+  free(pts_end);
+  free(bands);
   cli_analysis_close(&an);
   return cli_output_commit(&out);
 
@@ -512,6 +617,8 @@ fail: /* an error was printed: nothing is written */
   free(pts);
   free(sums);
   free(rsum);
+  free(pts_end);
+  free(bands);
   cli_analysis_close(&an);
   cli_output_discard(&out);
   return rc;

@@ -84,24 +84,6 @@ static int parse_values(const char *opt, const char *text, double lo, double hi,
   return cli_parse_list(opt, text, lo, hi, out, n);
 }
 
-static int parse_pair(const char *opt, const char *text, double lo, double hi, double *a, double *b)
-{
-  char buf[128];
-  const char *c = strchr(text, ':');
-  if (c == NULL || strlen(text) >= sizeof buf) {
-    cli_error("%s: '%s' is not LO:HI", opt, text);
-    return 1;
-  }
-  memcpy(buf, text, (size_t)(c - text));
-  buf[c - text] = '\0';
-  if (cli_parse_double(opt, buf, lo, hi, a) || cli_parse_double(opt, c + 1, lo, hi, b)) return 1;
-  if (!(*b > *a)) {
-    cli_error("%s: HI %g must exceed LO %g", opt, *b, *a);
-    return 1;
-  }
-  return 0;
-}
-
 typedef struct rotor_point {
   ascr_rotor_result r;
   ascr_rotor_element *el;
@@ -191,7 +173,7 @@ int cmd_rotor(int argc, char **argv)
     case 'n': if (parse_values("--rpm", optarg, 1.0, 1e6, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
     case 'v': if (parse_values("--speed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE; break;
     case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;
-    case 'R': if (parse_pair("--rpm-range", optarg, 1.0, 1e6, &rpm_lo, &rpm_hi)) return CLI_EXIT_USAGE; break;
+    case 'R': if (cli_parse_pair("--rpm-range", optarg, 1.0, 1e6, &rpm_lo, &rpm_hi)) return CLI_EXIT_USAGE; break;
     case 'i':
       if (strcmp(optarg, "bemt") != 0 && strcmp(optarg, "vortex") != 0) {
         cli_error("--inflow: '%s' is not a model (bemt or vortex)", optarg);

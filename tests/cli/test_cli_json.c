@@ -275,6 +275,41 @@ static void test_cli_polar_json_contract(void **state)
   json_decref(j);
 }
 
+/* The transition band (issue 12): --ncrit-range LO:HI adds per point cl_band, cd_band and
+ * cm_band ([least, largest] over the sweeps at LO, the nominal N_crit and HI) and band_complete,
+ * and per polar ncrit_range. The nominal value lies inside its band; on NACA 0012 at Re 1e6
+ * a lower N_crit moves transition forward and raises the drag at every angle (Schlichting ch.
+ * XVII: a longer turbulent run), so the band has a width. */
+static void test_cli_polar_json_transition_band(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("polar naca0012 --re 1e6 --alpha 0:4:2 --ncrit-range 7:11 --json", &code);
+  assert_int_equal(code, 0);
+  json_t *p = json_array_get(json_object_get(j, "polars"), 0);
+  json_t *nr = json_object_get(p, "ncrit_range");
+  assert_int_equal(json_array_size(nr), 2);
+  ascr_assert_close(json_number_value(json_array_get(nr, 0)), 7.0, 0, 0, "ncrit lo");
+  ascr_assert_close(json_number_value(json_array_get(nr, 1)), 11.0, 0, 0, "ncrit hi");
+  json_t *pts = json_object_get(p, "points");
+  assert_int_equal(json_array_size(pts), 3);
+  for (size_t i = 0; i < 3; i++) {
+    json_t *q = json_array_get(pts, i);
+    assert_true(json_is_true(json_object_get(q, "band_complete")));
+    const char *keys[3] = {"cl", "cd", "cm"}, *bk[3] = {"cl_band", "cd_band", "cm_band"};
+    for (int m = 0; m < 3; m++) {
+      json_t *b = json_object_get(q, bk[m]);
+      assert_int_equal(json_array_size(b), 2);
+      double lo = json_number_value(json_array_get(b, 0)), hi = json_number_value(json_array_get(b, 1));
+      double v = num(q, keys[m]);
+      assert_true(lo <= v && v <= hi);
+    }
+    json_t *db = json_object_get(q, "cd_band");
+    assert_true(json_number_value(json_array_get(db, 1)) > json_number_value(json_array_get(db, 0)));
+  }
+  json_decref(j);
+}
+
 /* Rotor JSON contract (issue: points with rpm, speed_m_s, thrust_N, torque_Nm, power_W, CT,
  * CP, J, efficiency, converged and per-station distributions), checked for internal
  * consistency: CT = T/(rho n^2 D^4), CP = P/(rho n^3 D^5), P = 2 pi n Q, J = V/(n D),
@@ -380,6 +415,7 @@ int main(void)
     cmocka_unit_test(test_cli_flow_viscous_json_contract),
     cmocka_unit_test(test_cli_flow_history_lists_the_newton_steps),
     cmocka_unit_test(test_cli_polar_json_contract),
+    cmocka_unit_test(test_cli_polar_json_transition_band),
     cmocka_unit_test(test_cli_rotor_json_contract),
     cmocka_unit_test(test_cli_output_is_deterministic),
   };

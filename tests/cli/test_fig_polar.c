@@ -35,7 +35,7 @@ static void make(fig_polar p[2])
 typedef struct built {
   fig_polar p[2];
   plot_panel pan[4];
-  plot_series sr[8];
+  plot_series sr[16];
   double ld0[3], ld1[3];
   double *ld[2];
   char label[2][128];
