@@ -257,6 +257,20 @@ int fig_flow(const char *dir, const char *title, size_t ns, const int *side, con
   return rc ? CLI_EXIT_OUTPUT : 0;
 }
 
+void fig_re_series_bind(fig_re_series *f, double mach, size_t n, double *b)
+{
+  snprintf(f->label, sizeof f->label, "Mach %.2g", mach);
+  f->n = n;
+  f->re = b;
+  f->cd_min = b + n;
+  f->ld_max = b + 2 * n;
+  f->cl_max = b + 3 * n;
+  f->alpha0 = b + 4 * n;
+  f->slope = b + 5 * n;
+  f->x_sep = b + 6 * n;
+  f->x_re = b + 7 * n;
+}
+
 int fig_re_study(const char *dir, const char *section, double bubble_cl, const fig_re_series *s,
                  size_t ns)
 {

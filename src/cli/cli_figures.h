@@ -28,6 +28,9 @@ typedef struct fig_re_series {
   size_t n;
   const double *re, *cd_min, *ld_max, *cl_max, *alpha0, *slope, *x_sep, *x_re;
 } fig_re_series;
+/* Point f at b, 8 n values in the order re, cd_min, ld_max, cl_max, alpha0, slope, x_sep, x_re
+ * (n each), labelled by the Mach number. */
+void fig_re_series_bind(fig_re_series *f, double mach, size_t n, double *b);
 int fig_re_study(const char *dir, const char *section, double bubble_cl, const fig_re_series *s,
                  size_t ns);
 

@@ -128,16 +128,7 @@ static int plot_re_summary(const char *file, json_t *root, const char *dir)
       c[7 * cnt + j] = row[10] > 0.0 ? row[9] : NAN;
       j++;
     }
-    snprintf(f->label, sizeof f->label, "Mach %.2g", machs[k]);
-    f->n = cnt;
-    f->re = c;
-    f->cd_min = c + cnt;
-    f->ld_max = c + 2 * cnt;
-    f->cl_max = c + 3 * cnt;
-    f->alpha0 = c + 4 * cnt;
-    f->slope = c + 5 * cnt;
-    f->x_sep = c + 6 * cnt;
-    f->x_re = c + 7 * cnt;
+    fig_re_series_bind(f, machs[k], cnt, c);
     used += 8 * cnt;
     distinct_re = cnt > distinct_re ? cnt : distinct_re;
   }

@@ -587,17 +587,7 @@ int cmd_polar(int argc, char **argv)
           b[6 * nre + ir] = q->x_separation_upper;
           b[7 * nre + ir] = q->bubble_status > 0 ? q->x_reattach_upper : NAN;
         }
-        fig_re_series *f = &fs[im];
-        snprintf(f->label, sizeof f->label, "Mach %.2g", machs[im]);
-        f->n = nre;
-        f->re = b;
-        f->cd_min = b + nre;
-        f->ld_max = b + 2 * nre;
-        f->cl_max = b + 3 * nre;
-        f->alpha0 = b + 4 * nre;
-        f->slope = b + 5 * nre;
-        f->x_sep = b + 6 * nre;
-        f->x_re = b + 7 * nre;
+        fig_re_series_bind(&fs[im], machs[im], nre, b);
       }
       if (rc == 0) rc = fig_re_study(plotdir, name, bubble_cl, fs, nmach);
       free(fs);
