@@ -5,6 +5,7 @@
 #include "cli.h"
 #include "cli_csv.h"
 #include "cli_figures.h"
+#include "plot_read.h"
 #include "commands.h"
 
 #include <strings.h>
@@ -29,221 +30,6 @@ static void plot_help(FILE *fp)
 
 /* largest result file read (a rotor map with spanwise stations is a few MiB) */
 #define PLOT_JSON_MAX ((size_t)64 << 20)
-
-static double jnum(json_t *o, const char *k)
-{
-  json_t *v = json_object_get(o, k);
-  return json_is_number(v) ? json_number_value(v) : NAN;
-}
-
-/* The numeric fields of an object: absent or null read as NaN (an unconverged point), a
- * number as itself, anything else is an error naming the file, the place and the field.
- * Returns 0 or CLI_EXIT_INPUT (message printed). */
-static int jnums(const char *file, const char *where, size_t i, json_t *o, const char *const *keys,
-                 double *const *out, size_t nk)
-{
-  if (!json_is_object(o)) {
-    cli_error("%s: %s[%zu]: expected an object", file, where, i);
-    return CLI_EXIT_INPUT;
-  }
-  for (size_t k = 0; k < nk; k++) {
-    json_t *v = json_object_get(o, keys[k]);
-    if (v != NULL && !json_is_null(v) && !json_is_number(v)) {
-      cli_error("%s: %s[%zu].%s: expected a number", file, where, i, keys[k]);
-      return CLI_EXIT_INPUT;
-    }
-    *out[k] = json_is_number(v) ? json_number_value(v) : NAN;
-  }
-  return 0;
-}
-
-/* The Reynolds-number study of a polar result (its "re_summary", issue 12): DIR/polar-re, one
- * series per Mach number, drawn where the result holds at least two Reynolds numbers. */
-static int plot_re_summary(const char *file, json_t *root, const char *dir)
-{
-  enum { MAXM = 8 };
-  json_t *rs = json_object_get(root, "re_summary");
-  size_t n = json_array_size(rs);
-  if (n < 2) return 0;
-  if (n > 4096) {
-    cli_error("%s: re_summary: too many entries", file);
-    return CLI_EXIT_INPUT;
-  }
-  double *v = calloc(11 * n, sizeof *v);
-  double *b = calloc(8 * n, sizeof *b);
-  fig_re_series *fs = calloc(MAXM, sizeof *fs);
-  if (v == NULL || b == NULL || fs == NULL) {
-    free(v);
-    free(b);
-    free(fs);
-    return CLI_EXIT_INTERNAL;
-  }
-  static const char *const keys[7] = {"re", "mach", "cd_min", "ld_max", "cl_max",
-                                      "alpha_zero_lift_deg", "lift_slope_per_deg"};
-  static const char *const bkeys[3] = {"cl", "x_separation_upper", "x_reattach_upper"};
-  int rc = 0;
-  for (size_t i = 0; i < n && rc == 0; i++) {
-    json_t *o = json_array_get(rs, i);
-    double *row = v + 11 * i;
-    double *out[7] = {row, row + 1, row + 2, row + 3, row + 4, row + 5, row + 6};
-    rc = jnums(file, "re_summary", i, o, keys, out, 7);
-    if (rc != 0) break;
-    json_t *bo = json_object_get(o, "bubble");
-    double *bout[3] = {row + 7, row + 8, row + 9};
-    if (bo != NULL) {
-      char where[40];
-      snprintf(where, sizeof where, "re_summary[%zu].bubble", i);
-      rc = jnums(file, where, 0, bo, bkeys, bout, 3);
-      json_t *st = json_object_get(bo, "status");
-      row[10] = json_is_string(st) && strcmp(json_string_value(st), "closed") == 0;
-    } else {
-      row[7] = row[8] = row[9] = NAN;
-      row[10] = 0.0;
-    }
-  }
-  /* group by Mach number, in the order met */
-  double machs[MAXM];
-  size_t nm = 0, used = 0, distinct_re = 0;
-  for (size_t i = 0; i < n && rc == 0; i++) {
-    double m = v[11 * i + 1];
-    size_t k = 0;
-    while (k < nm && !(machs[k] == m || (isnan(machs[k]) && isnan(m)))) k++;
-    if (k == nm && nm < MAXM) machs[nm++] = m;
-  }
-  for (size_t k = 0; k < nm && rc == 0; k++) {
-    fig_re_series *f = &fs[k];
-    double *c = b + used;
-    size_t cnt = 0;
-    for (size_t i = 0; i < n; i++) {
-      double m = v[11 * i + 1];
-      if (!(m == machs[k] || (isnan(m) && isnan(machs[k])))) continue;
-      cnt++;
-    }
-    for (size_t i = 0, j = 0; i < n; i++) {
-      const double *row = v + 11 * i;
-      if (!(row[1] == machs[k] || (isnan(row[1]) && isnan(machs[k])))) continue;
-      c[j] = row[0];
-      for (int q = 0; q < 5; q++) c[(size_t)(q + 1) * cnt + j] = row[2 + q];
-      c[6 * cnt + j] = row[8];
-      c[7 * cnt + j] = row[10] > 0.0 ? row[9] : NAN;
-      j++;
-    }
-    fig_re_series_bind(f, machs[k], cnt, c);
-    used += 8 * cnt;
-    distinct_re = cnt > distinct_re ? cnt : distinct_re;
-  }
-  if (rc == 0 && distinct_re >= 2) {
-    json_t *sec = json_object_get(root, "section");
-    rc = fig_re_study(dir, json_is_string(sec) ? json_string_value(sec) : file, v[7], fs, nm);
-  }
-  free(v);
-  free(b);
-  free(fs);
-  return rc;
-}
-
-static int plot_polars(const char *file, json_t *root, const char *dir)
-{
-  json_t *pl = json_object_get(root, "polars");
-  size_t np = json_array_size(pl);
-  if (np == 0 || np > 256) {
-    cli_error("%s: polars: empty or too many", file);
-    return CLI_EXIT_INPUT;
-  }
-  fig_polar *f = calloc(np, sizeof *f);
-  if (f == NULL) return CLI_EXIT_INTERNAL;
-  int rc = 0;
-  for (size_t k = 0; k < np && rc == 0; k++) {
-    json_t *po = json_array_get(pl, k), *pts = json_object_get(po, "points");
-    size_t n = json_array_size(pts);
-    if (!json_is_object(po) || n == 0 || n > 100000) {
-      cli_error("%s: polars[%zu].points: missing or empty", file, k);
-      rc = CLI_EXIT_INPUT;
-      break;
-    }
-    double *b = calloc(4 * n, sizeof *b);
-    if (b == NULL) {
-      rc = CLI_EXIT_INTERNAL;
-      break;
-    }
-    f[k].n = n;
-    f[k].alpha = b;
-    f[k].cl = b + n;
-    f[k].cd = b + 2 * n;
-    f[k].cm = b + 3 * n;
-    char where[48];
-    snprintf(where, sizeof where, "polars[%zu].points", k);
-    static const char *const keys[4] = {"alpha_deg", "cl", "cd", "cm"};
-    for (size_t i = 0; i < n && rc == 0; i++) {
-      double *out[4] = {&f[k].alpha[i], &f[k].cl[i], &f[k].cd[i], &f[k].cm[i]};
-      rc = jnums(file, where, i, json_array_get(pts, i), keys, out, 4);
-    }
-    if (rc != 0) break;
-    json_t *sec = json_object_get(po, "section");
-    int n0 = json_is_string(sec) ? snprintf(f[k].label, sizeof f[k].label, "%.40s, ", json_string_value(sec)) : 0;
-    double mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
-    int n1 = snprintf(f[k].label + n0, sizeof f[k].label - (size_t)n0, "Re %.3gk", jnum(po, "re") / 1000.0);
-    if (isfinite(mach) && mach > 0.0) {
-      n1 += snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", M %.2g", mach);
-    }
-    if (isfinite(ncrit)) {
-      snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", N#dcrit#u %.3g", ncrit);
-    }
-  }
-  if (rc == 0) {
-    json_t *sec = json_object_get(root, "section");
-    rc = fig_polars(dir, json_is_string(sec) ? json_string_value(sec) : file, f, np);
-  }
-  for (size_t k = 0; k < np; k++) free(f[k].alpha);
-  free(f);
-  return rc;
-}
-
-static int plot_rotor(const char *file, json_t *root, const char *dir)
-{
-  json_t *pts = json_object_get(root, "points");
-  size_t np = json_array_size(pts);
-  if (np == 0 || np > 100000) {
-    cli_error("%s: points: empty", file);
-    return CLI_EXIT_INPUT;
-  }
-  fig_rotor_point *f = calloc(np, sizeof *f);
-  if (f == NULL) return CLI_EXIT_INTERNAL;
-  int rc = 0;
-  for (size_t k = 0; k < np && rc == 0; k++) {
-    json_t *p = json_array_get(pts, k);
-    static const char *const keys[8] = {"rpm", "speed_m_s", "J", "CT", "CP", "efficiency",
-                                        "thrust_N", "power_W"};
-    double *out[8] = {&f[k].rpm, &f[k].speed, &f[k].J, &f[k].CT, &f[k].CP, &f[k].eta,
-                      &f[k].thrust, &f[k].power};
-    rc = jnums(file, "points", k, p, keys, out, 8);
-    if (rc != 0) break;
-    json_t *st = json_object_get(p, "stations");
-    size_t ns = json_array_size(st);
-    if (ns > 0 && ns <= 4000) {
-      double *b = calloc(2 * ns, sizeof *b);
-      if (b == NULL) {
-        rc = CLI_EXIT_INTERNAL;
-        break;
-      }
-      f[k].ns = ns;
-      f[k].r_over_R = b;
-      f[k].dT_dr = b + ns;
-      for (size_t i = 0; i < ns; i++) {
-        json_t *e = json_array_get(st, i);
-        b[i] = jnum(e, "r_over_R");
-        b[ns + i] = jnum(e, "dT_dr_N_per_m");
-      }
-    }
-  }
-  if (rc == 0) {
-    json_t *bl = json_object_get(root, "blade");
-    rc = fig_rotor(dir, json_is_string(bl) ? json_string_value(bl) : file, f, np);
-  }
-  for (size_t k = 0; k < np; k++) free(f[k].r_over_R);
-  free(f);
-  return rc;
-}
 
 /* One CSV cell as a JSON number: null where empty, where the row is not converged, or "nan";
  * an error naming the line and column where it is not a number. */
@@ -440,18 +226,17 @@ int cmd_plot(int argc, char **argv)
       return CLI_EXIT_INPUT;
     }
   }
-  if (json_is_array(json_object_get(root, "polars"))) {
-    int study = json_array_size(json_object_get(root, "re_summary")) >= 2;
-    rc = fig_prepare_dir(dir, (const char *const[]){"polar", study ? "polar-re" : NULL, NULL}, force);
-    if (rc == 0) rc = plot_polars(file, root, dir);
-    if (rc == 0) rc = plot_re_summary(file, root, dir);
-  } else if (json_is_array(json_object_get(root, "points")) && json_object_get(root, "blade") != NULL) {
+  plot_data pd;
+  rc = plot_data_read(file, root, &pd);
+  if (rc == 0 && pd.kind == PLOT_POLARS) {
+    rc = fig_prepare_dir(dir, (const char *const[]){"polar", pd.n_re > 0 ? "polar-re" : NULL, NULL}, force);
+    if (rc == 0) rc = fig_polars(dir, pd.title, pd.pol, pd.n_pol);
+    if (rc == 0 && pd.n_re > 0) rc = fig_re_study(dir, pd.title, pd.bubble_cl, pd.re, pd.n_re);
+  } else if (rc == 0) {
     rc = fig_prepare_dir(dir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
-    if (rc == 0) rc = plot_rotor(file, root, dir);
-  } else {
-    cli_error("%s: neither a polar result (\"polars\") nor a rotor result (\"points\", \"blade\")", file);
-    rc = CLI_EXIT_INPUT;
+    if (rc == 0) rc = fig_rotor(dir, pd.title, pd.rot, pd.n_rot);
   }
+  plot_data_free(&pd);
   json_decref(root);
   if (rc == 0) printf("figures written to %s/\n", dir);
   return rc;
