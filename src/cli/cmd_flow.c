@@ -333,6 +333,16 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
       json_object_set_new(bl, "shape_factor", darray(h, ns));
       json_object_set_new(bl, "cf", darray(cf, ns));
       json_object_set_new(bl, "n_or_sqrt_ctau", darray(am, ns));
+      /* the same split by regime (issue 17): N where laminar, sqrt(Ctau) where turbulent, null
+       * elsewhere; and the displacement thickness under its full name */
+      json_t *na = json_array(), *ca = json_array();
+      for (size_t k = 0; k < ns; k++) {
+        json_array_append_new(na, turb[k] ? json_null() : cli_json_num(1, am[k]));
+        json_array_append_new(ca, turb[k] ? cli_json_num(1, am[k]) : json_null());
+      }
+      json_object_set_new(bl, "n_amp", na);
+      json_object_set_new(bl, "sqrt_ctau", ca);
+      json_object_set_new(bl, "delta_star", darray(ds, ns));
       json_object_set_new(bl, "turbulent", ta);
       json_object_set_new(o, "boundary_layer", bl);
     }
@@ -345,11 +355,15 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     fprintf(fp, "# section: %s\n# analysis: viscous\n# alpha_deg: %.6f\n# re: %.6g\n# mach: %.4f\n"
             "# ncrit: %.4g\n# cl: %.6f\n# cd: %.6f\n# cdf: %.6f\n# cdp: %.6f\n# cm: %.6f\n",
             name, alpha_deg, vp->re, vp->mach, vp->ncrit, r.cl, r.cd, r.cdf, r.cdp, r.cm);
-    fputs("side,s,x,y,ue,cp,dstar,theta,shape_factor,cf,n_or_sqrt_ctau,turbulent\n", fp);
+    /* N where laminar and sqrt(Ctau) where turbulent, each in its own column, blank where the
+     * other regime holds (issue 17) */
+    fputs("side,s,x,y,ue,cp,delta_star,theta,shape_factor,cf,n_amp,sqrt_ctau,turbulent\n", fp);
     for (size_t k = 0; k < ns; k++) {
-      fprintf(fp, "%s,%.6f,%.6f,%.6f,%.6f,%.6f,%.6e,%.6e,%.5f,%.6e,%.5f,%d\n",
+      fprintf(fp, "%s,%.6f,%.6f,%.6f,%.6f,%.6f,%.6e,%.6e,%.5f,%.6e,",
               side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], y[k], ue[k],
-              cps[k], ds[k], th[k], h[k], cf[k], am[k], turb[k]);
+              cps[k], ds[k], th[k], h[k], cf[k]);
+      if (turb[k]) fprintf(fp, ",%.5f,1\n", am[k]);
+      else fprintf(fp, "%.5f,,0\n", am[k]);
     }
   } else if (!ok && history) {
     history_table(fp, &hh);
@@ -377,12 +391,15 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     }
     fprintf(fp, "converged in %d iterations\nnote      %s\n\n", r.iterations, CLI_ESTIMATE_NOTE);
     if (history) history_table(fp, &hh);
-    fprintf(fp, "%6s %9s %9s %8s %10s %10s %7s %9s %7s %s\n", "side", "s", "x/c", "ue/V",
-            "dstar/c", "theta/c", "H", "cf", "N|Ct^.5", "state");
+    fprintf(fp, "%6s %9s %9s %8s %10s %10s %7s %9s %7s %9s %s\n", "side", "s", "x/c", "ue/V",
+            "delta*/c", "theta/c", "H", "cf", "N", "Ctau^1/2", "state");
     for (size_t k = 0; k < ns; k++) {
-      fprintf(fp, "%6s %9.5f %9.5f %8.4f %10.3e %10.3e %7.3f %9.5f %7.3f %s\n",
+      char na[16], ca[16];
+      snprintf(na, sizeof na, turb[k] ? "" : "%.3f", am[k]);
+      snprintf(ca, sizeof ca, turb[k] ? "%.4f" : "", am[k]);
+      fprintf(fp, "%6s %9.5f %9.5f %8.4f %10.3e %10.3e %7.3f %9.5f %7s %9s %s\n",
               side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], ue[k], ds[k],
-              th[k], h[k], cf[k], am[k], turb[k] ? "turbulent" : "laminar");
+              th[k], h[k], cf[k], na, ca, turb[k] ? "turbulent" : "laminar");
     }
   }
   free(side);

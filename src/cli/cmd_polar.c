@@ -396,8 +396,10 @@ int cmd_polar(int argc, char **argv)
     json_decref(o);
   } else if (csv) {
     fprintf(fp, "# section: %s\n# note: %s\n", name, CLI_ESTIMATE_NOTE);
-    fputs("re,mach,ncrit,alpha_deg,cl,cd,cdf,cdp,cm,x_transition_upper,x_transition_lower,converged,"
-          "bistable", fp);
+    /* what a reader wants first: the angle, lift, drag, their ratio, the moment; then where
+     * transition is; then the drag split (issue 17) */
+    fputs("re,mach,ncrit,alpha_deg,cl,cd,ld,cm,x_transition_upper,x_transition_lower,cdf,cdp,"
+          "converged,bistable", fp);
     if (banded) fputs(",ncrit_lo,ncrit_hi,cl_lo,cl_hi,cd_lo,cd_hi,band_complete", fp);
     fputc('\n', fp);
     for (size_t im = 0; im < nmach; im++) {
@@ -408,13 +410,14 @@ int cmd_polar(int argc, char **argv)
           const ascr_polar_point *q = &pts[k * npts + i];
           fprintf(fp, "%.6g,%.4g,%.4g,%.4f,", res[ir], machs[im], vp.ncrit, q->alpha_deg);
           if (q->converged) {
-            fprintf(fp, "%.6f,%.6f,%.6f,%.6f,%.6f,", q->cl, q->cd, q->cdf, q->cdp, q->cm);
+            fprintf(fp, "%.6f,%.6f,%.4f,%.6f,", q->cl, q->cd, q->cl / q->cd, q->cm);
             if (isfinite(q->x_transition_upper)) fprintf(fp, "%.5f", q->x_transition_upper);
             fputc(',', fp);
             if (isfinite(q->x_transition_lower)) fprintf(fp, "%.5f", q->x_transition_lower);
+            fprintf(fp, ",%.6f,%.6f", q->cdf, q->cdp);
             fputs(q->bistable ? ",true,true" : ",true,false", fp);
           } else {
-            fputs(",,,,,,,false,false", fp);
+            fputs(",,,,,,,,false,false", fp);
           }
           if (banded) {
             const ascr_polar_band *bq = &bands[k * npts + i];
@@ -441,8 +444,8 @@ int cmd_polar(int argc, char **argv)
         if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
-        fprintf(fp, "\n%8s %8s %9s %9s %9s %8s %9s %9s %6s", "alpha", "cl", "cd", "cdf", "cdp",
-                "cm", "trans_up", "trans_lo", "L/D");
+        fprintf(fp, "\n%8s %8s %9s %6s %8s %9s %9s %9s %9s", "alpha", "cl", "cd", "L/D", "cm",
+                "trans_up", "trans_lo", "cdf", "cdp");
         if (banded) fprintf(fp, " %14s %16s", "cl band", "cd band");
         fputc('\n', fp);
         for (size_t i = 0; i < npts; i++) {
@@ -454,8 +457,8 @@ int cmd_polar(int argc, char **argv)
           char tu[16], tl[16];
           snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "-", q->x_transition_upper);
           snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
-          fprintf(fp, "%8.2f %8.4f %9.5f %9.5f %9.5f %8.4f %9s %9s %6.1f", q->alpha_deg, q->cl,
-                  q->cd, q->cdf, q->cdp, q->cm, tu, tl, q->cl / q->cd);
+          fprintf(fp, "%8.2f %8.4f %9.5f %6.1f %8.4f %9s %9s %9.5f %9.5f", q->alpha_deg, q->cl,
+                  q->cd, q->cl / q->cd, q->cm, tu, tl, q->cdf, q->cdp);
           if (banded) {
             const ascr_polar_band *bq = &bands[k * npts + i];
             fprintf(fp, "  %6.4f-%6.4f %7.5f-%7.5f%s", bq->cl_lo, bq->cl_hi, bq->cd_lo, bq->cd_hi,

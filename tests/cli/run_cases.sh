@@ -101,6 +101,12 @@ done
 "$exe" section naca2412 > "$tmp/sec.out" 2>&1
 grep -q "^nodes        401 (400 panels)" "$tmp/sec.out" && grep -q "respace it on 160 panels" "$tmp/sec.out" ||
   { echo "FAIL: section does not say which panels the analyses use"; fail=$((fail + 1)); }
+# polar output leads with alpha, cl, cd, L/D, cm (issue 17), in the table and in CSV
+"$exe" polar naca0012 --re 1e6 --alpha 0:2:2 > "$tmp/pt.out" 2>&1
+"$exe" polar naca0012 --re 1e6 --alpha 0:2:2 --csv > "$tmp/pc.out" 2>&1
+grep -Eq '^ +alpha +cl +cd +L/D +cm +trans_up +trans_lo +cdf +cdp$' "$tmp/pt.out" &&
+  grep -q '^re,mach,ncrit,alpha_deg,cl,cd,ld,cm,x_transition_upper,x_transition_lower,cdf,cdp,converged,bistable$' "$tmp/pc.out" ||
+  { echo "FAIL: polar columns not in the order alpha, cl, cd, L/D, cm, transition, drag split"; fail=$((fail + 1)); }
 # no temporary files left behind
 if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"

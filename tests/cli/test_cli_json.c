@@ -173,11 +173,26 @@ static void test_cli_flow_viscous_json_contract(void **state)
   assert_true(json_is_object(bl));
   size_t n = json_array_size(json_object_get(bl, "s"));
   assert_true(n > 160);
-  const char *keys[] = {"side", "x", "y", "ue", "dstar", "theta", "shape_factor", "cf",
-                        "n_or_sqrt_ctau", "turbulent"};
+  const char *keys[] = {"side", "x", "y", "ue", "dstar", "delta_star", "theta", "shape_factor",
+                        "cf", "n_or_sqrt_ctau", "n_amp", "sqrt_ctau", "turbulent"};
   for (size_t k = 0; k < sizeof keys / sizeof keys[0]; k++) {
     assert_int_equal(json_array_size(json_object_get(bl, keys[k])), n);
   }
+  /* issue 17: N and sqrt(Ctau) each in its own array, null where the other regime holds */
+  json_t *tu = json_object_get(bl, "turbulent"), *na = json_object_get(bl, "n_amp"),
+         *ca = json_object_get(bl, "sqrt_ctau"), *both = json_object_get(bl, "n_or_sqrt_ctau");
+  size_t nlam = 0, nturb = 0;
+  for (size_t k = 0; k < n; k++) {
+    int t = json_is_true(json_array_get(tu, k));
+    json_t *have = json_array_get(t ? ca : na, k), *none = json_array_get(t ? na : ca, k);
+    assert_true(json_is_number(have));
+    assert_true(json_is_null(none));
+    ascr_assert_close(json_number_value(have), json_number_value(json_array_get(both, k)), 0, 0,
+                      "split value");
+    nlam += !t;
+    nturb += t;
+  }
+  assert_true(nlam > 0 && nturb > 0);
   json_decref(j);
 }
 
