@@ -206,8 +206,8 @@ static void history_table(FILE *fp, const flow_history *hh)
   for (size_t i = 0; i < hh->n; i++) {
     const ascr_visc_step *st = &hh->steps[i];
     char xu[16], xl[16];
-    snprintf(xu, sizeof xu, isfinite(st->x_transition_upper) ? "%.4f" : "-", st->x_transition_upper);
-    snprintf(xl, sizeof xl, isfinite(st->x_transition_lower) ? "%.4f" : "-", st->x_transition_lower);
+    snprintf(xu, sizeof xu, isfinite(st->x_transition_upper) ? "%.4f" : "none", st->x_transition_upper);
+    snprintf(xl, sizeof xl, isfinite(st->x_transition_lower) ? "%.4f" : "none", st->x_transition_lower);
     fprintf(fp, "%-13s %7.3f %9.4g %4d %10.3e %10.3e %7.4f %2s %2s %4s %7s %7s\n",
             start_name(st->start), st->alpha_rad * 180.0 / FLOW_PI, st->re, st->iteration,
             st->residual_max, st->update, st->relax, st->transition_moved ? "T" : "",

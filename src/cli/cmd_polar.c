@@ -455,8 +455,9 @@ int cmd_polar(int argc, char **argv)
             continue;
           }
           char tu[16], tl[16];
-          snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "-", q->x_transition_upper);
-          snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "-", q->x_transition_lower);
+          /* "none": laminar to the trailing edge, said the same way in every text output */
+          snprintf(tu, sizeof tu, isfinite(q->x_transition_upper) ? "%.3f" : "none", q->x_transition_upper);
+          snprintf(tl, sizeof tl, isfinite(q->x_transition_lower) ? "%.3f" : "none", q->x_transition_lower);
           fprintf(fp, "%8.2f %8.4f %9.5f %6.1f %8.4f %9s %9s %9.5f %9.5f", q->alpha_deg, q->cl,
                   q->cd, q->cl / q->cd, q->cm, tu, tl, q->cdf, q->cdp);
           if (banded) {
@@ -510,6 +511,8 @@ int cmd_polar(int argc, char **argv)
       fputs("(cd_min, L/D max: the grid point; cl_max: the first peak of the lift curve; slope: "
             "fitted\nwithin alpha_0 -2 .. +4 deg; '-': not determined by the converged points)\n", fp);
     }
+    fputs("\ntrans_up, trans_lo: x/c of transition on each surface; none: laminar to the trailing "
+          "edge\n", fp);
     if (banded) {
       fputs("\nband: the least and largest value over the sweeps at the ends of the N_crit range and "
             "the\nnominal one (the transition uncertainty, not an error bar of the method)", fp);

@@ -107,6 +107,10 @@ grep -q "^nodes        401 (400 panels)" "$tmp/sec.out" && grep -q "respace it o
 grep -Eq '^ +alpha +cl +cd +L/D +cm +trans_up +trans_lo +cdf +cdp$' "$tmp/pt.out" &&
   grep -q '^re,mach,ncrit,alpha_deg,cl,cd,ld,cm,x_transition_upper,x_transition_lower,cdf,cdp,converged,bistable$' "$tmp/pc.out" ||
   { echo "FAIL: polar columns not in the order alpha, cl, cd, L/D, cm, transition, drag split"; fail=$((fail + 1)); }
+# "no transition" said one way in text outputs: none (issue 17: it was "-" here, "none" in flow)
+"$exe" polar plate:t=3,f=4 --re 6e4 --alpha 3:4:1 > "$tmp/pn.out" 2>&1
+grep -Eq '^ +3\.00 .* none ' "$tmp/pn.out" && ! grep -Eq ' - +[0-9]' "$tmp/pn.out" ||
+  { echo "FAIL: polar table does not say none for laminar to the trailing edge"; fail=$((fail + 1)); }
 # no temporary files left behind
 if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"
