@@ -170,7 +170,7 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
     if (hi < lo) hi = lo;
     size_t nr = ascr_table_re_ladder(lo, hi, in->re, CLI_MAX_LIST);
     if (nr > CLI_MAX_LIST) {
-      cli_error("section '%s': Re %.3g .. %.3g needs %zu table curves, more than %d; narrow the rpm "
+      cli_error("section '%s': Re %.0f .. %.0f needs %zu table curves, more than %d; narrow the rpm "
                 "or speed range", b->section_name[s], lo, hi, nr, CLI_MAX_LIST);
       rc = CLI_EXIT_USAGE;
       break;
@@ -245,7 +245,7 @@ int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double r
     for (size_t i = 0; i < njobs && rc == 0; i++) {
       job *j = &jobs[i];
       if (j->st != ASCR_OK) {
-        cli_error("section '%s', Re %.3g: %s", b->section_name[j->section], j->rq.re, j->err.msg);
+        cli_error("section '%s', Re %.0f: %s", b->section_name[j->section], j->rq.re, j->err.msg);
         rc = cli_exit_for(j->st);
         break;
       }

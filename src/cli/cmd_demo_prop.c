@@ -358,7 +358,7 @@ int demo_prop(int argc, char **argv)
         f->cd[i] = ok ? c->cd[i] : NAN;
         f->cm[i] = ok ? c->cm[i] : NAN;
       }
-      snprintf(f->label, sizeof f->label, "Re %.3gk, N#dcrit#u %.0f", c->re / 1000.0, c->ncrit);
+      snprintf(f->label, sizeof f->label, "Re %.0f, N#dcrit#u %.0f", c->re, c->ncrit);
     }
     char t0[160];
     snprintf(t0, sizeof t0, "lift, section '%s'", b->section_name[s]);

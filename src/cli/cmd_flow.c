@@ -270,7 +270,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
       rc = CLI_EXIT_INTERNAL;
     } else {
       char title[200];
-      snprintf(title, sizeof title, "%.40s: #ga %.2f deg, Re %.3g", name, alpha_deg, vp->re);
+      snprintf(title, sizeof title, "%.40s: #ga %.2f deg, Re %.0f", name, alpha_deg, vp->re);
       rc = fig_flow(plotdir, title, ns, side, x, cps, ds, h, cf, turb, n,
                     ascr_geom_section_x(an.section), cpi);
     }
@@ -282,7 +282,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     }
   }
   if (!ok) {
-    cli_error("flow: %s at alpha %.2f deg, Re %.4g did not converge after %d iterations "
+    cli_error("flow: %s at alpha %.2f deg, Re %.0f did not converge after %d iterations "
               "(largest relative update %.2e); no result is reported", name, alpha_deg, vp->re,
               r.iterations, r.residual);
     rc = CLI_EXIT_ANALYSIS;
@@ -372,7 +372,7 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     snprintf(tu, sizeof tu, isfinite(r.x_transition_upper) ? "%.4f" : "none", r.x_transition_upper);
     snprintf(tl, sizeof tl, isfinite(r.x_transition_lower) ? "%.4f" : "none", r.x_transition_lower);
     fprintf(fp, "section   %s  (%zu panels)\n", name, panels);
-    fprintf(fp, "alpha     %.3f deg   Re %.4g   Mach %.3f   N_crit %.3g\n", alpha_deg, vp->re,
+    fprintf(fp, "alpha     %.3f deg   Re %.0f   Mach %.3f   N_crit %.3g\n", alpha_deg, vp->re,
             vp->mach, vp->ncrit);
     fprintf(fp, "cl        %.5f\ncd        %.6f  (friction %.6f, pressure %.6f)\n", r.cl, r.cd,
             r.cdf, r.cdp);

@@ -59,7 +59,7 @@ typedef struct progress_ctx {
 static void progress(void *ctx, size_t done, size_t total)
 {
   const progress_ctx *p = ctx;
-  fprintf(stderr, "\rpolar Re %.3g Mach %.2f: %zu/%zu points", p->re, p->mach, done, total);
+  fprintf(stderr, "\rpolar Re %.0f Mach %.2f: %zu/%zu points", p->re, p->mach, done, total);
   if (done == total) fputc('\n', stderr);
   fflush(stderr);
 }
@@ -231,7 +231,7 @@ int cmd_polar(int argc, char **argv)
         ascr_polar_band_compute(runs, 3, npts, bands + k * npts, NULL);
       }
       if (sums[k].n_converged < sums[k].n_points) {
-        cli_warn("Re %.4g Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
+        cli_warn("Re %.0f Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
                  res[ir], machs[im], sums[k].n_points - sums[k].n_converged, sums[k].n_points);
       }
     }
@@ -440,7 +440,7 @@ int cmd_polar(int argc, char **argv)
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
         ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
-        fprintf(fp, "\nRe %.4g   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
+        fprintf(fp, "\nRe %.0f   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
         if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
@@ -504,7 +504,7 @@ int cmd_polar(int argc, char **argv)
           } else {
             snprintf(bub, sizeof bub, q->bubble_status == 0 ? "none" : "cl not reached");
           }
-          fprintf(fp, "%10.4g %9s %7s %7s %7s %7s %7s %8s %9s %15s\n", res[ir], f[0], f[1], f[2],
+          fprintf(fp, "%10.0f %9s %7s %7s %7s %7s %7s %8s %9s %15s\n", res[ir], f[0], f[1], f[2],
                   f[3], f[4], f[5], f[6], f[7], bub);
         }
       }
@@ -562,10 +562,10 @@ int cmd_polar(int argc, char **argv)
       }
       ascr_visc_params vp = cli_visc_params(&vo, res[k % nre], machs[k / nre]);
       if (banded) {
-        snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g (band %.3g-%.3g)",
-                 res[k % nre] / 1000.0, machs[k / nre], vp.ncrit, nc_lo, nc_hi);
+        snprintf(f->label, sizeof f->label, "Re %.0f, M %.2g, N#dcrit#u %.3g (band %.3g-%.3g)",
+                 res[k % nre], machs[k / nre], vp.ncrit, nc_lo, nc_hi);
       } else {
-        snprintf(f->label, sizeof f->label, "Re %.3gk, M %.2g, N#dcrit#u %.3g", res[k % nre] / 1000.0,
+        snprintf(f->label, sizeof f->label, "Re %.0f, M %.2g, N#dcrit#u %.3g", res[k % nre],
                  machs[k / nre], vp.ncrit);
       }
     }

@@ -91,51 +91,52 @@ typedef struct rotor_point {
   char note[ASCR_ERRBUF_SIZE]; /* why there is no result */
 } rotor_point;
 
-static void point_warnings(const rotor_point *pt, char *buf, size_t n)
+/* The notes on one operating point, each a sentence of its own, counts with their totals
+ * (issue 17: "34 elements beyond ..." did not say of how many): the same words in the table
+ * and in JSON. Returns the number of notes. */
+#define NOTE_MAX 6
+static size_t point_notes(const rotor_point *pt, size_t n_el, char notes[NOTE_MAX][200])
 {
-  buf[0] = '\0';
-  size_t used = 0;
-#define ADD(...) do { if (used < n) used += (size_t)snprintf(buf + used, n - used, __VA_ARGS__); } while (0)
+  size_t k = 0;
   if (!pt->solved) {
-    ADD("no solution: %.300s; ", pt->note);
-  } else {
-    if (!pt->r.converged) ADD("not converged; ");
-    if (pt->r.n_stalled > 0) ADD("%zu elements stalled; ", pt->r.n_stalled);
-    if (pt->r.n_extended > 0) ADD("%zu elements beyond the computed polar range; ", pt->r.n_extended);
-    if (pt->r.n_re_outside > 0) ADD("%zu elements outside the table's Re range; ", pt->r.n_re_outside);
-    if (pt->r.tip_mach > 0.7) ADD("tip Mach %.2f above 0.7; ", pt->r.tip_mach);
+    snprintf(notes[k++], 200, "no solution: %.170s", pt->note);
+    return k;
   }
-#undef ADD
-  size_t l = strlen(buf);
-  if (l >= 2) buf[l - 2] = '\0';
-}
-
-static json_t *warnings_json(const rotor_point *pt)
-{
-  json_t *a = json_array();
-  char b[160];
-  if (!pt->solved) {
-    snprintf(b, sizeof b, "no solution: %.140s", pt->note);
-    json_array_append_new(a, json_string(b));
-    return a;
-  }
-  if (!pt->r.converged) json_array_append_new(a, json_string("not converged"));
+  if (!pt->r.converged) snprintf(notes[k++], 200, "not converged");
   if (pt->r.n_stalled > 0) {
-    snprintf(b, sizeof b, "%zu elements stalled", pt->r.n_stalled);
-    json_array_append_new(a, json_string(b));
+    snprintf(notes[k++], 200, "%zu of %zu elements stalled", pt->r.n_stalled, n_el);
   }
   if (pt->r.n_extended > 0) {
-    snprintf(b, sizeof b, "%zu elements beyond the computed polar range (post-stall model)", pt->r.n_extended);
-    json_array_append_new(a, json_string(b));
+    snprintf(notes[k++], 200, "%zu of %zu elements beyond the computed polar range (post-stall "
+             "model)", pt->r.n_extended, n_el);
   }
   if (pt->r.n_re_outside > 0) {
-    snprintf(b, sizeof b, "%zu elements outside the table's Re range", pt->r.n_re_outside);
-    json_array_append_new(a, json_string(b));
+    snprintf(notes[k++], 200, "%zu of %zu elements outside the table's Re range (nearest curve)",
+             pt->r.n_re_outside, n_el);
   }
   if (pt->r.tip_mach > 0.7) {
-    snprintf(b, sizeof b, "tip Mach %.3f above 0.7: compressibility beyond the correction", pt->r.tip_mach);
-    json_array_append_new(a, json_string(b));
+    snprintf(notes[k++], 200, "tip Mach %.3f above 0.7: compressibility beyond the correction",
+             pt->r.tip_mach);
   }
+  return k;
+}
+
+static void point_warnings(const rotor_point *pt, size_t n_el, char *buf, size_t n)
+{
+  char notes[NOTE_MAX][200];
+  size_t m = point_notes(pt, n_el, notes), used = 0;
+  buf[0] = '\0';
+  for (size_t i = 0; i < m && used < n; i++) {
+    used += (size_t)snprintf(buf + used, n - used, "%s%s", i > 0 ? "; " : "", notes[i]);
+  }
+}
+
+static json_t *warnings_json(const rotor_point *pt, size_t n_el)
+{
+  char notes[NOTE_MAX][200];
+  size_t m = point_notes(pt, n_el, notes);
+  json_t *a = json_array();
+  for (size_t i = 0; i < m; i++) json_array_append_new(a, json_string(notes[i]));
   return a;
 }
 
@@ -433,7 +434,7 @@ int cmd_rotor(int argc, char **argv)
       json_object_set_new(po, "figure_of_merit", cli_json_num(ok, pt->r.figure_of_merit));
       json_object_set_new(po, "tip_mach", cli_json_num(pt->solved, pt->r.tip_mach));
       json_object_set_new(po, "converged", json_boolean(ok));
-      json_object_set_new(po, "warnings", warnings_json(pt));
+      json_object_set_new(po, "warnings", warnings_json(pt, rp.n_elements));
       json_t *ea = json_array();
       for (size_t i = 0; pt->solved && i < rp.n_elements; i++) {
         const ascr_rotor_element *e = &pt->el[i];
@@ -472,7 +473,7 @@ int cmd_rotor(int argc, char **argv)
       const rotor_point *pt = &pts[k];
       int ok = pt->solved && pt->r.converged;
       char w[512];
-      point_warnings(pt, w, sizeof w);
+      point_warnings(pt, rp.n_elements, w, sizeof w);
       for (char *q = w; *q; q++) if (*q == ',' || *q == '"') *q = ' ';
       if (pt->solved) fprintf(fp, "%.6g,%.6g,%.6f,", pt->r.rpm, pt->r.speed_m_s, pt->r.J);
       else fprintf(fp, ",%.6g,,", pt->r.speed_m_s);
@@ -497,7 +498,7 @@ int cmd_rotor(int argc, char **argv)
       if (in->user_file) {
         fprintf(fp, "section  %-10s table from %s\n", blade->section_name[s], in->user_file);
       } else {
-        fprintf(fp, "section  %-10s Re %.3g .. %.3g needed; %zu curves (%zu from cache, %zu computed)\n",
+        fprintf(fp, "section  %-10s Re %.0f .. %.0f needed; %zu curves (%zu from cache, %zu computed)\n",
                 blade->section_name[s], in->re_lo, in->re_hi, in->n_curves, in->from_cache, in->computed);
       }
     }
@@ -506,7 +507,7 @@ int cmd_rotor(int argc, char **argv)
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       char w[512];
-      point_warnings(pt, w, sizeof w);
+      point_warnings(pt, rp.n_elements, w, sizeof w);
       if (!pt->solved) {
         fprintf(fp, "%8s %7.2f   %s\n", "-", pt->r.speed_m_s, w);
         continue;
@@ -526,7 +527,7 @@ int cmd_rotor(int argc, char **argv)
                 "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");
         for (size_t i = 0; i < rp.n_elements; i++) {
           const ascr_rotor_element *e = &pt->el[i];
-          fprintf(fp, "    %7.4f %7.2f %7.2f %9.4g %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s\n",
+          fprintf(fp, "    %7.4f %7.2f %7.2f %9.0f %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s\n",
                   e->r_m / blade->r_tip_m, e->alpha_deg, e->phi_deg, e->re, e->mach, e->cl, e->cd,
                   e->dT_dr_N_m, e->dQ_dr_Nm_m, e->stalled ? "stalled " : "",
                   e->region == ASCR_TABLE_EXTENDED ? "beyond-polar" : "");

@@ -164,7 +164,7 @@ static int read_polars(const char *file, json_t *root, plot_data *d)
     json_t *sec = json_object_get(po, "section");
     int n0 = json_is_string(sec) ? snprintf(f[k].label, sizeof f[k].label, "%.40s, ", json_string_value(sec)) : 0;
     double mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
-    int n1 = snprintf(f[k].label + n0, sizeof f[k].label - (size_t)n0, "Re %.3gk", jnum(po, "re") / 1000.0);
+    int n1 = snprintf(f[k].label + n0, sizeof f[k].label - (size_t)n0, "Re %.0f", jnum(po, "re"));
     if (isfinite(mach) && mach > 0.0) {
       n1 += snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", M %.2g", mach);
     }

@@ -111,6 +111,11 @@ grep -Eq '^ +alpha +cl +cd +L/D +cm +trans_up +trans_lo +cdf +cdp$' "$tmp/pt.out
 "$exe" polar plate:t=3,f=4 --re 6e4 --alpha 3:4:1 > "$tmp/pn.out" 2>&1
 grep -Eq '^ +3\.00 .* none ' "$tmp/pn.out" && ! grep -Eq ' - +[0-9]' "$tmp/pn.out" ||
   { echo "FAIL: polar table does not say none for laminar to the trailing edge"; fail=$((fail + 1)); }
+# rotor notes give their totals and Re is a whole number everywhere (issue 17: "9 elements beyond
+# ..." without "of 40"; Re as 7314, 1.107e+04 and 2e+04 in one output)
+"$exe" rotor "$src/tests/data/blades/two-blade-4412.json" --rpm 3000 --speed 0 --polar-table main="$src/tests/data/naca4412-table.json" --stations > "$tmp/rn.out" 2>&1
+grep -q "of 40 elements stalled" "$tmp/rn.out" && ! grep -Eq '[0-9]e\+0[0-9]' "$tmp/rn.out" ||
+  { echo "FAIL: rotor notes without totals, or Re printed in e-notation"; fail=$((fail + 1)); }
 # no temporary files left behind
 if ls -a "$tmp" | grep -q '\.tmp-\|\.airscrew-tmp-'; then echo "FAIL: temporary file left behind"; fail=$((fail + 1)); fi
 echo "$pass passed, $fail failed"
