@@ -17,14 +17,17 @@
 
 static void plot_help(FILE *fp)
 {
-  fputs("usage: airscrew plot RESULT.json|RESULT.csv --out DIR [--model NAME] [--force]\n"
+  fputs("usage: airscrew plot RESULT.json|RESULT.csv --plot DIR [--model NAME] [--force]\n"
         "\n"
-        "Draw the figures of a result saved with --json or --csv by 'airscrew polar' (polars:\n"
-        "DIR/polar; from JSON with several Re also the Reynolds-number study, DIR/polar-re) or 'airscrew rotor' (CT, CP, efficiency, thrust and power: DIR/rotor;\n"
+        "Draw the figures of a result saved with --json or --csv by 'airscrew polar'\n"
+        "(polars: DIR/polar; from JSON with several Re also the Reynolds-number study,\n"
+        "DIR/polar-re) or 'airscrew rotor' (CT, CP, efficiency, thrust and power: DIR/rotor;\n"
         "spanwise loading: DIR/rotor-spanwise, from JSON with --stations), as SVG and PNG.\n"
         "Files ending in .csv are read as CSV, others as JSON. Unconverged points (null in\n"
         "JSON, converged=false or empty in CSV) are left out. A rotor CSV with a model column\n"
-        "(the demo's rotor-map.csv) is drawn for one model: --model NAME, default the first.\n",
+        "(the demo's rotor-map.csv) is drawn for one model: --model NAME, default the first.\n"
+        "--plot DIR is the figures folder as for flow, polar and rotor (--out DIR, its\n"
+        "earlier name, is still read).\n",
         fp);
 }
 
@@ -184,7 +187,8 @@ int cmd_plot(int argc, char **argv)
     if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
       plot_help(stdout);
       return CLI_EXIT_OK;
-    } else if (strcmp(argv[i], "--out") == 0 && i + 1 < argc) {
+    } else if ((strcmp(argv[i], "--plot") == 0 || strcmp(argv[i], "--out") == 0) && i + 1 < argc) {
+      /* --plot DIR, the figures option of every command; --out DIR, its earlier name here */
       dir = argv[++i];
     } else if (strcmp(argv[i], "--force") == 0) {
       force = 1;
@@ -198,7 +202,7 @@ int cmd_plot(int argc, char **argv)
     }
   }
   if (file == NULL || dir == NULL) {
-    cli_error("plot: give RESULT.json and --out DIR (see airscrew plot --help)");
+    cli_error("plot: give RESULT.json and --plot DIR (see airscrew plot --help)");
     return CLI_EXIT_USAGE;
   }
   if (cli_check_options_only) return CLI_EXIT_OK;
