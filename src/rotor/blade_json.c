@@ -194,8 +194,8 @@ static ascr_status read_stations(const rd *r, json_t *arr, double scale, ascr_bl
 
 static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, ascr_blade *b)
 {
-  static const char *const keys[] = {"format", "name", "blades", "tip_radius", "hub_radius",
-                                     "length_unit", "pitch_offset_deg", "rotation", "sections",
+  static const char *const keys[] = {"format", "name", "blades", "tip_radius", "tip_radius_m",
+                                     "hub_radius", "length_unit", "pitch_offset_deg", "rotation", "sections",
                                      "stations", NULL};
   if (!json_is_object(root)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
@@ -245,32 +245,32 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
     return core_fail(r->err, ASCR_EPARSE,
                      "%s: length_unit: missing (\"m\", \"mm\", \"in\" or \"tip_radius\")", r->file);
   }
+  /* the tip radius: tip_radius in length_unit, or tip_radius_m in metres (issue 17: with
+   * length_unit "tip_radius" the radius cannot be in its own unit, and "tip_radius" then read as
+   * metres surprised; tip_radius_m names the unit; tip_radius is still read there as metres, as
+   * before) */
+  int has_m = json_object_get(root, "tip_radius_m") != NULL;
+  int has_u = json_object_get(root, "tip_radius") != NULL;
+  if (has_m && has_u) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: give one of tip_radius (in length_unit) and "
+                     "tip_radius_m (in metres), not both", r->file);
+  }
   double tip, hub;
+  st = get_number(r, root, has_m ? "tip_radius_m" : "tip_radius", "", 1, 0.0, &tip);
+  if (st == ASCR_OK) st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
+  if (st != ASCR_OK) return st;
   if (fraction) {
-    /* stations as fractions of the tip radius; the radius itself then in metres */
-    st = get_number(r, root, "tip_radius", "", 1, 0.0, &tip);
-    if (st == ASCR_OK) {
-      st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
-    }
-    if (st != ASCR_OK) {
-      return st;
-    }
+    /* stations as fractions of the tip radius, the radius in metres */
     b->r_tip_m = tip;
     b->r_hub_m = hub * tip;
     scale = tip;
   } else {
-    st = get_number(r, root, "tip_radius", "", 1, 0.0, &tip);
-    if (st == ASCR_OK) {
-      st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
-    }
-    if (st != ASCR_OK) {
-      return st;
-    }
-    b->r_tip_m = tip * scale;
+    b->r_tip_m = has_m ? tip : tip * scale;
     b->r_hub_m = hub * scale;
   }
   if (!(b->r_tip_m > 0.0)) {
-    return core_fail(r->err, ASCR_EINVAL, "%s: tip_radius: %g must be > 0", r->file, tip);
+    return core_fail(r->err, ASCR_EINVAL, "%s: %s: %g must be > 0", r->file,
+                     has_m ? "tip_radius_m" : "tip_radius", tip);
   }
   st = get_number(r, root, "pitch_offset_deg", "", 0, 0.0, &b->pitch_offset_deg);
   if (st != ASCR_OK) {

@@ -39,6 +39,34 @@ typedef struct bad_case {
 #define HEAD "{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"tip_radius\",\"tip_radius\":0.1,"
 #define SECS "\"sections\":{\"a\":\"naca4412\"},"
 
+/* The tip radius in metres under its own name (issue 17): with length_unit "tip_radius" the
+ * radius itself is in metres, given as tip_radius_m (or, as before, tip_radius); with a length
+ * unit, tip_radius_m is in metres whatever the unit. Each file below is the same 0.1 m blade. */
+static void test_tip_radius_in_metres(void **state)
+{
+  (void)state;
+  static const char *const texts[] = {
+      "{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"tip_radius\",\"tip_radius_m\":0.1,"
+      "\"hub_radius\":0.2,\"sections\":{\"a\":\"naca4412\"},\"stations\":[{\"r\":0.2,\"chord\":0.15,\"twist_deg\":20},"
+      "{\"r\":1,\"chord\":0.1,\"twist_deg\":10}]}",
+      "{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"tip_radius\",\"tip_radius\":0.1,"
+      "\"hub_radius\":0.2,\"sections\":{\"a\":\"naca4412\"},\"stations\":[{\"r\":0.2,\"chord\":0.15,\"twist_deg\":20},"
+      "{\"r\":1,\"chord\":0.1,\"twist_deg\":10}]}",
+      "{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"mm\",\"tip_radius_m\":0.1,"
+      "\"hub_radius\":20,\"sections\":{\"a\":\"naca4412\"},\"stations\":[{\"r\":20,\"chord\":15,\"twist_deg\":20},"
+      "{\"r\":100,\"chord\":10,\"twist_deg\":10}]}"};
+  for (size_t i = 0; i < 3; i++) {
+    ascr_blade *b = NULL;
+    ascr_errbuf err;
+    ascr_status st = ascr_blade_parse(texts[i], strlen(texts[i]), "tip.json", NULL, &b, &err);
+    if (st != ASCR_OK) fail_msg("case %zu: %s", i, err.msg);
+    ascr_assert_close(b->r_tip_m, 0.1, 1e-12, 0.0, "tip radius");
+    ascr_assert_close(b->r_hub_m, 0.02, 1e-12, 0.0, "hub radius");
+    ascr_assert_close(b->stations[0].chord_m, 0.015, 1e-12, 0.0, "root chord");
+    ascr_blade_free(b);
+  }
+}
+
 static void test_bad_files(void **state)
 {
   (void)state;
@@ -65,6 +93,7 @@ static void test_bad_files(void **state)
       {"{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"ft\"}", ASCR_EPARSE, "length_unit"},
       {"{\"format\":\"airscrew-blade-1\",\"blades\":2,\"format\":\"airscrew-blade-1\"}", ASCR_EPARSE, "bad.json"},
       {HEAD SECS "\"stations\":[{\"r\":0.2,\"chord\":0.1,\"twist_deg\":20}]}", ASCR_EPARSE, "at least 2"},
+      {HEAD "\"tip_radius_m\":0.1," SECS "\"stations\":[]}", ASCR_EPARSE, "not both"},
   };
   for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
     ascr_blade *b = NULL;
@@ -89,6 +118,7 @@ int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_example),
+      cmocka_unit_test(test_tip_radius_in_metres),
       cmocka_unit_test(test_bad_files),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
