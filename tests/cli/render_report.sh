@@ -25,6 +25,14 @@ grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report l
 n_title=$(cat "$tmp/out" "$tmp/err" | grep -c "three-blade prop")
 [ "$n_title" = 1 ] || { echo "FAIL: the demo's title appears $n_title times in its output"; fail=1; }
 grep -q "<svg" "$tmp/demo/report.html" || { echo "FAIL: report has no inline figures"; fail=1; }
+# a hover point gives the thrust it was searched for, or none (issue 13: the vortex search closed
+# its bracket on a jump of the thrust and reported 10,870 rpm with 0.214 N for 0.343 N)
+target=$(grep -o '"thrust_per_rotor_N": *[^,}]*' "$tmp/demo/hover.json" | sed 's/.*: *//')
+for t in $(grep -o '"thrust_N": *[^,}]*' "$tmp/demo/hover.json" | sed 's/.*: *//'); do
+  [ "$t" = null ] && continue
+  awk -v t="$t" -v g="$target" 'BEGIN { d = t - g; if (d < 0) d = -d; exit !(d <= 1e-3 * g) }' ||
+    { echo "FAIL: a hover point reports $t N for a target of $target N"; fail=1; }
+done
 # every element id once in the page (issue 17: the inline figures repeated the plotting library's
 # glyph ids, and a browser drew every figure after the first with the first one's glyphs), and
 # every reference to an id names one that exists
