@@ -89,14 +89,12 @@ static double step_limit(ascr_visc_solver *v, double *rlx_out)
  * Newton iterations of a swept point (bench_visc medians 7 -> 13 and 8 -> 16). */
 static void clamp_shape(ascr_visc_solver *v)
 {
+  const vctx cx = visc_context(v, 0); /* stag_a and xi_min: the same for both sides */
   for (size_t k = 0; k < v->nst; k++) {
     /* floors: wake 1.0001, turbulent wall layer 1.05, laminar 1.8 (below the fits' range) */
     double hmin = v->side[k] == 2 ? 1.0001 : (v->turb[k] ? 1.05 : 1.8);
     double ue = fmax(v->ue[k], 1e-6);
-    if (k == 0 || k == v->nu) {
-      vctx cx = visc_context(v, 0);
-      ue = fmax(cx.stag_a * fmax(v->xi[k], cx.xi_min), 1e-6);
-    }
+    if (k == 0 || k == v->nu) ue = fmax(cx.stag_a * fmax(v->xi[k], cx.xi_min), 1e-6);
     if (v->mm[k] < hmin * ue * v->th[k]) v->mm[k] = hmin * ue * v->th[k];
   }
 }
