@@ -2,9 +2,10 @@
  * Section polars against the UIUC low-speed airfoil tests (Selig et al.; reference/sd7003_*,
  * sd8000_*, clarky_*: every Reynolds number the drag files hold). Figures only (the issue-12 baseline); per (section, Re):
  *   - drag: mean and largest |cd error| at the measured cl, over the measured low-drag range
- *     (points whose cd is at most 1.5 times the run's smallest cd: our definition of "attached");
+ *     (points whose cd is at most 1.5 times the run's smallest cd: our definition of "attached"),
+ *     and the mean signed error (bias, + = computed high);
  *   - lift: mean and largest |cl error| at the measured angle, -2 to 6 deg, from the lift run of
- *     the nearest Re (within 5 %; the up-going branch of the loop only);
+ *     the nearest Re (within 5 %; the up-going branch of the loop only), and the signed mean;
  *   - cl_max: measured (up-going branch) against the sweep's largest cl, -4 to 16 deg;
  *   - converged points of the sweep.
  * Polars: 160 panels, N_crit 9, -4 to 16 deg by 0.5 deg, at the run's average Re.
@@ -114,8 +115,8 @@ int main(int argc, char **argv)
   openblas_set_num_threads(1);
   const char *dir = argc > 1 ? argv[1] : "reference";
   const char *names[] = {"sd7003", "sd8000", "clarky"};
-  printf("%-7s %7s %5s | %-21s | %-19s | %-13s\n", "section", "Re", "conv",
-         "cd err % mean / max (n)", "cl err mean / max (n)", "cl_max calc/meas");
+  printf("%-7s %7s %5s | %-30s | %-29s | %-13s\n", "section", "Re", "conv",
+         "cd err % mean / max / bias (n)", "cl err mean / max / bias (n)", "cl_max calc/meas");
   for (int is = 0; is < 3; is++) {
     char path[512];
     table drag, lift;
@@ -163,18 +164,19 @@ int main(int argc, char **argv)
       {
         polar pl;
         run_polar(v, w, re, &pl);
-        double sd = 0.0, md = 0.0;
+        double sd = 0.0, md = 0.0, bd = 0.0;
         size_t nd = 0;
         for (size_t r = 0; r < drag.nrow; r++) {
           if (drag.v[r][0] != re || drag.v[r][3] > 1.5 * cdmin) continue;
           double c = cd_at_cl(&pl, drag.v[r][2]);
           if (!isfinite(c)) continue;
           double e = fabs(c - drag.v[r][3]) / drag.v[r][3];
+          bd += (c - drag.v[r][3]) / drag.v[r][3];
           sd += e;
           md = fmax(md, e);
           nd++;
         }
-        double sl = 0.0, ml = 0.0, clmax_meas = -INFINITY, aprev = -INFINITY;
+        double sl = 0.0, ml = 0.0, bl = 0.0, clmax_meas = -INFINITY, aprev = -INFINITY;
         size_t nl = 0;
         int up = 1;
         for (size_t r = 0; r < lift.nrow; r++) {
@@ -188,6 +190,7 @@ int main(int argc, char **argv)
           double c = ascr_polar_cl_at_alpha(pl.p, pl.n, a);
           if (!isfinite(c)) continue;
           sl += fabs(c - clm);
+          bl += c - clm;
           ml = fmax(ml, fabs(c - clm));
           nl++;
         }
@@ -195,10 +198,12 @@ int main(int argc, char **argv)
         for (size_t i = 0; i < pl.n; i++) {
           if (pl.p[i].converged) clmax = fmax(clmax, pl.p[i].cl);
         }
-        printf("%-7s %7.0f %2zu/%-2zu | %6.1f / %6.1f (%2zu) | %.3f / %.3f (%2zu) | %5.2f / %5.2f\n",
+        printf("%-7s %7.0f %2zu/%-2zu | %6.1f / %6.1f / %+6.1f (%2zu) | %.3f / %.3f / %+.3f (%2zu) | %5.2f / %5.2f\n",
                names[is], re, pl.n_conv, pl.n,
-               nd ? 100.0 * sd / (double)nd : NAN, nd ? 100.0 * md : NAN, nd,
-               nl ? sl / (double)nl : NAN, nl ? ml : NAN, nl, clmax, clmax_meas);
+               nd ? 100.0 * sd / (double)nd : NAN, nd ? 100.0 * md : NAN,
+               nd ? 100.0 * bd / (double)nd : NAN, nd,
+               nl ? sl / (double)nl : NAN, nl ? ml : NAN, nl ? bl / (double)nl : NAN, nl,
+               clmax, clmax_meas);
         fflush(stdout);
       }
     }
