@@ -11,7 +11,6 @@
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_interp.h>
-#include <gsl/gsl_interp2d.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -37,7 +36,7 @@ struct ascr_polar_table {
   size_t na, ny;             /* grid sizes (ny >= 2) */
   double *agrid, *ygrid;     /* deg, log Re */
   double *zcl, *zcd, *zcm;   /* na x ny, z[j * na + i] */
-  gsl_interp2d *icl, *icd, *icm;
+  gsl_interp **rcl, **rcd, **rcm; /* per row (ny): alpha interpolation of that curve */
 };
 
 ascr_table_options ascr_table_options_defaults(void)
@@ -247,9 +246,14 @@ void ascr_polar_table_free(ascr_polar_table *t)
   free(t->zcl);
   free(t->zcd);
   free(t->zcm);
-  gsl_interp2d_free(t->icl);
-  gsl_interp2d_free(t->icd);
-  gsl_interp2d_free(t->icm);
+  for (size_t j = 0; j < t->ny; j++) {
+    if (t->rcl != NULL) gsl_interp_free(t->rcl[j]);
+    if (t->rcd != NULL) gsl_interp_free(t->rcd[j]);
+    if (t->rcm != NULL) gsl_interp_free(t->rcm[j]);
+  }
+  free(t->rcl);
+  free(t->rcd);
+  free(t->rcm);
   free(t);
 }
 
@@ -384,14 +388,22 @@ ascr_status ascr_polar_table_build(const ascr_table_curve *curves, size_t n_curv
   t->zcl = core_calloc(t->na * t->ny, sizeof *t->zcl);
   t->zcd = core_calloc(t->na * t->ny, sizeof *t->zcd);
   t->zcm = core_calloc(t->na * t->ny, sizeof *t->zcm);
-  const gsl_interp2d_type *kind = t->nc >= 4 ? gsl_interp2d_bicubic : gsl_interp2d_bilinear;
-  t->icl = gsl_interp2d_alloc(kind, t->na, t->ny);
-  t->icd = gsl_interp2d_alloc(kind, t->na, t->ny);
-  t->icm = gsl_interp2d_alloc(kind, t->na, t->ny);
+  t->rcl = core_calloc(t->ny, sizeof *t->rcl);
+  t->rcd = core_calloc(t->ny, sizeof *t->rcd);
+  t->rcm = core_calloc(t->ny, sizeof *t->rcm);
   if (t->agrid == NULL || t->ygrid == NULL || t->zcl == NULL || t->zcd == NULL || t->zcm == NULL ||
-      t->icl == NULL || t->icd == NULL || t->icm == NULL) {
+      t->rcl == NULL || t->rcd == NULL || t->rcm == NULL) {
     st = core_fail(err, ASCR_ENOMEM, "polar table: out of memory");
     goto done;
+  }
+  for (size_t j = 0; j < t->ny; j++) {
+    t->rcl[j] = gsl_interp_alloc(gsl_interp_steffen, t->na);
+    t->rcd[j] = gsl_interp_alloc(gsl_interp_steffen, t->na);
+    t->rcm[j] = gsl_interp_alloc(gsl_interp_steffen, t->na);
+    if (t->rcl[j] == NULL || t->rcd[j] == NULL || t->rcm[j] == NULL) {
+      st = core_fail(err, ASCR_ENOMEM, "polar table: out of memory");
+      goto done;
+    }
   }
   angle_grid(t->agrid);
   for (size_t j = 0; j < t->ny; j++) {
@@ -403,11 +415,13 @@ ascr_status ascr_polar_table_build(const ascr_table_curve *curves, size_t n_curv
                  &t->zcd[j * t->na + i], &t->zcm[j * t->na + i]);
     }
   }
-  if (gsl_interp2d_init(t->icl, t->agrid, t->ygrid, t->zcl, t->na, t->ny) != GSL_SUCCESS ||
-      gsl_interp2d_init(t->icd, t->agrid, t->ygrid, t->zcd, t->na, t->ny) != GSL_SUCCESS ||
-      gsl_interp2d_init(t->icm, t->agrid, t->ygrid, t->zcm, t->na, t->ny) != GSL_SUCCESS) {
-    st = core_fail(err, ASCR_EINVAL, "polar table: interpolation set-up failed");
-    goto done;
+  for (size_t j = 0; j < t->ny; j++) {
+    if (gsl_interp_init(t->rcl[j], t->agrid, t->zcl + j * t->na, t->na) != GSL_SUCCESS ||
+        gsl_interp_init(t->rcd[j], t->agrid, t->zcd + j * t->na, t->na) != GSL_SUCCESS ||
+        gsl_interp_init(t->rcm[j], t->agrid, t->zcm + j * t->na, t->na) != GSL_SUCCESS) {
+      st = core_fail(err, ASCR_EINVAL, "polar table: interpolation set-up failed");
+      goto done;
+    }
   }
 
 done:
@@ -489,6 +503,7 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
   }
   double y = log(re > 1.0 ? re : 1.0);
   const table_curve *c0 = &t->c[0], *c1 = &t->c[t->nc - 1];
+  size_t j0 = 0, j1 = 0; /* rows of the bracketing curves */
   double ylo = t->ygrid[0], yhi = t->ygrid[t->ny - 1];
   if (t->nc == 1) {
     y = t->c[0].logre;
@@ -501,6 +516,7 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
     y = yhi;
     out->re_outside = 1;
     c0 = c1;
+    j0 = j1 = t->nc - 1;
   } else {
     size_t j = 0;
     while (j + 2 < t->nc && t->c[j + 1].logre <= y) {
@@ -508,12 +524,28 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
     }
     c0 = &t->c[j];
     c1 = &t->c[j + 1];
+    j0 = j;
+    j1 = j + 1;
   }
-  out->cl = gsl_interp2d_eval_extrap(t->icl, t->agrid, t->ygrid, t->zcl, a_deg, y, NULL, NULL);
-  out->cd = gsl_interp2d_eval_extrap(t->icd, t->agrid, t->ygrid, t->zcd, a_deg, y, NULL, NULL);
-  out->cm = want_cm ? gsl_interp2d_eval_extrap(t->icm, t->agrid, t->ygrid, t->zcm, a_deg, y, NULL, NULL) : NAN;
+  /* linear in log Re between the two rows (one row: that curve alone) */
+  double v = j1 > j0 ? (y - t->ygrid[j0]) / (t->ygrid[j1] - t->ygrid[j0]) : 0.0;
+  v = v < 0.0 ? 0.0 : (v > 1.0 ? 1.0 : v);
+  double ac = a_deg < t->agrid[0] ? t->agrid[0] : (a_deg > t->agrid[t->na - 1] ? t->agrid[t->na - 1] : a_deg);
+  const double *zl0 = t->zcl + j0 * t->na, *zl1 = t->zcl + j1 * t->na;
+  const double *zd0 = t->zcd + j0 * t->na, *zd1 = t->zcd + j1 * t->na;
+  out->cl = (1.0 - v) * gsl_interp_eval(t->rcl[j0], t->agrid, zl0, ac, NULL) +
+            v * gsl_interp_eval(t->rcl[j1], t->agrid, zl1, ac, NULL);
+  out->cd = (1.0 - v) * gsl_interp_eval(t->rcd[j0], t->agrid, zd0, ac, NULL) +
+            v * gsl_interp_eval(t->rcd[j1], t->agrid, zd1, ac, NULL);
+  if (want_cm) {
+    const double *zm0 = t->zcm + j0 * t->na, *zm1 = t->zcm + j1 * t->na;
+    out->cm = (1.0 - v) * gsl_interp_eval(t->rcm[j0], t->agrid, zm0, ac, NULL) +
+              v * gsl_interp_eval(t->rcm[j1], t->agrid, zm1, ac, NULL);
+  } else {
+    out->cm = NAN;
+  }
   if (out->cd < 1e-4) {
-    out->cd = 1e-4; /* bicubic overshoot guard: drag never vanishes */
+    out->cd = 1e-4; /* guard: drag never vanishes */
   }
   int r0 = curve_region(c0, a_deg), r1 = curve_region(c1, a_deg);
   out->region = r0 > r1 ? r0 : r1;
