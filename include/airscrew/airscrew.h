@@ -16,5 +16,6 @@
 #include "airscrew/ascr_polar.h"
 #include "airscrew/ascr_table.h"
 #include "airscrew/ascr_rotor.h"
+#include "airscrew/ascr_blade_tables.h"
 
 #endif /* AIRSCREW_H */

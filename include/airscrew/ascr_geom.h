@@ -111,6 +111,14 @@ ASCR_EXPORT ascr_status ascr_geom_section_from_spec(const char *spec, ascr_geom_
 /** Nonzero if text has the form of a generator spec (naca..., plate:...). */
 ASCR_EXPORT int ascr_geom_is_spec(const char *text);
 
+/** Open a section named as in a blade file or on a command line: an existing coordinate file
+ *  (ascr_geom_section_read), else a generator spec (ascr_geom_section_from_spec).
+ *  @return ASCR_OK; ASCR_EIO (a folder; unreadable); the reader's or generator's status;
+ *          ASCR_EINVAL when source is neither a file nor a spec (the message lists the spec
+ *          forms). */
+ASCR_EXPORT ascr_status ascr_geom_section_open(const char *source, ascr_geom_section **out,
+                                               ascr_errbuf *err);
+
 /** Repanelling parameters. */
 typedef struct ascr_geom_repanel_params {
   size_t n_panels;       /* panels on the contour (nodes = n_panels + 1), 20 .. 2000 */

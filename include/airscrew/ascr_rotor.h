@@ -115,6 +115,11 @@ typedef struct ascr_rotor_element {
 
 /** Results at one operating point. Numbers of an unconverged point must not be reported as
  *  results (converged = 0). */
+/** A point whose thrust rests more than this share on flagged elements (extended, bridged or
+ *  outside the table's Re range) is reported with low confidence. 10 %: a choice of ours, the
+ *  size of the end-to-end errors the validation set shows with computed polars. */
+#define ASCR_ROTOR_LOW_CONFIDENCE_SHARE 0.10
+
 typedef struct ascr_rotor_result {
   double rpm, speed_m_s;
   double thrust_N, torque_Nm, power_W;
@@ -123,6 +128,11 @@ typedef struct ascr_rotor_result {
   double figure_of_merit;     /* T^1.5 / (P sqrt(2 rho A)) in hover (V = 0, T > 0); else NaN */
   double tip_mach;            /* helical tip Mach number (no induction) */
   size_t n_stalled, n_extended, n_re_outside; /* elements flagged */
+  size_t n_bridged;           /* elements in a bridged gap of their curve */
+  double flagged_thrust_share; /* share of sum |dT| resting on elements whose coefficients are
+                                  not between computed points of their own curves (extended,
+                                  bridged, or Re outside the table) */
+  int low_confidence;         /* flagged_thrust_share > ASCR_ROTOR_LOW_CONFIDENCE_SHARE */
   int converged;              /* every element solved */
 } ascr_rotor_result;
 

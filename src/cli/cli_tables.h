@@ -1,7 +1,6 @@
 /* src/cli/cli_tables.h
- * Section tables for the rotor commands: for every section of a blade, the curves over the
- * Re ladder its operating range needs, read from the cache or computed (in parallel) and
- * stored, or read from a polar-table file the user names.
+ * Section tables for the rotor commands: the options as the command line gives them, passed
+ * to the library's pipeline (ascr_blade_tables_prepare), its notes and errors printed.
  */
 #ifndef ASCR_CLI_TABLES_H
 #define ASCR_CLI_TABLES_H
@@ -24,25 +23,12 @@ void cli_table_opts_init(cli_table_opts *o);
  * $HOME/.cache/airscrew (NULL if none can be named). Static storage. */
 const char *cli_default_cache_dir(void);
 
-typedef struct cli_section_info {
-  char fingerprint[17];
-  double re_lo, re_hi;    /* range the operating points need */
-  size_t n_curves;
-  double re[CLI_MAX_LIST];
-  size_t converged[CLI_MAX_LIST], points[CLI_MAX_LIST];
-  size_t from_cache, computed;
-  const char *user_file;  /* NULL unless the user gave the table */
-  ascr_curve_data *curve; /* the curves of the table (owned) */
-  size_t n_curve;
-} cli_section_info;
+/* The library's tables of a blade (include/airscrew/ascr_blade_tables.h). */
+typedef ascr_section_table_info cli_section_info;
+typedef ascr_blade_tables cli_tables;
 
-typedef struct cli_tables {
-  size_t n;
-  ascr_polar_table **tables;
-  cli_section_info *info;
-} cli_tables;
-
-/* Prepare one table per blade section for rpm in rpm_lo..rpm_hi and speed in v_lo..v_hi.
+/* Prepare one table per blade section for rpm in rpm_lo..rpm_hi and speed in v_lo..v_hi
+ * (ascr_blade_tables_prepare; its notes printed as warnings, a progress line on a terminal).
  * Returns 0 or an exit code (message printed). */
 int cli_tables_prepare(const ascr_blade *b, const ascr_rotor_params *p, double rpm_lo,
                        double rpm_hi, double v_lo, double v_hi, const cli_table_opts *o,

@@ -94,7 +94,7 @@ typedef struct rotor_point {
 /* The notes on one operating point, each a sentence of its own, counts with their totals
  * (issue 17: "34 elements beyond ..." did not say of how many): the same words in the table
  * and in JSON. Returns the number of notes. */
-#define NOTE_MAX 6
+#define NOTE_MAX 8
 static size_t point_notes(const rotor_point *pt, size_t n_el, char notes[NOTE_MAX][200])
 {
   size_t k = 0;
@@ -103,12 +103,20 @@ static size_t point_notes(const rotor_point *pt, size_t n_el, char notes[NOTE_MA
     return k;
   }
   if (!pt->r.converged) snprintf(notes[k++], 200, "not converged");
+  if (pt->r.converged && pt->r.low_confidence) {
+    snprintf(notes[k++], 200, "low confidence: %.0f %% of the thrust on flagged elements",
+             100.0 * pt->r.flagged_thrust_share);
+  }
   if (pt->r.n_stalled > 0) {
     snprintf(notes[k++], 200, "%zu of %zu elements stalled", pt->r.n_stalled, n_el);
   }
   if (pt->r.n_extended > 0) {
     snprintf(notes[k++], 200, "%zu of %zu elements beyond the computed polar range (post-stall "
              "model)", pt->r.n_extended, n_el);
+  }
+  if (pt->r.n_bridged > 0) {
+    snprintf(notes[k++], 200, "%zu of %zu elements in a gap of their polar (bridged)",
+             pt->r.n_bridged, n_el);
   }
   if (pt->r.n_re_outside > 0) {
     snprintf(notes[k++], 200, "%zu of %zu elements outside the table's Re range (nearest curve)",
@@ -434,6 +442,9 @@ int cmd_rotor(int argc, char **argv)
       json_object_set_new(po, "figure_of_merit", cli_json_num(ok, pt->r.figure_of_merit));
       json_object_set_new(po, "tip_mach", cli_json_num(pt->solved, pt->r.tip_mach));
       json_object_set_new(po, "converged", json_boolean(ok));
+      json_object_set_new(po, "confidence",
+                          ok ? json_string(pt->r.low_confidence ? "low" : "normal") : json_null());
+      json_object_set_new(po, "flagged_thrust_share", cli_json_num(ok, pt->r.flagged_thrust_share));
       json_object_set_new(po, "warnings", warnings_json(pt, rp.n_elements));
       json_t *ea = json_array();
       for (size_t i = 0; pt->solved && i < rp.n_elements; i++) {
@@ -453,6 +464,8 @@ int cmd_rotor(int argc, char **argv)
         json_object_set_new(eo, "dQ_dr_Nm_per_m", cli_json_num(eok, e->dQ_dr_Nm_m));
         json_object_set_new(eo, "stalled", json_boolean(e->stalled));
         json_object_set_new(eo, "beyond_polar", json_boolean(e->region == ASCR_TABLE_EXTENDED));
+        json_object_set_new(eo, "bridged", json_boolean(e->region == ASCR_TABLE_BRIDGED));
+        json_object_set_new(eo, "re_outside", json_boolean(e->re_outside));
         json_array_append_new(ea, eo);
       }
       json_object_set_new(po, "stations", ea);
@@ -468,7 +481,8 @@ int cmd_rotor(int argc, char **argv)
   } else if (csv) {
     fprintf(fp, "# blade: %s\n# inflow: %s\n", bname, inflow);
     for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", rotor_cautions[i]);
-    fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,warnings\n", fp);
+    fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,"
+          "confidence,flagged_thrust_share,warnings\n", fp);
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       int ok = pt->solved && pt->r.converged;
@@ -482,9 +496,10 @@ int cmd_rotor(int argc, char **argv)
         if (isfinite(pt->r.efficiency)) fprintf(fp, "%.5f", pt->r.efficiency);
         fputc(',', fp);
         if (isfinite(pt->r.figure_of_merit)) fprintf(fp, "%.5f", pt->r.figure_of_merit);
-        fprintf(fp, ",%.4f,true,%s\n", pt->r.tip_mach, w);
+        fprintf(fp, ",%.4f,true,%s,%.4f,%s\n", pt->r.tip_mach, pt->r.low_confidence ? "low" : "normal",
+                pt->r.flagged_thrust_share, w);
       } else {
-        fprintf(fp, ",,,,,,,,false,%s\n", w);
+        fprintf(fp, ",,,,,,,,false,,,%s\n", w);
       }
     }
   } else {
@@ -527,10 +542,12 @@ int cmd_rotor(int argc, char **argv)
                 "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");
         for (size_t i = 0; i < rp.n_elements; i++) {
           const ascr_rotor_element *e = &pt->el[i];
-          fprintf(fp, "    %7.4f %7.2f %7.2f %9.0f %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s\n",
+          fprintf(fp, "    %7.4f %7.2f %7.2f %9.0f %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s%s%s\n",
                   e->r_m / blade->r_tip_m, e->alpha_deg, e->phi_deg, e->re, e->mach, e->cl, e->cd,
                   e->dT_dr_N_m, e->dQ_dr_Nm_m, e->stalled ? "stalled " : "",
-                  e->region == ASCR_TABLE_EXTENDED ? "beyond-polar" : "");
+                  e->region == ASCR_TABLE_EXTENDED ? "beyond-polar " : "",
+                  e->region == ASCR_TABLE_BRIDGED ? "bridged " : "",
+                  e->re_outside ? "re-outside" : "");
         }
       }
     }

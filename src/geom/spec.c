@@ -12,6 +12,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 
 /* Points per surface used by the generators before repanelling. */
 #define SPEC_POINTS_PER_SIDE 201
@@ -109,4 +110,24 @@ ascr_status ascr_geom_section_from_spec(const char *spec, ascr_geom_section **ou
   memcpy(digits, spec + 4, nd);
   digits[nd] = '\0';
   return ascr_geom_naca(digits, closed, SPEC_POINTS_PER_SIDE, out, err);
+}
+
+ascr_status ascr_geom_section_open(const char *source, ascr_geom_section **out, ascr_errbuf *err)
+{
+  if (source == NULL || out == NULL) {
+    return core_fail(err, ASCR_EINVAL, "section: no source given");
+  }
+  struct stat sb;
+  if (stat(source, &sb) == 0) {
+    if (S_ISDIR(sb.st_mode)) {
+      return core_fail(err, ASCR_EIO, "%s: is a folder, not a section file", source);
+    }
+    return ascr_geom_section_read(source, out, NULL, err);
+  }
+  if (ascr_geom_is_spec(source)) {
+    return ascr_geom_section_from_spec(source, out, err);
+  }
+  return core_fail(err, ASCR_EINVAL,
+                   "%s: no such file, and not a section spec (naca2412, naca23012, naca0012c, "
+                   "plate:t=3,f=4,xf=50)", source);
 }

@@ -275,6 +275,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
   size_t ne = p.n_elements;
   double thrust = 0.0, torque = 0.0;
+  rotor_flags fl = {0, 0, 0, 0, 0.0, 0.0};
   int all_ok = 1;
   for (size_t i = 0; i < ne; i++) {
     double ea = rotor_edge(r0, r1, i, ne), eb = rotor_edge(r0, r1, i + 1, ne);
@@ -322,9 +323,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
       torque += dq * dr;
     }
     all_ok &= ok;
-    res->n_stalled += (size_t)(ok && e.smp.stalled);
-    res->n_extended += (size_t)(ok && e.smp.region == ASCR_TABLE_EXTENDED);
-    res->n_re_outside += (size_t)(ok && e.smp.re_outside);
+    if (ok) rotor_flags_add(&fl, &e.smp, dt, dr);
     if (el != NULL) {
       ascr_rotor_element *o = &el[i];
       o->r_m = e.r;
@@ -366,6 +365,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   res->figure_of_merit = (speed_m_s == 0.0 && thrust > 0.0 && res->power_W > 0.0)
                              ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
   res->tip_mach = hypot(omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
+  rotor_flags_finish(&fl, res);
   return ASCR_OK;
 }
 

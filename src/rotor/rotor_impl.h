@@ -5,6 +5,7 @@
 #define ASCR_ROTOR_IMPL_H
 
 #include "airscrew/ascr_rotor.h"
+#include "airscrew/ascr_table.h"
 
 /* Chord, twist (pitch offset included) and the two sections blended at radius r (inside the
  * blade span): coefficients = (1 - w) * section s0 + w * section s1. */
@@ -15,5 +16,19 @@ void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_
  * r0..r1: sine spacing, fine at the tip where the loading falls to zero and coarse at the root
  * (where close trailing vortices would make the vortex model ill-conditioned). */
 double rotor_edge(double r0, double r1, size_t i, size_t n);
+
+/* Flags of the solved elements of one point: counts, and the thrust magnitudes behind the share
+ * resting on flagged ones. Both inflow models count through here (src/rotor/flags.c). */
+typedef struct rotor_flags {
+  size_t n_stalled, n_extended, n_bridged, n_re_outside;
+  double t_all, t_flagged;
+} rotor_flags;
+
+/* Count one solved element (stalled, extended, bridged, Re outside); dt_dr (N/m) times dr is
+ * its thrust. */
+void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, double dr);
+
+/* The counts, flagged_thrust_share and low_confidence into res. */
+void rotor_flags_finish(const rotor_flags *f, ascr_rotor_result *res);
 
 #endif

@@ -518,6 +518,7 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   /* loads */
   memset(res, 0, sizeof *res);
   double thrust = 0.0, torque = 0.0, rho = p.density_kg_m3;
+  rotor_flags fl = {0, 0, 0, 0, 0.0, 0.0};
   if (ok) {
     induced(&s);
   }
@@ -531,9 +532,7 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     if (conv) {
       thrust += dt * s.dr[i];
       torque += dq * s.dr[i];
-      res->n_stalled += (size_t)q.stalled;
-      res->n_extended += (size_t)(q.region == ASCR_TABLE_EXTENDED);
-      res->n_re_outside += (size_t)q.re_outside;
+      rotor_flags_add(&fl, &q, dt, s.dr[i]);
     }
     if (el != NULL) {
       ascr_rotor_element *o = &el[i];
@@ -575,6 +574,7 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   res->figure_of_merit = (conv && speed_m_s == 0.0 && thrust > 0.0 && res->power_W > 0.0)
                              ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
   res->tip_mach = hypot(s.omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
+  rotor_flags_finish(&fl, res);
   vx_free(&s);
   return ASCR_OK;
 }

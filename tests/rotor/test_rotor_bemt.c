@@ -4,6 +4,7 @@
  */
 #include "ascr_test.h"
 #include "airscrew/ascr_rotor.h"
+#include "airscrew/ascr_table.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -263,6 +264,42 @@ static void test_thrust_rpm_squared(void **state)
   ascr_polar_table_free(tab);
 }
 
+/* Confidence: a linear table flags nothing; a computed curve that stops at 3 deg puts a hover
+ * rotor's elements beyond it (post-stall extension) and its thrust rests on them: low
+ * confidence, counted and shared. */
+static void test_confidence(void **state)
+{
+  (void)state;
+  ascr_polar_table *lin;
+  assert_int_equal(ascr_polar_table_linear(5.7, -2.0 * DEG, 0.015, &lin, NULL), ASCR_OK);
+  double al[13], cl[13], cd[13], cm[13];
+  for (int i = 0; i < 13; i++) {
+    al[i] = -9.0 + i; /* -9 .. 3 deg */
+    cl[i] = 0.1 * (al[i] + 2.0);
+    cd[i] = 0.015;
+    cm[i] = 0.0;
+  }
+  ascr_table_curve c = {5e4, 13, al, cl, cd, cm, NULL};
+  ascr_polar_table *shortc;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &shortc, NULL), ASCR_OK);
+  test_blade a;
+  small_prop(&a, 1.0);
+  ascr_rotor_params p = ascr_rotor_params_defaults();
+  ascr_rotor_result r;
+  const ascr_polar_table *t1[1] = {lin};
+  assert_int_equal(ascr_rotor_bemt(&a.b, t1, &p, 8000.0, 0.0, &r, NULL, NULL), ASCR_OK);
+  assert_true(r.converged);
+  assert_true(r.flagged_thrust_share == 0.0 && !r.low_confidence);
+  const ascr_polar_table *t2[1] = {shortc};
+  assert_int_equal(ascr_rotor_bemt(&a.b, t2, &p, 8000.0, 0.0, &r, NULL, NULL), ASCR_OK);
+  assert_true(r.converged);
+  assert_true(r.n_extended > 0);
+  assert_true(r.flagged_thrust_share > ASCR_ROTOR_LOW_CONFIDENCE_SHARE && r.flagged_thrust_share <= 1.0);
+  assert_true(r.low_confidence);
+  ascr_polar_table_free(lin);
+  ascr_polar_table_free(shortc);
+}
+
 /* Windmilling: at high advance ratio the thrust and shaft power turn negative, and every
  * element still finds its root (the bracket covers phi up to pi). */
 static void test_windmill(void **state)
@@ -336,6 +373,7 @@ int main(void)
       cmocka_unit_test(test_closed_form_hover),  cmocka_unit_test(test_scale_invariance),
       cmocka_unit_test(test_thrust_rpm_squared), cmocka_unit_test(test_windmill),
       cmocka_unit_test(test_bad_input),          cmocka_unit_test(test_isa),
+      cmocka_unit_test(test_confidence),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
