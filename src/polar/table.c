@@ -282,6 +282,27 @@ static size_t angle_grid(double *a)
   return n;
 }
 
+/* Index i of the grid interval [agrid[i], agrid[i+1]] holding a (clamped to the grid), from the
+ * grid's three uniform pieces (angle_grid) without a search. */
+static size_t angle_index(const ascr_polar_table *t, double a)
+{
+  double f;
+  if (a < -40.0) {
+    f = (a + 180.0) / 5.0;
+  } else if (a < 40.0) {
+    f = 28.0 + (a + 40.0) / 0.5;
+  } else {
+    f = 188.0 + (a - 40.0) / 5.0;
+  }
+  long i = (long)floor(f);
+  if (i < 0) i = 0;
+  if (i > (long)t->na - 2) i = (long)t->na - 2;
+  /* guard the rounding at the joins */
+  while (i > 0 && t->agrid[i] > a) i--;
+  while (i + 2 < (long)t->na && t->agrid[i + 1] <= a) i++;
+  return (size_t)i;
+}
+
 static int cmp_curve_re(const void *pa, const void *pb)
 {
   const ascr_table_curve *a = pa, *b = pb;
@@ -531,16 +552,19 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
   double v = j1 > j0 ? (y - t->ygrid[j0]) / (t->ygrid[j1] - t->ygrid[j0]) : 0.0;
   v = v < 0.0 ? 0.0 : (v > 1.0 ? 1.0 : v);
   double ac = a_deg < t->agrid[0] ? t->agrid[0] : (a_deg > t->agrid[t->na - 1] ? t->agrid[t->na - 1] : a_deg);
+  /* the grid interval of ac found once for all six evaluations: a look-up's own accelerator
+   * (a table is shared between threads, so no accelerator is kept in it) */
+  gsl_interp_accel acc = {angle_index(t, ac), 0, 0};
   const double *zl0 = t->zcl + j0 * t->na, *zl1 = t->zcl + j1 * t->na;
   const double *zd0 = t->zcd + j0 * t->na, *zd1 = t->zcd + j1 * t->na;
-  out->cl = (1.0 - v) * gsl_interp_eval(t->rcl[j0], t->agrid, zl0, ac, NULL) +
-            v * gsl_interp_eval(t->rcl[j1], t->agrid, zl1, ac, NULL);
-  out->cd = (1.0 - v) * gsl_interp_eval(t->rcd[j0], t->agrid, zd0, ac, NULL) +
-            v * gsl_interp_eval(t->rcd[j1], t->agrid, zd1, ac, NULL);
+  out->cl = (1.0 - v) * gsl_interp_eval(t->rcl[j0], t->agrid, zl0, ac, &acc) +
+            v * gsl_interp_eval(t->rcl[j1], t->agrid, zl1, ac, &acc);
+  out->cd = (1.0 - v) * gsl_interp_eval(t->rcd[j0], t->agrid, zd0, ac, &acc) +
+            v * gsl_interp_eval(t->rcd[j1], t->agrid, zd1, ac, &acc);
   if (want_cm) {
     const double *zm0 = t->zcm + j0 * t->na, *zm1 = t->zcm + j1 * t->na;
-    out->cm = (1.0 - v) * gsl_interp_eval(t->rcm[j0], t->agrid, zm0, ac, NULL) +
-              v * gsl_interp_eval(t->rcm[j1], t->agrid, zm1, ac, NULL);
+    out->cm = (1.0 - v) * gsl_interp_eval(t->rcm[j0], t->agrid, zm0, ac, &acc) +
+              v * gsl_interp_eval(t->rcm[j1], t->agrid, zm1, ac, &acc);
   } else {
     out->cm = NAN;
   }

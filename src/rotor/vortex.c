@@ -51,6 +51,7 @@ typedef struct vx {
   size_t m;
   /* per element state */
   double *gam, *ua, *ut, *jac, *rhs, *dga, *dgt;
+  double *mu;         /* artificial viscosity of each element at the current state */
   int *ipiv;
   /* homotopy: induced velocity = hs (A Gamma) + (1 - hs) u0, hs = 1 for the model itself */
   double hs;
@@ -215,14 +216,59 @@ static void induced(const vx *s)
   }
 }
 
-/* Residual Gamma_i - g_i at the current Gamma into res; returns its largest magnitude. */
+/* Artificial viscosity where the lift curve falls (after Chattot 2004, AIAA 2004-0220, who adds
+ * mu (Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}) to the nonlinear lifting-line equations of stalled
+ * sections; from memory, the coefficient derived here). A saw-tooth circulation eps (-1)^i on
+ * elements of width dr induces a saw-tooth downwash of about eps/dr (the trailing vortices of
+ * the two neighbouring edges, sum over the alternating far ones: pi/2 times their 2/pi), which
+ * changes g_i = W c cl/2 by -c (dcl/dalpha) eps/(2 dr). Where dcl/dalpha < 0 and c/dr is large
+ * (narrow elements, stalled roots) that mode is a solution of its own: circulation and inflow
+ * alternate from element to element. The term adds 4 mu eps to the mode; with
+ * mu = max(0, -c dcl/dalpha/(2 dr))/4 the mode keeps the factor 1 of a section with zero lift
+ * slope, and the solution is unique again. The term vanishes where the lift curve rises and,
+ * where it does not, it is of order c dr Gamma'': it vanishes as the elements are refined. The
+ * slope is taken by central differences over +-MU_DALPHA. */
+#define MU_DALPHA (0.5 * DEG)
+
+static double slope_at(const vx *s, size_t i)
+{
+  double va = s->v + s->ua[i], vt = s->omega * s->rc[i] - s->ut[i];
+  double w = hypot(va, vt), ph = atan2(va, vt);
+  double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
+  double mach = w / s->p->sound_speed_m_s, a = s->theta[i] - ph;
+  ascr_table_sample qp, qm;
+  polar_table_lookup(s->tables[s->s0[i]], a + MU_DALPHA, re, mach, 0, &qp);
+  polar_table_lookup(s->tables[s->s0[i]], a - MU_DALPHA, re, mach, 0, &qm);
+  double sl = (qp.cl - qm.cl) / (2.0 * MU_DALPHA);
+  if (s->s1[i] != s->s0[i] && s->w[i] > 0.0) {
+    polar_table_lookup(s->tables[s->s1[i]], a + MU_DALPHA, re, mach, 0, &qp);
+    polar_table_lookup(s->tables[s->s1[i]], a - MU_DALPHA, re, mach, 0, &qm);
+    sl = (1.0 - s->w[i]) * sl + s->w[i] * (qp.cl - qm.cl) / (2.0 * MU_DALPHA);
+  }
+  return sl;
+}
+
+/* mu (Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}), the ends with zero-gradient ghost values. */
+static double laplacian(const vx *s, size_t i)
+{
+  double gl = i > 0 ? s->gam[i - 1] : s->gam[i];
+  double gr = i + 1 < s->n ? s->gam[i + 1] : s->gam[i];
+  return s->mu[i] * (gl - 2.0 * s->gam[i] + gr);
+}
+
+/* Residual Gamma_i - g_i - mu_i (Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}) at the current Gamma
+ * into res (mu at the current state); returns its largest magnitude. */
 static double residual_all(vx *s, double *res)
 {
   induced(s);
+  for (size_t i = 0; i < s->n; i++) {
+    double a = slope_at(s, i);
+    s->mu[i] = a < 0.0 ? -0.125 * s->chord[i] * a / s->dr[i] : 0.0;
+  }
   double rmax = 0.0;
   for (size_t i = 0; i < s->n; i++) {
     ascr_table_sample q;
-    res[i] = s->gam[i] - local_g(s, i, s->ua[i], s->ut[i], &q, NULL, NULL);
+    res[i] = s->gam[i] - local_g(s, i, s->ua[i], s->ut[i], &q, NULL, NULL) - laplacian(s, i);
     rmax = fmax(rmax, fabs(res[i]));
   }
   return rmax;
@@ -263,6 +309,11 @@ static int solve_gamma(vx *s)
         s->jac[i * n + j] = (i == j ? 1.0 : 0.0) -
                             s->hs * (s->dga[i] * s->A[i * n + j] + s->dgt[i] * s->T[i * n + j]);
       }
+      /* the viscosity term with mu held (its own dependence on the state left out) */
+      size_t il = i > 0 ? i - 1 : i, ir = i + 1 < n ? i + 1 : i;
+      s->jac[i * n + i] += 2.0 * s->mu[i];
+      s->jac[i * n + il] -= s->mu[i];
+      s->jac[i * n + ir] -= s->mu[i];
     }
     lapack_int info = LAPACKE_dgesv(LAPACK_ROW_MAJOR, (lapack_int)n, 1, s->jac, (lapack_int)n,
                                     s->ipiv, s->rhs, 1);
@@ -342,6 +393,7 @@ static void vx_free(vx *s)
   free(s->s0); free(s->s1); free(s->w); free(s->A); free(s->T); free(s->fa); free(s->ft);
   free(s->psi); free(s->gam); free(s->ua); free(s->ut); free(s->jac); free(s->rhs);
   free(s->dga); free(s->dgt); free(s->ipiv); free(s->ua0); free(s->ut0); free(s->gsave);
+  free(s->mu);
 }
 
 /* Advance per radian of the rigid helical wake: h = (V + w)/Omega, one value for every
@@ -431,12 +483,14 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
   s.ua0 = core_calloc(n, sizeof *s.ua0);
   s.ut0 = core_calloc(n, sizeof *s.ut0);
   s.gsave = core_calloc(n, sizeof *s.gsave);
+  s.mu = core_calloc(n, sizeof *s.mu);
   s.hs = 1.0;
   if (s.edge == NULL || s.core == NULL || s.rc == NULL || s.dr == NULL || s.chord == NULL ||
       s.theta == NULL || s.s0 == NULL || s.s1 == NULL || s.w == NULL || s.A == NULL ||
       s.T == NULL || s.fa == NULL || s.ft == NULL || s.psi == NULL || s.gam == NULL ||
       s.ua == NULL || s.ut == NULL || s.jac == NULL || s.rhs == NULL || s.dga == NULL ||
-      s.dgt == NULL || s.ipiv == NULL || s.ua0 == NULL || s.ut0 == NULL || s.gsave == NULL) {
+      s.dgt == NULL || s.ipiv == NULL || s.ua0 == NULL || s.ut0 == NULL || s.gsave == NULL ||
+      s.mu == NULL) {
     vx_free(&s);
     free(bel);
     return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
