@@ -224,15 +224,15 @@ static void induced(const vx *s)
  * changes g_i = W c cl/2 by -c (dcl/dalpha) eps/(2 dr). Where dcl/dalpha < 0 and c/dr is large
  * (narrow elements, stalled roots) that mode is a solution of its own: circulation and inflow
  * alternate from element to element. The term adds 4 mu eps to the mode; with
- * mu = max(0, -c dcl/dalpha/(2 dr))/4 the mode keeps the factor 1 of a section with zero lift
- * slope, and the solution is unique again. The term vanishes where the lift curve rises and,
+ * mu = max(0, -c dcl/dalpha/(2 dr))/4 (the max rounded, mu_at) the mode keeps the factor 1 of a
+ * section with zero lift slope, and the solution is unique again. The term vanishes where the lift curve rises and,
  * where it does not, it is of order c dr Gamma'': it vanishes as the elements are refined. The
  * slope is taken by central differences over +-MU_DALPHA. */
 #define MU_DALPHA (0.5 * DEG)
 
-static double slope_at(const vx *s, size_t i)
+static double slope_at(const vx *s, size_t i, double ua, double ut)
 {
-  double va = s->v + s->ua[i], vt = s->omega * s->rc[i] - s->ut[i];
+  double va = s->v + ua, vt = s->omega * s->rc[i] - ut;
   double w = hypot(va, vt), ph = atan2(va, vt);
   double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
   double mach = w / s->p->sound_speed_m_s, a = s->theta[i] - ph;
@@ -248,23 +248,35 @@ static double slope_at(const vx *s, size_t i)
   return sl;
 }
 
-/* mu (Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}), the ends with zero-gradient ghost values. */
-static double laplacian(const vx *s, size_t i)
+/* max(0, -a) rounded over MU_ROUND per radian, (sqrt(a^2 + MU_ROUND^2) - a)/2, so that the
+ * residual stays smooth where an element passes cl_max (a hard max left Newton stalled on
+ * that kink: the example blade at 10,000 rpm); below 1e-3 of mu's stalled value where the lift
+ * slope is that of an attached section (a ~ 5.7 per radian) */
+#define MU_ROUND 0.1
+
+static double mu_at(const vx *s, size_t i, double ua, double ut)
+{
+  double a = slope_at(s, i, ua, ut);
+  double neg = 0.5 * (sqrt(a * a + MU_ROUND * MU_ROUND) - a);
+  return 0.125 * s->chord[i] * neg / s->dr[i];
+}
+
+/* Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}, the ends with zero-gradient ghost values. */
+static double second_difference(const vx *s, size_t i)
 {
   double gl = i > 0 ? s->gam[i - 1] : s->gam[i];
   double gr = i + 1 < s->n ? s->gam[i + 1] : s->gam[i];
-  return s->mu[i] * (gl - 2.0 * s->gam[i] + gr);
+  return gl - 2.0 * s->gam[i] + gr;
 }
+
+static double laplacian(const vx *s, size_t i) { return s->mu[i] * second_difference(s, i); }
 
 /* Residual Gamma_i - g_i - mu_i (Gamma_{i+1} - 2 Gamma_i + Gamma_{i-1}) at the current Gamma
  * into res (mu at the current state); returns its largest magnitude. */
 static double residual_all(vx *s, double *res)
 {
   induced(s);
-  for (size_t i = 0; i < s->n; i++) {
-    double a = slope_at(s, i);
-    s->mu[i] = a < 0.0 ? -0.125 * s->chord[i] * a / s->dr[i] : 0.0;
-  }
+  for (size_t i = 0; i < s->n; i++) s->mu[i] = mu_at(s, i, s->ua[i], s->ut[i]);
   double rmax = 0.0;
   for (size_t i = 0; i < s->n; i++) {
     ascr_table_sample q;
@@ -287,8 +299,13 @@ static int solve_gamma(vx *s)
   double *r = s->rhs + n; /* second half of the work array */
   double *g0 = r + n;
   double rmax = residual_all(s, r);
-  int rescues = 0;
-  for (int it = 0; it < 120; it++) {
+  /* ptc > 0: pseudo-transient continuation (Kelley & Keyes 1998, SIAM J. Numer. Anal. 35(2),
+   * "Convergence analysis of pseudo-transient continuation"): ptc I added to the Jacobian, the
+   * step taken without a line search, ptc scaled by the residual ratio (switched evolution
+   * relaxation) so that it falls to zero and Newton's convergence returns. Entered where the
+   * line search finds no descent: a stalled element at a kink or fold of its lift curve. */
+  double ptc = 0.0;
+  for (int it = 0; it < 200; it++) {
     if (!isfinite(rmax)) {
       return 0;
     }
@@ -302,14 +319,21 @@ static int solve_gamma(vx *s)
                    local_g(s, i, s->ua[i] - h, s->ut[i], &t, NULL, NULL)) / (2.0 * h);
       s->dgt[i] = (local_g(s, i, s->ua[i], s->ut[i] + h, &t, NULL, NULL) -
                    local_g(s, i, s->ua[i], s->ut[i] - h, &t, NULL, NULL)) / (2.0 * h);
+      /* the viscosity term's own dependence on the inflow, through mu: folded into dga, dgt
+       * (the residual is Gamma - g - mu L, so -L dmu/du enters as dg/du does) */
+      double lap = second_difference(s, i);
+      if (lap != 0.0) {
+        s->dga[i] += lap * (mu_at(s, i, s->ua[i] + h, s->ut[i]) - mu_at(s, i, s->ua[i] - h, s->ut[i])) / (2.0 * h);
+        s->dgt[i] += lap * (mu_at(s, i, s->ua[i], s->ut[i] + h) - mu_at(s, i, s->ua[i], s->ut[i] - h)) / (2.0 * h);
+      }
       s->rhs[i] = -r[i];
     }
     for (size_t i = 0; i < n; i++) {
       for (size_t j = 0; j < n; j++) {
-        s->jac[i * n + j] = (i == j ? 1.0 : 0.0) -
+        s->jac[i * n + j] = (i == j ? 1.0 + ptc : 0.0) -
                             s->hs * (s->dga[i] * s->A[i * n + j] + s->dgt[i] * s->T[i * n + j]);
       }
-      /* the viscosity term with mu held (its own dependence on the state left out) */
+      /* the viscosity term at the current mu */
       size_t il = i > 0 ? i - 1 : i, ir = i + 1 < n ? i + 1 : i;
       s->jac[i * n + i] += 2.0 * s->mu[i];
       s->jac[i * n + il] -= s->mu[i];
@@ -326,6 +350,22 @@ static int solve_gamma(vx *s)
     double lam = dmax > 0.2 * scale ? 0.2 * scale / dmax : 1.0;
     memcpy(g0, s->gam, n * sizeof *g0);
     double rnew = HUGE_VAL;
+    if (ptc > 0.0) {
+      for (size_t i = 0; i < n; i++) s->gam[i] = g0[i] + lam * s->rhs[i];
+      rnew = residual_all(s, r);
+      if (!(rnew < 10.0 * rmax)) {
+        /* too long a pseudo-time step: back, and shorter */
+        memcpy(s->gam, g0, n * sizeof *g0);
+        rmax = residual_all(s, r);
+        ptc *= 10.0;
+        if (ptc > 1e6) return 0;
+        continue;
+      }
+      ptc *= rnew / rmax;
+      if (ptc < 1e-8) ptc = 0.0; /* back to Newton */
+      rmax = rnew;
+      continue;
+    }
     for (int ls = 0; ls < 12; ls++) {
       for (size_t i = 0; i < n; i++) s->gam[i] = g0[i] + lam * s->rhs[i];
       rnew = residual_all(s, r);
@@ -335,18 +375,10 @@ static int solve_gamma(vx *s)
       lam *= 0.5;
     }
     if (!(rnew < rmax)) {
-      /* no descent along the Newton direction (a fold of a wavy lift curve): a few damped
-       * fixed-point steps Gamma <- Gamma - 0.2 (Gamma - g) move the iterate off it, then Newton
-       * resumes; at most five such rescues */
+      /* no descent along the Newton direction: pseudo-transient steps from here */
       memcpy(s->gam, g0, n * sizeof *g0);
       rmax = residual_all(s, r);
-      if (++rescues > 5) {
-        return rmax <= 1e-6 * scale;
-      }
-      for (int k = 0; k < 20; k++) {
-        for (size_t i = 0; i < n; i++) s->gam[i] -= 0.2 * r[i];
-        rmax = residual_all(s, r);
-      }
+      ptc = 1.0;
       continue;
     }
     rmax = rnew;

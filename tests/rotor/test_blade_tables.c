@@ -97,6 +97,24 @@ static void test_point_alone_and_in_a_map(void **state)
     assert_true(ra.torque_Nm == rw.torque_Nm);
     assert_true(ra.thrust_N > 0.0);
   }
+  /* the vortex model over the map's envelope, hover to windmilling (a 6-inch prop at 15 m/s
+   * and 6000 rpm has J 0.98: its thrust is negative) */
+  size_t nconv = 0, npt = 0, nneg = 0;
+  for (double rpm = 6000.0; rpm <= 30000.0; rpm += 2000.0) {
+    for (double v = 0.0; v <= 15.0; v += 5.0) {
+      ascr_rotor_result r;
+      ascr_status st = ascr_rotor_point(&tb.b, (const ascr_polar_table *const *)wide.tables, NULL,
+                                        ASCR_INFLOW_VORTEX, NULL, rpm, v, &r, NULL, &err);
+      assert_int_equal(st, ASCR_OK);
+      npt++;
+      nconv += (size_t)r.converged;
+      nneg += (size_t)(r.converged && r.thrust_N < 0.0);
+    }
+  }
+  print_message("vortex model over the envelope: %zu of %zu points converged, %zu windmilling\n",
+                nconv, npt, nneg);
+  assert_int_equal(nconv, npt);
+  assert_true(nneg > 0);
   ascr_blade_tables_free(&alone);
   ascr_blade_tables_free(&wide);
   /* a section whose curves never reach above 1 deg has no usable curve: refused, named */
