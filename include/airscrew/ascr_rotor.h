@@ -124,6 +124,9 @@ typedef struct ascr_rotor_result {
   double rpm, speed_m_s;
   double thrust_N, torque_Nm, power_W;
   double CT, CP, CQ, J;       /* CT = T/(rho n^2 D^4), CP = P/(rho n^3 D^5), CQ = Q/(rho n^2 D^5) */
+  double CT_rotor, CP_rotor;  /* rotor convention: T/(rho A (Omega R)^2), P/(rho A (Omega R)^3) */
+  double solidity;            /* B int c dr / (pi R^2) over the blade span */
+  double CT_over_sigma;       /* blade loading CT_rotor / solidity */
   double efficiency;          /* T V / P; NaN unless V > 0, T > 0 and P > 0 */
   double figure_of_merit;     /* T^1.5 / (P sqrt(2 rho A)) in hover (V = 0, T > 0); else NaN */
   double tip_mach;            /* helical tip Mach number (no induction) */

@@ -24,8 +24,9 @@ static const char *const rotor_cautions[] = {
 
 static void rotor_help(FILE *fp)
 {
-  fputs("usage: airscrew rotor BLADE.json --rpm VALUES [--speed VALUES] [options]\n"
-        "       airscrew rotor BLADE.json --thrust N --rpm-range LO:HI [--speed VALUES] [options]\n"
+  fputs("usage: airscrew rotor BLADE.json --rpm VALUES [--airspeed VALUES | --advance-ratio VALUES]\n"
+        "                      [options]\n"
+        "       airscrew rotor BLADE.json --thrust N --rpm-range LO:HI [--airspeed VALUES] [options]\n"
         "\n"
         "Thrust, torque, power and efficiency of a propeller from its blade file. The section\n"
         "polars are computed by airscrew's viscous solver over the Reynolds numbers the\n"
@@ -33,9 +34,13 @@ static void rotor_help(FILE *fp)
         "VALUES is a comma-separated list or START:END:STEP.\n"
         "\n"
         "operating points:\n"
-        "  -n, --rpm VALUES        shaft speeds, rev/min\n"
-        "  -v, --speed VALUES      axial (flight or climb) speeds, m/s (default 0: static)\n"
-        "      --thrust N          find the rpm giving N newtons at each speed (needs --rpm-range)\n"
+        "  -n, --rpm VALUES        rotation rates, rev/min\n"
+        "  -v, --airspeed VALUES   axial airspeeds (flight or climb), m/s (default 0: static);\n"
+        "                          --speed is the same option\n"
+        "      --advance-ratio VALUES  advance ratios J = V/(n D) instead of airspeeds: every\n"
+        "                          rpm is run at every J\n"
+        "      --thrust N          find the rpm giving N newtons at each airspeed (needs\n"
+        "                          --rpm-range)\n"
         "      --rpm-range LO:HI   search range of --thrust, rev/min\n"
         "  -i, --inflow MODEL      bemt (default) or vortex\n"
         "air (default ISA sea level):\n"
@@ -151,7 +156,8 @@ static json_t *warnings_json(const rotor_point *pt, size_t n_el)
 int cmd_rotor(int argc, char **argv)
 {
   static const struct option opts[] = {
-    {"rpm", required_argument, NULL, 'n'},          {"speed", required_argument, NULL, 'v'},
+    {"rpm", required_argument, NULL, 'n'},          {"airspeed", required_argument, NULL, 'v'},
+    {"speed", required_argument, NULL, 'v'},        {"advance-ratio", required_argument, NULL, 'j'},
     {"thrust", required_argument, NULL, 'H'},       {"rpm-range", required_argument, NULL, 'R'},
     {"inflow", required_argument, NULL, 'i'},       {"altitude", required_argument, NULL, 'A'},
     {"density", required_argument, NULL, 'D'},      {"viscosity", required_argument, NULL, 'V'},
@@ -167,6 +173,7 @@ int cmd_rotor(int argc, char **argv)
     {"help", no_argument, NULL, 'h'},               {NULL, 0, NULL, 0}};
   double rpms[ROTOR_MAX_VALUES], speeds[ROTOR_MAX_VALUES] = {0.0};
   size_t nrpm = 0, nspeed = 1;
+  int by_j = 0, by_v = 0; /* speeds given as advance ratios J / as airspeeds */
   double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN;
   double density = NAN, viscosity = NAN, sound = NAN;
   const char *inflow = "bemt";
@@ -180,7 +187,14 @@ int cmd_rotor(int argc, char **argv)
   while ((c = getopt_long(argc, argv, ":n:v:i:p:e:o:h", opts, NULL)) != -1) {
     switch (c) {
     case 'n': if (parse_values("--rpm", optarg, 1.0, 1e6, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
-    case 'v': if (parse_values("--speed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE; break;
+    case 'v':
+      if (parse_values("--airspeed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE;
+      by_v = 1;
+      break;
+    case 'j':
+      if (parse_values("--advance-ratio", optarg, 0.0, 5.0, speeds, &nspeed)) return CLI_EXIT_USAGE;
+      by_j = 1;
+      break;
     case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;
     case 'R': if (cli_parse_pair("--rpm-range", optarg, 1.0, 1e6, &rpm_lo, &rpm_hi)) return CLI_EXIT_USAGE; break;
     case 'i':
@@ -235,7 +249,15 @@ int cmd_rotor(int argc, char **argv)
     cli_error("rotor: --no-cache and --cache-dir exclude each other");
     return CLI_EXIT_USAGE;
   }
+  if (by_j && by_v) {
+    cli_error("rotor: --airspeed and --advance-ratio exclude each other");
+    return CLI_EXIT_USAGE;
+  }
   int trim = !isnan(thrust);
+  if (trim && by_j) {
+    cli_error("rotor: --thrust takes airspeeds (--airspeed), not advance ratios");
+    return CLI_EXIT_USAGE;
+  }
   if (trim && (nrpm > 0 || isnan(rpm_lo))) {
     cli_error("rotor: --thrust needs --rpm-range LO:HI and no --rpm");
     return CLI_EXIT_USAGE;
@@ -296,10 +318,14 @@ int cmd_rotor(int argc, char **argv)
     rmin = fmin(rmin, rpms[i]);
     rmax = fmax(rmax, rpms[i]);
   }
-  double vmin = speeds[0], vmax = speeds[0];
+  /* advance ratios: the airspeed of each point is J n D at its own rpm */
+  double dia = 2.0 * blade->r_tip_m;
+  double vmin = by_j ? speeds[0] * rmin / 60.0 * dia : speeds[0], vmax = vmin;
   for (size_t i = 0; i < nspeed; i++) {
-    vmin = fmin(vmin, speeds[i]);
-    vmax = fmax(vmax, speeds[i]);
+    double lo = by_j ? speeds[i] * rmin / 60.0 * dia : speeds[i];
+    double hi = by_j ? speeds[i] * rmax / 60.0 * dia : speeds[i];
+    vmin = fmin(vmin, lo);
+    vmax = fmax(vmax, hi);
   }
   cli_tables tabs;
   rc = cli_tables_prepare(blade, &rp, rmin, rmax, vmin, vmax, &to, &tabs);
@@ -322,6 +348,7 @@ int cmd_rotor(int argc, char **argv)
     rotor_point *pt = &pts[k];
     pt->el = els + k * rp.n_elements;
     double v = trim ? speeds[k] : speeds[k % nspeed];
+    if (by_j) v = speeds[k % nspeed] * rpms[k / nspeed] / 60.0 * dia;
     if (trim) {
       st = ascr_rotor_rpm_for_thrust(blade, tv, &rp, model, NULL, thrust, v, rpm_lo, rpm_hi, &pt->r,
                                      pt->el, &err);
@@ -394,6 +421,7 @@ int cmd_rotor(int argc, char **argv)
     json_object_set_new(o, "inflow", json_string(inflow));
     json_object_set_new(o, "blades", json_integer(blade->n_blades));
     json_object_set_new(o, "diameter_m", json_real(2.0 * blade->r_tip_m));
+    json_object_set_new(o, "solidity", npt > 0 && pts[0].solved ? json_real(pts[0].r.solidity) : json_null());
     json_t *air = json_object();
     json_object_set_new(air, "density_kg_m3", json_real(rp.density_kg_m3));
     json_object_set_new(air, "viscosity_pa_s", json_real(rp.viscosity_pa_s));
@@ -437,6 +465,9 @@ int cmd_rotor(int argc, char **argv)
       json_object_set_new(po, "CT", cli_json_num(ok, pt->r.CT));
       json_object_set_new(po, "CP", cli_json_num(ok, pt->r.CP));
       json_object_set_new(po, "CQ", cli_json_num(ok, pt->r.CQ));
+      json_object_set_new(po, "CT_rotor", cli_json_num(ok, pt->r.CT_rotor));
+      json_object_set_new(po, "CP_rotor", cli_json_num(ok, pt->r.CP_rotor));
+      json_object_set_new(po, "CT_over_sigma", cli_json_num(ok, pt->r.CT_over_sigma));
       json_object_set_new(po, "J", cli_json_num(pt->solved, pt->r.J));
       json_object_set_new(po, "efficiency", cli_json_num(ok, pt->r.efficiency));
       json_object_set_new(po, "figure_of_merit", cli_json_num(ok, pt->r.figure_of_merit));
@@ -482,7 +513,7 @@ int cmd_rotor(int argc, char **argv)
     fprintf(fp, "# blade: %s\n# inflow: %s\n", bname, inflow);
     for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", rotor_cautions[i]);
     fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,"
-          "confidence,flagged_thrust_share,warnings\n", fp);
+          "confidence,flagged_thrust_share,CT_rotor,CP_rotor,CT_over_sigma,warnings\n", fp);
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       int ok = pt->solved && pt->r.converged;
@@ -496,16 +527,19 @@ int cmd_rotor(int argc, char **argv)
         if (isfinite(pt->r.efficiency)) fprintf(fp, "%.5f", pt->r.efficiency);
         fputc(',', fp);
         if (isfinite(pt->r.figure_of_merit)) fprintf(fp, "%.5f", pt->r.figure_of_merit);
-        fprintf(fp, ",%.4f,true,%s,%.4f,%s\n", pt->r.tip_mach, pt->r.low_confidence ? "low" : "normal",
-                pt->r.flagged_thrust_share, w);
+        fprintf(fp, ",%.4f,true,%s,%.4f,%.6f,%.6f,%.5f,%s\n", pt->r.tip_mach,
+                pt->r.low_confidence ? "low" : "normal", pt->r.flagged_thrust_share, pt->r.CT_rotor,
+                pt->r.CP_rotor, pt->r.CT_over_sigma, w);
       } else {
-        fprintf(fp, ",,,,,,,,false,,,%s\n", w);
+        fprintf(fp, ",,,,,,,,false,,,,,,%s\n", w);
       }
     }
   } else {
     fprintf(fp, "blade    %s\n", bname);
-    fprintf(fp, "rotor    %d blades, diameter %.1f mm, inflow model %s\n", blade->n_blades,
-            2000.0 * blade->r_tip_m, inflow);
+    fprintf(fp, "rotor    %d blades, diameter %.1f mm, solidity %.4f, inflow model %s\n",
+            blade->n_blades, 2000.0 * blade->r_tip_m, npt > 0 ? pts[0].r.solidity : NAN, inflow);
+    fprintf(fp, "         CT, CP propeller convention (n rev/s, D); CT/sig = T/(rho A (Omega R)^2)"
+            " / solidity\n");
     fprintf(fp, "air      density %.4f kg/m3, viscosity %.4g Pa s, speed of sound %.1f m/s\n",
             rp.density_kg_m3, rp.viscosity_pa_s, rp.sound_speed_m_s);
     for (size_t s = 0; s < tabs.n; s++) {
@@ -517,8 +551,8 @@ int cmd_rotor(int argc, char **argv)
                 blade->section_name[s], in->re_lo, in->re_hi, in->n_curves, in->from_cache, in->computed);
       }
     }
-    fprintf(fp, "\n%8s %7s %6s %9s %10s %9s %8s %8s %6s %6s  %s\n", "rpm", "V m/s", "J", "thrust N",
-            "torque Nm", "power W", "CT", "CP", "eta", "FM", "notes");
+    fprintf(fp, "\n%8s %7s %6s %9s %10s %9s %8s %8s %6s %6s %7s  %s\n", "rpm", "V m/s", "J", "thrust N",
+            "torque Nm", "power W", "CT", "CP", "eta", "FM", "CT/sig", "notes");
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       char w[512];
@@ -534,9 +568,9 @@ int cmd_rotor(int argc, char **argv)
       char eta[16] = "-", fm[16] = "-";
       if (isfinite(pt->r.efficiency)) snprintf(eta, sizeof eta, "%.3f", pt->r.efficiency);
       if (isfinite(pt->r.figure_of_merit)) snprintf(fm, sizeof fm, "%.3f", pt->r.figure_of_merit);
-      fprintf(fp, "%8.0f %7.2f %6.3f %9.4f %10.5f %9.3f %8.5f %8.5f %6s %6s  %s\n", pt->r.rpm,
+      fprintf(fp, "%8.0f %7.2f %6.3f %9.4f %10.5f %9.3f %8.5f %8.5f %6s %6s %7.4f  %s\n", pt->r.rpm,
               pt->r.speed_m_s, pt->r.J, pt->r.thrust_N, pt->r.torque_Nm, pt->r.power_W, pt->r.CT,
-              pt->r.CP, eta, fm, w);
+              pt->r.CP, eta, fm, pt->r.CT_over_sigma, w);
       if (stations) {
         fprintf(fp, "    %7s %7s %7s %9s %6s %7s %8s %9s %11s  %s\n", "r/R", "alpha", "phi", "Re",
                 "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");

@@ -348,24 +348,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   }
   gsl_root_fsolver_free(solver);
 
-  double n = rpm / 60.0, d = 2.0 * b->r_tip_m, rho = p.density_kg_m3;
-  res->rpm = rpm;
-  res->speed_m_s = speed_m_s;
-  res->converged = all_ok;
-  res->thrust_N = thrust;
-  res->torque_Nm = torque;
-  res->power_W = torque * omega;
-  res->CT = thrust / (rho * n * n * pow(d, 4));
-  res->CP = res->power_W / (rho * n * n * n * pow(d, 5));
-  res->CQ = torque / (rho * n * n * pow(d, 5));
-  res->J = speed_m_s / (n * d);
-  res->efficiency = (speed_m_s > 0.0 && thrust > 0.0 && res->power_W > 0.0)
-                        ? thrust * speed_m_s / res->power_W : NAN;
-  double area = ASCR_PI * b->r_tip_m * b->r_tip_m;
-  res->figure_of_merit = (speed_m_s == 0.0 && thrust > 0.0 && res->power_W > 0.0)
-                             ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
-  res->tip_mach = hypot(omega * b->r_tip_m, speed_m_s) / p.sound_speed_m_s;
-  rotor_flags_finish(&fl, res);
+  rotor_point_finish(b, &p, rpm, speed_m_s, thrust, torque, all_ok, &fl, res);
   return ASCR_OK;
 }
 

@@ -18,7 +18,7 @@ void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_
 double rotor_edge(double r0, double r1, size_t i, size_t n);
 
 /* Flags of the solved elements of one point: counts, and the thrust magnitudes behind the share
- * resting on flagged ones. Both inflow models count through here (src/rotor/flags.c). */
+ * resting on flagged ones. Both inflow models count through here (src/rotor/result.c). */
 typedef struct rotor_flags {
   size_t n_stalled, n_extended, n_bridged, n_re_outside;
   double t_all, t_flagged;
@@ -30,5 +30,12 @@ void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, d
 
 /* The counts, flagged_thrust_share and low_confidence into res. */
 void rotor_flags_finish(const rotor_flags *f, ascr_rotor_result *res);
+
+/* Every figure of a point into res from its thrust (N) and torque (N m) at rpm and axial speed
+ * v (m/s): power, the propeller and rotor coefficients, solidity, efficiency or figure of merit
+ * (converged points only), tip Mach number, and the flags (rotor_flags_finish). */
+void rotor_point_finish(const ascr_blade *b, const ascr_rotor_params *p, double rpm, double v,
+                        double thrust, double torque, int converged, const rotor_flags *f,
+                        ascr_rotor_result *res);
 
 #endif

@@ -252,6 +252,21 @@ static void test_thrust_rpm_squared(void **state)
   ascr_assert_close(r2.power_W / r1.power_W, 8.0, 1e-8, 0.0, "P ~ rpm^3");
   ascr_assert_close(r2.figure_of_merit, r1.figure_of_merit, 1e-8, 0.0, "FM independent of rpm");
   assert_true(r1.figure_of_merit > 0.3 && r1.figure_of_merit < 0.85); /* common practice range */
+  /* rotor convention (Leishman 2006, ch. 2): with Omega = 2 pi n and D = 2R,
+   * CT_rotor = CT 4/pi^3 and CP_rotor = CP 4/pi^4 (our algebra) */
+  ascr_assert_close(r1.CT_rotor, r1.CT * 4.0 / (PI * PI * PI), 1e-12, 0.0, "CT rotor convention");
+  ascr_assert_close(r1.CP_rotor, r1.CP * 4.0 / (PI * PI * PI * PI), 1e-12, 0.0, "CP rotor convention");
+  ascr_assert_close(r1.CT_over_sigma, r1.CT_rotor / r1.solidity, 1e-14, 0.0, "CT/sigma");
+  {
+    /* area solidity B int c dr / (pi R^2) against the blade's stations (trapezoid of the
+     * piecewise-linear chord, which the midpoint sum of 40 elements approaches) */
+    double ci = 0.0;
+    for (size_t k = 1; k < a.b.n_stations; k++) {
+      ci += 0.5 * (a.st[k].chord_m + a.st[k - 1].chord_m) * (a.st[k].r_m - a.st[k - 1].r_m);
+    }
+    double sig = a.b.n_blades * ci / (PI * a.b.r_tip_m * a.b.r_tip_m);
+    ascr_assert_close(r1.solidity, sig, 2e-3, 0.0, "solidity");
+  }
   /* the rpm for 2.25 x the 8000-rpm thrust is 12000 (T ~ rpm^2) */
   ascr_rotor_result rt;
   ascr_errbuf err;
