@@ -38,4 +38,12 @@ void rotor_point_finish(const ascr_blade *b, const ascr_rotor_params *p, double 
                         double thrust, double torque, int converged, const rotor_flags *f,
                         ascr_rotor_result *res);
 
+/* The vortex model from a BEMT solution at the same point (its result bres and elements bel give
+ * the starting circulation and wake pitch); p and vp complete and checked (point.c). */
+ascr_status rotor_vortex_from(const ascr_blade *b, const ascr_polar_table *const *tables,
+                              const ascr_rotor_params *p, const ascr_vortex_params *vp,
+                              double rpm, double speed_m_s, const ascr_rotor_result *bres,
+                              const ascr_rotor_element *bel, ascr_rotor_result *res,
+                              ascr_rotor_element *el, ascr_errbuf *err);
+
 #endif

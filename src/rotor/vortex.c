@@ -451,36 +451,16 @@ static double wake_pitch(const vx *s)
   return (s->v + wbar) / s->omega;
 }
 
-ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const *tables,
+ascr_status rotor_vortex_from(const ascr_blade *b, const ascr_polar_table *const *tables,
                               const ascr_rotor_params *pin, const ascr_vortex_params *vpin,
-                              double rpm, double speed_m_s, ascr_rotor_result *res,
+                              double rpm, double speed_m_s, const ascr_rotor_result *bres,
+                              const ascr_rotor_element *bel, ascr_rotor_result *res,
                               ascr_rotor_element *el, ascr_errbuf *err)
 {
-  ascr_rotor_params p = pin != NULL ? *pin : ascr_rotor_params_defaults();
-  ascr_vortex_params vp = vpin != NULL ? *vpin : ascr_vortex_params_defaults();
-  if (res == NULL) {
-    return core_fail(err, ASCR_EINVAL, "vortex model: no result");
-  }
-  if (!(vp.wake_length_radii >= 1.0 && vp.wake_length_radii <= 200.0) ||
-      !(vp.near_step_deg >= 1.0 && vp.near_step_deg <= 45.0) ||
-      !(vp.core_widths > 0.0 && vp.core_widths <= 2.0) || vp.max_wake_iter < 1 ||
-      vp.max_wake_iter > 1000 || p.n_elements > 400) {
-    return core_fail(err, ASCR_EINVAL,
-                     "vortex model: settings out of range (wake 1..200 radii, step 1..45 deg, core "
-                     "0..2 element widths, 1..1000 wake updates, at most 400 elements)");
-  }
-  /* BEMT first: checks the input, and gives the starting circulation and wake pitch */
+  ascr_rotor_params p = *pin;
+  ascr_vortex_params vp = *vpin;
   size_t n = p.n_elements;
-  ascr_rotor_element *bel = core_calloc(n, sizeof *bel);
-  if (bel == NULL) {
-    return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
-  }
-  ascr_rotor_result br;
-  ascr_status st = ascr_rotor_bemt(b, tables, &p, rpm, speed_m_s, &br, bel, err);
-  if (st != ASCR_OK) {
-    free(bel);
-    return st;
-  }
+  const ascr_rotor_result br = *bres;
   vx s;
   memset(&s, 0, sizeof s);
   s.b = b;
@@ -524,7 +504,6 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
       s.dgt == NULL || s.ipiv == NULL || s.ua0 == NULL || s.ut0 == NULL || s.gsave == NULL ||
       s.mu == NULL) {
     vx_free(&s);
-    free(bel);
     return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
   }
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
@@ -557,7 +536,6 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
    * induced velocities first */
   double *hedge = core_calloc(n + 1, sizeof *hedge);
   if (hedge == NULL) {
-    free(bel);
     vx_free(&s);
     return core_fail(err, ASCR_ENOMEM, "vortex model: out of memory");
   }
@@ -565,7 +543,6 @@ ascr_status ascr_rotor_vortex(const ascr_blade *b, const ascr_polar_table *const
     s.ua[i] = br.converged && bel[i].converged ? bel[i].v_axial_m_s : wsum / asum;
     s.ut[i] = br.converged && bel[i].converged ? bel[i].v_swirl_m_s : 0.0;
   }
-  free(bel);
   const double hmin = 0.005 * b->r_tip_m; /* at least 0.5 % of the tip speed */
   int ok = 0, wake_ok = 0;
   double hprev = 0.0;
