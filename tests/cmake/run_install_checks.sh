@@ -3,7 +3,8 @@
 #  1. every exported symbol of the shared library starts with ascr_;
 #  2. every public header compiles on its own, as C17 and as C++;
 #  3. a consumer program builds against the installed library through the CMake package and
-#     through pkg-config, and runs.
+#     through pkg-config, and runs;
+#  4. the example blade_performance (blade file -> tables -> points) builds and runs.
 # usage: run_install_checks.sh BUILD_DIR SOURCE_DIR
 set -eu
 build=$1; src=$2
@@ -30,6 +31,12 @@ cmake -S "$src/tests/cmake/consumer" -B "$tmp/cbuild" -DCMAKE_PREFIX_PATH="$pref
   && cmake --build "$tmp/cbuild" >> "$tmp/c.log" 2>&1 \
   && LD_LIBRARY_PATH="$libdir" "$tmp/cbuild/consumer" \
   && pass=$((pass+1)) || { echo "FAIL: CMake consumer"; cat "$tmp/c.log"; fail=$((fail+1)); }
+
+# blade file to performance through the library's table pipeline (a polar-table file for the
+# section, so that nothing is computed here)
+LD_LIBRARY_PATH="$libdir" "$tmp/cbuild/blade_performance" "$src/tests/data/blades/two-blade-4412.json" 6000 \
+    "main=$src/tests/data/naca4412-table.json" \
+  && pass=$((pass+1)) || { echo "FAIL: blade_performance example"; fail=$((fail+1)); }
 
 PKG_CONFIG_PATH="$libdir/pkgconfig" cc -std=c17 -o "$tmp/pkgc" "$src/tests/cmake/consumer/main.c" \
   $(PKG_CONFIG_PATH="$libdir/pkgconfig" pkg-config --cflags --libs airscrew) -lgsl \
