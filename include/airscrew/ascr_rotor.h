@@ -127,6 +127,9 @@ typedef struct ascr_rotor_result {
   double CT_rotor, CP_rotor;  /* rotor convention: T/(rho A (Omega R)^2), P/(rho A (Omega R)^3) */
   double solidity;            /* B int c dr / (pi R^2) over the blade span */
   double CT_over_sigma;       /* blade loading CT_rotor / solidity */
+  double re_075;              /* chord Reynolds number at 0.75 R without induction,
+                                 rho c sqrt((0.75 Omega R)^2 + V^2) / mu: the reference Re of
+                                 small-propeller tests */
   double efficiency;          /* T V / P; NaN unless V > 0, T > 0 and P > 0 */
   double figure_of_merit;     /* T^1.5 / (P sqrt(2 rho A)) in hover (V = 0, T > 0); else NaN */
   double tip_mach;            /* helical tip Mach number (no induction) */
@@ -146,6 +149,19 @@ ASCR_EXPORT ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_ta
                                         const ascr_rotor_params *p, double rpm, double speed_m_s,
                                         ascr_rotor_result *res, ascr_rotor_element *el,
                                         ascr_errbuf *err);
+
+/** The span of a rotor point over several section-table sets (e.g. N_crit low, nominal, high:
+ *  the transition-uncertainty band). */
+typedef struct ascr_rotor_band {
+  double thrust_N[2], power_W[2], efficiency[2]; /* [min, max]; efficiency NaN unless every
+                                                    result has one */
+  double re_075;        /* chord Reynolds number at 0.75 R of the first result (as re_075) */
+  int complete;         /* every result converged (else the band is over the converged ones) */
+  size_t n_used;        /* converged results in the band */
+} ascr_rotor_band;
+
+/** Band of n results of one operating point (NaN band when none converged). */
+ASCR_EXPORT void ascr_rotor_band_of(const ascr_rotor_result *r, size_t n, ascr_rotor_band *out);
 
 /** Settings of the vortex (helical-wake lifting-line) model. Defaults from the convergence
  *  study in docs/theory/rotor.md ("Vortex model: wake length and discretisation"). */

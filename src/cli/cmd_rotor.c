@@ -49,6 +49,9 @@ static void rotor_help(FILE *fp)
         "      --sound-speed A     m/s\n"
         "section tables:\n"
         "      --ncrit N, --turbulence PCT, --trip-upper X, --trip-lower X   as for polar\n"
+        "      --ncrit-range LO:HI also solve every point with tables at N_crit LO and HI and\n"
+        "                          report the band thrust, power and efficiency span over the\n"
+        "                          three (transition uncertainty; tables of their own, cached)\n"
         "      --table-alpha A:B:S angles of the computed curves (default -8:16:1)\n"
         "  -p, --panels N          panels on each section (default 160)\n"
         "      --polar-table NAME=FILE  use a polar-table file for section NAME\n"
@@ -93,6 +96,9 @@ typedef struct rotor_point {
   ascr_rotor_result r;
   ascr_rotor_element *el;
   int solved;       /* the solver ran and filled r */
+  int banded;       /* band filled (--ncrit-range) */
+  ascr_rotor_result band_lo; /* the point at N_crit LO, until the band is formed */
+  ascr_rotor_band band;
   char note[ASCR_ERRBUF_SIZE]; /* why there is no result */
 } rotor_point;
 
@@ -169,12 +175,12 @@ int cmd_rotor(int argc, char **argv)
     {"elements", required_argument, NULL, 'e'},     {"stations", no_argument, NULL, 's'},
     {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
-    {"plot", required_argument, NULL, 'G'},
+    {"plot", required_argument, NULL, 'G'},          {"ncrit-range", required_argument, NULL, 'B'},
     {"help", no_argument, NULL, 'h'},               {NULL, 0, NULL, 0}};
   double rpms[ROTOR_MAX_VALUES], speeds[ROTOR_MAX_VALUES] = {0.0};
   size_t nrpm = 0, nspeed = 1;
   int by_j = 0, by_v = 0; /* speeds given as advance ratios J / as airspeeds */
-  double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN;
+  double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN, nc_lo = NAN, nc_hi = NAN;
   double density = NAN, viscosity = NAN, sound = NAN;
   const char *inflow = "bemt";
   cli_table_opts to;
@@ -232,6 +238,9 @@ int cmd_rotor(int argc, char **argv)
     case 'e': if (cli_parse_size("--elements", optarg, 8, 400, &rp.n_elements)) return CLI_EXIT_USAGE; break;
     case 's': stations = 1; break;
     case 'G': plotdir = optarg; break;
+    case 'B':
+      if (cli_parse_pair("--ncrit-range", optarg, 0.5, 20.0, &nc_lo, &nc_hi)) return CLI_EXIT_USAGE;
+      break;
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
     case 'o': outpath = optarg; break;
@@ -378,6 +387,42 @@ int cmd_rotor(int argc, char **argv)
     rc = CLI_EXIT_ANALYSIS;
   }
   if (rc != 0) goto done;
+  /* transition-uncertainty band: every solved point again at N_crit LO and HI (tables of their
+   * own, cached like the nominal ones), at the nominal point's rpm and airspeed */
+  if (!isnan(nc_lo)) {
+    for (int side = 0; side < 2 && rc == 0; side++) {
+      cli_table_opts tb = to;
+      tb.vo.ncrit = side == 0 ? nc_lo : nc_hi;
+      tb.vo.turbulence = NAN;
+      cli_tables tt;
+      rc = cli_tables_prepare(blade, &rp, rmin, rmax, vmin, vmax, &tb, &tt);
+      if (rc) break;
+      const ascr_polar_table *const *tw = (const ascr_polar_table *const *)tt.tables;
+      for (size_t k = 0; k < npt && rc == 0; k++) {
+        rotor_point *pt = &pts[k];
+        if (!pt->solved || !isfinite(pt->r.rpm)) continue;
+        ascr_rotor_result rr[3];
+        rr[0] = pt->r;
+        st = ascr_rotor_point(blade, tw, &rp, model, NULL, pt->r.rpm, pt->r.speed_m_s, &rr[1], NULL,
+                              &err);
+        if (st != ASCR_OK) {
+          cli_error("%s", err.msg);
+          rc = cli_exit_for(st);
+          break;
+        }
+        if (side == 1) {
+          rr[2] = rr[1];
+          rr[1] = pt->band_lo;
+          ascr_rotor_band_of(rr, 3, &pt->band);
+          pt->banded = 1;
+        } else {
+          pt->band_lo = rr[1];
+        }
+      }
+      cli_tables_free(&tt);
+    }
+    if (rc != 0) goto done;
+  }
 
   FILE *fp = out.fp;
   const char *bname = blade->name != NULL ? blade->name : argv[optind];
@@ -422,6 +467,12 @@ int cmd_rotor(int argc, char **argv)
     json_object_set_new(o, "blades", json_integer(blade->n_blades));
     json_object_set_new(o, "diameter_m", json_real(2.0 * blade->r_tip_m));
     json_object_set_new(o, "solidity", npt > 0 && pts[0].solved ? json_real(pts[0].r.solidity) : json_null());
+    if (!isnan(nc_lo)) {
+      json_t *nr = json_array();
+      json_array_append_new(nr, json_real(nc_lo));
+      json_array_append_new(nr, json_real(nc_hi));
+      json_object_set_new(o, "ncrit_range", nr);
+    }
     json_t *air = json_object();
     json_object_set_new(air, "density_kg_m3", json_real(rp.density_kg_m3));
     json_object_set_new(air, "viscosity_pa_s", json_real(rp.viscosity_pa_s));
@@ -468,6 +519,20 @@ int cmd_rotor(int argc, char **argv)
       json_object_set_new(po, "CT_rotor", cli_json_num(ok, pt->r.CT_rotor));
       json_object_set_new(po, "CP_rotor", cli_json_num(ok, pt->r.CP_rotor));
       json_object_set_new(po, "CT_over_sigma", cli_json_num(ok, pt->r.CT_over_sigma));
+      json_object_set_new(po, "re_075", cli_json_num(pt->solved, pt->r.re_075));
+      if (pt->banded) {
+        json_t *tb = json_array(), *pb = json_array(), *eb = json_array();
+        for (int q = 0; q < 2; q++) {
+          json_array_append_new(tb, cli_json_num(isfinite(pt->band.thrust_N[q]), pt->band.thrust_N[q]));
+          json_array_append_new(pb, cli_json_num(isfinite(pt->band.power_W[q]), pt->band.power_W[q]));
+          json_array_append_new(eb, cli_json_num(isfinite(pt->band.efficiency[q]), pt->band.efficiency[q]));
+        }
+        json_object_set_new(po, "thrust_band_N", tb);
+        json_object_set_new(po, "power_band_W", pb);
+        json_object_set_new(po, "efficiency_band", isfinite(pt->band.efficiency[0]) ? eb : json_null());
+        if (!isfinite(pt->band.efficiency[0])) json_decref(eb);
+        json_object_set_new(po, "band_complete", json_boolean(pt->band.complete));
+      }
       json_object_set_new(po, "J", cli_json_num(pt->solved, pt->r.J));
       json_object_set_new(po, "efficiency", cli_json_num(ok, pt->r.efficiency));
       json_object_set_new(po, "figure_of_merit", cli_json_num(ok, pt->r.figure_of_merit));
@@ -513,7 +578,9 @@ int cmd_rotor(int argc, char **argv)
     fprintf(fp, "# blade: %s\n# inflow: %s\n", bname, inflow);
     for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", rotor_cautions[i]);
     fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,"
-          "confidence,flagged_thrust_share,CT_rotor,CP_rotor,CT_over_sigma,warnings\n", fp);
+          "confidence,flagged_thrust_share,CT_rotor,CP_rotor,CT_over_sigma,re_075,thrust_band_lo_N,"
+          "thrust_band_hi_N,power_band_lo_W,power_band_hi_W,efficiency_band_lo,efficiency_band_hi,"
+          "warnings\n", fp);
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       int ok = pt->solved && pt->r.converged;
@@ -527,11 +594,18 @@ int cmd_rotor(int argc, char **argv)
         if (isfinite(pt->r.efficiency)) fprintf(fp, "%.5f", pt->r.efficiency);
         fputc(',', fp);
         if (isfinite(pt->r.figure_of_merit)) fprintf(fp, "%.5f", pt->r.figure_of_merit);
-        fprintf(fp, ",%.4f,true,%s,%.4f,%.6f,%.6f,%.5f,%s\n", pt->r.tip_mach,
+        fprintf(fp, ",%.4f,true,%s,%.4f,%.6f,%.6f,%.5f,%.0f", pt->r.tip_mach,
                 pt->r.low_confidence ? "low" : "normal", pt->r.flagged_thrust_share, pt->r.CT_rotor,
-                pt->r.CP_rotor, pt->r.CT_over_sigma, w);
+                pt->r.CP_rotor, pt->r.CT_over_sigma, pt->r.re_075);
+        const double bv[6] = {pt->band.thrust_N[0], pt->band.thrust_N[1], pt->band.power_W[0],
+                              pt->band.power_W[1], pt->band.efficiency[0], pt->band.efficiency[1]};
+        for (int q = 0; q < 6; q++) {
+          fputc(',', fp);
+          if (pt->banded && isfinite(bv[q])) fprintf(fp, "%.6g", bv[q]);
+        }
+        fprintf(fp, ",%s\n", w);
       } else {
-        fprintf(fp, ",,,,,,,,false,,,,,,%s\n", w);
+        fprintf(fp, ",,,,,,,,false,,,,,,,,,,,,,%s\n", w);
       }
     }
   } else {
@@ -551,8 +625,8 @@ int cmd_rotor(int argc, char **argv)
                 blade->section_name[s], in->re_lo, in->re_hi, in->n_curves, in->from_cache, in->computed);
       }
     }
-    fprintf(fp, "\n%8s %7s %6s %9s %10s %9s %8s %8s %6s %6s %7s  %s\n", "rpm", "V m/s", "J", "thrust N",
-            "torque Nm", "power W", "CT", "CP", "eta", "FM", "CT/sig", "notes");
+    fprintf(fp, "\n%8s %7s %6s %9s %10s %9s %8s %8s %6s %6s %7s %7s  %s\n", "rpm", "V m/s", "J", "thrust N",
+            "torque Nm", "power W", "CT", "CP", "eta", "FM", "CT/sig", "Re0.75", "notes");
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
       char w[512];
@@ -568,9 +642,18 @@ int cmd_rotor(int argc, char **argv)
       char eta[16] = "-", fm[16] = "-";
       if (isfinite(pt->r.efficiency)) snprintf(eta, sizeof eta, "%.3f", pt->r.efficiency);
       if (isfinite(pt->r.figure_of_merit)) snprintf(fm, sizeof fm, "%.3f", pt->r.figure_of_merit);
-      fprintf(fp, "%8.0f %7.2f %6.3f %9.4f %10.5f %9.3f %8.5f %8.5f %6s %6s %7.4f  %s\n", pt->r.rpm,
+      fprintf(fp, "%8.0f %7.2f %6.3f %9.4f %10.5f %9.3f %8.5f %8.5f %6s %6s %7.4f %7.0f  %s\n", pt->r.rpm,
               pt->r.speed_m_s, pt->r.J, pt->r.thrust_N, pt->r.torque_Nm, pt->r.power_W, pt->r.CT,
-              pt->r.CP, eta, fm, pt->r.CT_over_sigma, w);
+              pt->r.CP, eta, fm, pt->r.CT_over_sigma, pt->r.re_075, w);
+      if (pt->banded) {
+        char eb[64] = "";
+        if (isfinite(pt->band.efficiency[0])) {
+          snprintf(eb, sizeof eb, ", efficiency %.3f .. %.3f", pt->band.efficiency[0], pt->band.efficiency[1]);
+        }
+        fprintf(fp, "%8s N_crit %g .. %g: thrust %.4f .. %.4f N, power %.3f .. %.3f W%s%s\n", "", nc_lo,
+                nc_hi, pt->band.thrust_N[0], pt->band.thrust_N[1], pt->band.power_W[0],
+                pt->band.power_W[1], eb, pt->band.complete ? "" : " (not every N_crit converged)");
+      }
       if (stations) {
         fprintf(fp, "    %7s %7s %7s %9s %6s %7s %8s %9s %11s  %s\n", "r/R", "alpha", "phi", "Re",
                 "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");

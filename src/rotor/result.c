@@ -68,5 +68,39 @@ void rotor_point_finish(const ascr_blade *b, const ascr_rotor_params *p, double 
   res->figure_of_merit = (converged && v == 0.0 && thrust > 0.0 && res->power_W > 0.0)
                              ? pow(thrust, 1.5) / (res->power_W * sqrt(2.0 * rho * area)) : NAN;
   res->tip_mach = hypot(vtip, v) / p->sound_speed_m_s;
+  {
+    double c75, tw, w;
+    size_t s0, s1;
+    rotor_blade_at(b, fmin(fmax(0.75 * r, r0), r1), &c75, &tw, &s0, &s1, &w);
+    res->re_075 = rho * c75 * hypot(0.75 * vtip, v) / p->viscosity_pa_s;
+  }
   rotor_flags_finish(f, res);
+}
+
+void ascr_rotor_band_of(const ascr_rotor_result *r, size_t n, ascr_rotor_band *out)
+{
+  out->thrust_N[0] = out->power_W[0] = out->efficiency[0] = INFINITY;
+  out->thrust_N[1] = out->power_W[1] = out->efficiency[1] = -INFINITY;
+  out->re_075 = n > 0 ? r[0].re_075 : NAN;
+  out->n_used = 0;
+  int eta = 1;
+  for (size_t i = 0; i < n; i++) {
+    if (!r[i].converged) continue;
+    out->n_used++;
+    out->thrust_N[0] = fmin(out->thrust_N[0], r[i].thrust_N);
+    out->thrust_N[1] = fmax(out->thrust_N[1], r[i].thrust_N);
+    out->power_W[0] = fmin(out->power_W[0], r[i].power_W);
+    out->power_W[1] = fmax(out->power_W[1], r[i].power_W);
+    if (isfinite(r[i].efficiency)) {
+      out->efficiency[0] = fmin(out->efficiency[0], r[i].efficiency);
+      out->efficiency[1] = fmax(out->efficiency[1], r[i].efficiency);
+    } else {
+      eta = 0;
+    }
+  }
+  out->complete = n > 0 && out->n_used == n;
+  if (out->n_used == 0) {
+    out->thrust_N[0] = out->thrust_N[1] = out->power_W[0] = out->power_W[1] = NAN;
+  }
+  if (out->n_used == 0 || !eta) out->efficiency[0] = out->efficiency[1] = NAN;
 }

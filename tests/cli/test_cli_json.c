@@ -377,7 +377,31 @@ static void test_cli_rotor_json_contract(void **state)
       sum += num(e, "dT_dr_N_per_m") * (rr - rl);
     }
     ascr_assert_close(sum, t, 0.02, 0.0, "stations integrate to the thrust");
+    /* rotor convention (issue 13): CT_rotor = T/(rho A (Omega R)^2), CT/sigma with sigma the
+     * top-level solidity; the confidence of every converged point said */
+    double omr = 2.0 * 3.14159265358979323846 * n * d / 2.0, area = 3.14159265358979323846 * d * d / 4.0;
+    ascr_assert_close(num(p, "CT_rotor"), t / (rho * area * omr * omr), 1e-8, 0.0, "CT_rotor");
+    ascr_assert_close(num(p, "CT_over_sigma"), num(p, "CT_rotor") / num(j, "solidity"), 1e-8, 0.0, "CT/sigma");
+    assert_true(json_is_string(json_object_get(p, "confidence")));
+    assert_true(num(p, "re_075") > 1e4);
   }
+  json_decref(j);
+  /* the N_crit band: [min, max] that holds the nominal value (a polar-table file serves every
+   * N_crit here, so the band is closed up on it) */
+  j = run_json("rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm 7000 "
+               "--airspeed 9 --ncrit-range 5:11 --polar-table main=" ASCR_SOURCE_DIR
+               "/tests/data/naca4412-table.json --json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  assert_int_equal(json_array_size(json_object_get(j, "ncrit_range")), 2);
+  json_t *p0 = json_array_get(json_object_get(j, "points"), 0);
+  json_t *tb = json_object_get(p0, "thrust_band_N");
+  assert_int_equal(json_array_size(tb), 2);
+  double t0 = num(p0, "thrust_N");
+  assert_true(json_number_value(json_array_get(tb, 0)) <= t0 && json_number_value(json_array_get(tb, 1)) >= t0);
+  assert_int_equal(json_array_size(json_object_get(p0, "power_band_W")), 2);
+  assert_int_equal(json_array_size(json_object_get(p0, "efficiency_band")), 2);
+  assert_true(json_is_true(json_object_get(p0, "band_complete")));
   json_decref(j);
 }
 

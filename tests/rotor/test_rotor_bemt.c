@@ -315,6 +315,35 @@ static void test_confidence(void **state)
   ascr_polar_table_free(shortc);
 }
 
+/* The band over several results of one point: min and max over the converged ones, efficiency
+ * only where every result has one, complete only when all converged. */
+static void test_band(void **state)
+{
+  (void)state;
+  ascr_rotor_result r[3];
+  memset(r, 0, sizeof r);
+  for (int i = 0; i < 3; i++) {
+    r[i].converged = 1;
+    r[i].thrust_N = 1.0 + 0.1 * i;
+    r[i].power_W = 10.0 - i;
+    r[i].efficiency = 0.5 + 0.01 * i;
+    r[i].re_075 = 4e4;
+  }
+  ascr_rotor_band b;
+  ascr_rotor_band_of(r, 3, &b);
+  assert_true(b.complete && b.n_used == 3);
+  assert_true(b.thrust_N[0] == 1.0 && fabs(b.thrust_N[1] - 1.2) < 1e-15);
+  assert_true(b.power_W[0] == 8.0 && b.power_W[1] == 10.0);
+  assert_true(b.efficiency[0] == 0.5 && fabs(b.efficiency[1] - 0.52) < 1e-15);
+  r[2].converged = 0;
+  r[1].efficiency = NAN;
+  ascr_rotor_band_of(r, 3, &b);
+  assert_false(b.complete);
+  assert_int_equal(b.n_used, 2);
+  assert_true(fabs(b.thrust_N[1] - 1.1) < 1e-15);
+  assert_true(isnan(b.efficiency[0]) && isnan(b.efficiency[1]));
+}
+
 /* Windmilling: at high advance ratio the thrust and shaft power turn negative, and every
  * element still finds its root (the bracket covers phi up to pi). */
 static void test_windmill(void **state)
@@ -388,7 +417,7 @@ int main(void)
       cmocka_unit_test(test_closed_form_hover),  cmocka_unit_test(test_scale_invariance),
       cmocka_unit_test(test_thrust_rpm_squared), cmocka_unit_test(test_windmill),
       cmocka_unit_test(test_bad_input),          cmocka_unit_test(test_isa),
-      cmocka_unit_test(test_confidence),
+      cmocka_unit_test(test_confidence),        cmocka_unit_test(test_band),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
