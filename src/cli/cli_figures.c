@@ -109,8 +109,8 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   enum { MAXG = 12 };
   double rpms[MAXG], spds[MAXG];
   size_t nr = distinct(p, np, 0, rpms, MAXG), nv = distinct(p, np, 1, spds, MAXG);
-  double *buf = calloc(7 * np + 1, sizeof *buf);
-  plot_series *sr = calloc(5 * MAXG + 1, sizeof *sr);
+  double *buf = calloc(13 * np + 1, sizeof *buf);
+  plot_series *sr = calloc(7 * MAXG + 1, sizeof *sr);
   char (*lab)[48] = calloc(2 * MAXG, sizeof *lab);
   if (buf == NULL || sr == NULL || lab == NULL) {
     free(buf);
@@ -122,6 +122,10 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   /* by rpm: J, CT, CP, eta ordered by speed; by speed: rpm, thrust ordered by rpm */
   double *J = buf, *CT = buf + np, *CP = buf + 2 * np, *ET = buf + 3 * np;
   double *RP = buf + 4 * np, *TH = buf + 5 * np, *PW = buf + 6 * np;
+  /* bands: per speed series of m points, the x values twice and the lower then upper edges */
+  double *BX = buf + 7 * np, *BT = buf + 9 * np, *BP = buf + 11 * np;
+  plot_series *thr = sr + 5 * MAXG, *pwr = sr + 3 * MAXG; /* up to 2 nv each (band, line) */
+  size_t nthr = 0, npwr = 0, boff = 0;
   size_t off = 0;
   for (size_t g = 0; g < nr; g++) {
     size_t start = off;
@@ -139,7 +143,11 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
     snprintf(lab[g], sizeof lab[g], "%.0f rpm", rpms[g]);
     sr[g] = (plot_series){lab[g], off - start, J + start, CT + start, off - start < 2};
     sr[MAXG + g] = (plot_series){NULL, off - start, J + start, CP + start, off - start < 2};
-    sr[2 * MAXG + g] = (plot_series){NULL, off - start, J + start, ET + start, off - start < 2};
+    /* efficiency exists only in forward flight: markers where a series has fewer than two
+     * finite values (a hover point and one forward point drew nothing) */
+    size_t nfin = 0;
+    for (size_t q = start; q < off; q++) nfin += (size_t)isfinite(ET[q]);
+    sr[2 * MAXG + g] = (plot_series){NULL, off - start, J + start, ET + start, nfin < 2};
   }
   off = 0;
   for (size_t v = 0; v < nv; v++) {
@@ -155,16 +163,36 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
       }
     }
     snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "%.3g m/s", spds[v]);
-    sr[3 * MAXG + v] = (plot_series){lab[MAXG + v], off - start, RP + start, TH + start, off - start < 2};
-    sr[4 * MAXG + v] = (plot_series){NULL, off - start, RP + start, PW + start, off - start < 2};
+    size_t m = off - start;
+    int banded = 0;
+    for (size_t g = 0, q = 0; g < nr; g++) {
+      for (size_t i = 0; i < np; i++) {
+        if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
+          BX[boff + q] = BX[boff + m + q] = p[i].rpm;
+          BT[boff + q] = p[i].thrust_band[0];
+          BT[boff + m + q] = p[i].thrust_band[1];
+          BP[boff + q] = p[i].power_band[0];
+          BP[boff + m + q] = p[i].power_band[1];
+          banded |= isfinite(p[i].thrust_band[0]);
+          q++;
+        }
+      }
+    }
+    if (banded && m >= 2) {
+      thr[nthr++] = (plot_series){NULL, 2 * m, BX + boff, BT + boff, 2};
+      pwr[npwr++] = (plot_series){NULL, 2 * m, BX + boff, BP + boff, 2};
+    }
+    boff += 2 * m;
+    thr[nthr++] = (plot_series){lab[MAXG + v], m, RP + start, TH + start, m < 2};
+    pwr[npwr++] = (plot_series){NULL, m, RP + start, PW + start, m < 2};
   }
   char t0[160], base[4200];
   snprintf(t0, sizeof t0, "thrust coefficient, %.28s", blade);
   plot_panel pan[6] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
                        {"power coefficient", "advance ratio J", "C#dP#u = P/(#gr n#u3#d D#u5#d)", sr + MAXG, nr},
                        {"efficiency", "advance ratio J", "#gy = T V / P", sr + 2 * MAXG, nr},
-                       {"thrust", "shaft speed (rpm)", "thrust (N)", sr + 3 * MAXG, nv},
-                       {"shaft power", "shaft speed (rpm)", "power (W)", sr + 4 * MAXG, nv},
+                       {"thrust", "rotation rate (rpm)", "thrust (N)", thr, nthr},
+                       {"shaft power", "rotation rate (rpm)", "power (W)", pwr, npwr},
                        {"", "", "", NULL, 0}};
   snprintf(base, sizeof base, "%s/rotor", dir);
   int rc = plot_figure(base, NULL, 2, 3, pan, 5);

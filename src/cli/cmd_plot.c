@@ -155,6 +155,22 @@ static int csv_to_result(const char *file, const char *model, json_t **out)
     } else if (rc == 0) {
       json_t *pt = json_object();
       for (size_t k = 0; k < nneed; k++) json_object_set(pt, need[k], v[k]);
+      /* the N_crit band columns, where the file has them filled (rotor --ncrit-range) */
+      static const char *const bc[2][2] = {{"thrust_band_lo_N", "thrust_band_hi_N"},
+                                           {"power_band_lo_W", "power_band_hi_W"}};
+      static const char *const bn[2] = {"thrust_band_N", "power_band_W"};
+      for (int q = 0; q < 2; q++) {
+        int c0 = cli_csv_col(&t, bc[q][0]), c1 = cli_csv_col(&t, bc[q][1]);
+        if (c0 < 0 || c1 < 0) continue;
+        const char *a = t.cell[r * t.ncol + (size_t)c0], *b = t.cell[r * t.ncol + (size_t)c1];
+        char *e0 = NULL, *e1 = NULL;
+        double x0 = a != NULL ? strtod(a, &e0) : NAN, x1 = b != NULL ? strtod(b, &e1) : NAN;
+        if (a == NULL || b == NULL || e0 == a || e1 == b || *e0 != '\0' || *e1 != '\0') continue;
+        json_t *arr = json_array();
+        json_array_append_new(arr, json_real(x0));
+        json_array_append_new(arr, json_real(x1));
+        json_object_set_new(pt, bn[q], arr);
+      }
       json_array_append_new(list, pt);
     }
     for (size_t k = 0; k < nneed; k++) json_decref(v[k]);

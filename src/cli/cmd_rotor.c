@@ -444,6 +444,10 @@ int cmd_rotor(int argc, char **argv)
       fr[k].eta = ok ? pt->r.efficiency : NAN;
       fr[k].thrust = ok ? pt->r.thrust_N : NAN;
       fr[k].power = ok ? pt->r.power_W : NAN;
+      for (int q = 0; q < 2; q++) {
+        fr[k].thrust_band[q] = ok && pt->banded ? pt->band.thrust_N[q] : NAN;
+        fr[k].power_band[q] = ok && pt->banded ? pt->band.power_W[q] : NAN;
+      }
       if (ok) {
         fr[k].ns = rp.n_elements;
         fr[k].r_over_R = sb + 2 * k * rp.n_elements;

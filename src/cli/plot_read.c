@@ -196,6 +196,16 @@ static int read_rotor(const char *file, json_t *root, plot_data *d)
                       &f[k].thrust, &f[k].power};
     rc = jnums(file, "points", k, p, keys, out, 8);
     if (rc != 0) break;
+    /* the N_crit band, where the result has one (a list of two numbers; anything else: none) */
+    const char *bk[2] = {"thrust_band_N", "power_band_W"};
+    double *bd[2] = {f[k].thrust_band, f[k].power_band};
+    for (int q = 0; q < 2; q++) {
+      json_t *a = json_object_get(p, bk[q]);
+      int okb = json_is_array(a) && json_array_size(a) == 2 && json_is_number(json_array_get(a, 0)) &&
+                json_is_number(json_array_get(a, 1));
+      bd[q][0] = okb ? json_number_value(json_array_get(a, 0)) : NAN;
+      bd[q][1] = okb ? json_number_value(json_array_get(a, 1)) : NAN;
+    }
     json_t *st = json_object_get(p, "stations");
     size_t ns = json_array_size(st);
     if (ns > 0 && ns <= 4000) {
