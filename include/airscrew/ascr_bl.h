@@ -82,6 +82,20 @@ ASCR_EXPORT ascr_status ascr_bl_march(const double *s, const double *ue, size_t 
  *  (Mack 1977): N_crit = -8.43 - 2.4 ln(Tu / 100). Returns NaN for Tu <= 0. */
 ASCR_EXPORT double ascr_bl_ncrit_from_turbulence(double tu_percent);
 
+/** A named transition setting for the conditions a propeller designer meets (surface finish,
+ *  inflow), as a critical amplification exponent with the basis of its value. */
+typedef struct ascr_transition_preset {
+  const char *name;   /* e.g. "tunnel", "rotor-inflow", "printed-rough" */
+  double ncrit;
+  const char *basis;  /* where the value comes from ("common practice" where it is that) */
+} ascr_transition_preset;
+
+/** The presets (static storage), *n receives their count. */
+ASCR_EXPORT const ascr_transition_preset *ascr_transition_presets(size_t *n);
+
+/** The preset called name, or NULL. */
+ASCR_EXPORT const ascr_transition_preset *ascr_transition_preset_find(const char *name);
+
 #ifdef __cplusplus
 }
 #endif

@@ -20,6 +20,7 @@
 #include "bl/bl_impl.h"
 
 #include <math.h>
+#include <string.h>
 
 double bl_amplification_rate(double hk, double theta, double rth)
 {
@@ -55,4 +56,40 @@ double ascr_bl_ncrit_from_turbulence(double tu_percent)
 {
   if (!(tu_percent > 0.0)) return NAN;
   return -8.43 - 2.4 * log(tu_percent / 100.0);
+}
+
+/* Named settings. Values other than the tunnel's are common practice, not measurements of
+ * ours; Mack's relation (above) is quoted beside them as the turbulence level each stands for,
+ * though it is meant for wind-tunnel turbulence, not for roughness. */
+static const ascr_transition_preset presets[] = {
+    {"quiet-air", 11.0,
+     "smooth surface in calm free air; common practice (N_crit 11-12 is usual for free flight; "
+     "Mack 1977 gives 11 at Tu 0.03 %)"},
+    {"tunnel", 9.0,
+     "smooth model in a low-turbulence wind tunnel (Tu about 0.07 %: Mack 1977 gives 9.0), the "
+     "conditions of the UIUC and NACA low-speed data"},
+    {"sanded", 7.0,
+     "a sanded or painted printed blade; common practice (Mack 1977: Tu about 0.15 %)"},
+    {"rotor-inflow", 5.0,
+     "a rotor blade in the disturbed inflow of a hovering rotor (the other blades' wakes, "
+     "room or gust turbulence); common practice (Mack 1977: Tu about 0.3 %)"},
+    {"printed-rough", 3.0,
+     "an as-printed blade with layer lines (filament or coarse resin print): roughness of that "
+     "size brings transition close behind the leading edge; common practice (a trip near the "
+     "leading edge is the alternative; Mack 1977: Tu about 0.8 %)"},
+};
+
+const ascr_transition_preset *ascr_transition_presets(size_t *n)
+{
+  if (n != NULL) *n = sizeof presets / sizeof presets[0];
+  return presets;
+}
+
+const ascr_transition_preset *ascr_transition_preset_find(const char *name)
+{
+  if (name == NULL) return NULL;
+  for (size_t i = 0; i < sizeof presets / sizeof presets[0]; i++) {
+    if (strcmp(presets[i].name, name) == 0) return &presets[i];
+  }
+  return NULL;
 }

@@ -131,13 +131,15 @@ int cli_parse_range(const char *opt, const char *text, double lo, double hi, dou
 
 /* Viscous options shared by flow and polar. */
 typedef struct cli_visc_opts {
+  const char *preset; /* --transition NAME given (its N_crit is in ncrit) */
   double ncrit;       /* NaN: default or from turbulence */
   double turbulence;  /* percent; NaN: not given */
   double trip_upper;  /* x/c; NaN: none */
   double trip_lower;
 } cli_visc_opts;
 void cli_visc_opts_init(cli_visc_opts *o);
-/* Option codes: 'N' --ncrit, 'T' --turbulence, 'U' --trip-upper, 'L' --trip-lower. */
+/* Option codes: 'N' --ncrit, 'T' --turbulence, 'W' --transition, 'U' --trip-upper,
+ * 'L' --trip-lower. */
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg);
 ascr_visc_params cli_visc_params(const cli_visc_opts *o, double re, double mach);
 

@@ -512,6 +512,7 @@ int cli_parse_range(const char *opt, const char *text, double lo, double hi, dou
 
 void cli_visc_opts_init(cli_visc_opts *o)
 {
+  o->preset = NULL;
   o->ncrit = NAN;
   o->turbulence = NAN;
   o->trip_upper = NAN;
@@ -520,19 +521,36 @@ void cli_visc_opts_init(cli_visc_opts *o)
 
 int cli_visc_opts_parse(cli_visc_opts *o, int code, const char *arg)
 {
+  /* which of the three set N_crit so far: a second, different one is refused */
+  int had_n = !isnan(o->ncrit) && o->preset == NULL, had_t = !isnan(o->turbulence);
+  int had_w = o->preset != NULL;
+  if ((code == 'N' && (had_t || had_w)) || (code == 'T' && (had_n || had_w)) ||
+      (code == 'W' && (had_n || had_t))) {
+    cli_error("--ncrit, --turbulence and --transition exclude each other");
+    return 1;
+  }
   switch (code) {
   case 'N':
-    if (!isnan(o->turbulence)) {
-      cli_error("--ncrit and --turbulence exclude each other");
-      return 1;
-    }
     return cli_parse_double("--ncrit", arg, 0.5, 20.0, &o->ncrit);
   case 'T':
-    if (!isnan(o->ncrit)) {
-      cli_error("--ncrit and --turbulence exclude each other");
+    return cli_parse_double("--turbulence", arg, 0.0001, 5.0, &o->turbulence);
+  case 'W': {
+    const ascr_transition_preset *p = ascr_transition_preset_find(arg);
+    if (p == NULL) {
+      size_t n;
+      const ascr_transition_preset *all = ascr_transition_presets(&n);
+      char names[256] = "";
+      for (size_t i = 0; i < n; i++) {
+        size_t l = strlen(names);
+        snprintf(names + l, sizeof names - l, "%s%s", i > 0 ? ", " : "", all[i].name);
+      }
+      cli_error("--transition: '%s' is not a preset (%s)", arg, names);
       return 1;
     }
-    return cli_parse_double("--turbulence", arg, 0.0001, 5.0, &o->turbulence);
+    o->preset = p->name;
+    o->ncrit = p->ncrit;
+    return 0;
+  }
   case 'U':
     return cli_parse_double("--trip-upper", arg, 0.0, 1.0, &o->trip_upper);
   case 'L':

@@ -29,6 +29,8 @@ static void flow_help(FILE *fp)
         "  -m, --mach M          free-stream Mach number (inviscid 0 .. 0.95, viscous 0 .. 0.7)\n"
         "      --ncrit N         critical amplification exponent (default 9)\n"
         "      --turbulence PCT  free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
+        "      --transition NAME  N_crit of a named condition: quiet-air 11, tunnel 9, sanded 7,\n"
+        "                         rotor-inflow 5, printed-rough 3 (common practice; user guide)\n"
         "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
         "  -p, --panels N        panels on the contour (default 160)\n"
@@ -419,6 +421,7 @@ int cmd_flow(int argc, char **argv)
     {"output", required_argument, NULL, 'o'}, {"force", no_argument, NULL, 'F'},
     {"re", required_argument, NULL, 'R'},     {"help", no_argument, NULL, 'h'},
     {"ncrit", required_argument, NULL, 'N'},  {"turbulence", required_argument, NULL, 'T'},
+    {"transition", required_argument, NULL, 'W'},
     {"trip-upper", required_argument, NULL, 'U'}, {"trip-lower", required_argument, NULL, 'L'},
     {"plot", required_argument, NULL, 'G'},   {"history", no_argument, NULL, 'H'},
     {NULL, 0, NULL, 0}};
@@ -450,7 +453,7 @@ int cmd_flow(int argc, char **argv)
       if (cli_parse_double("--re", optarg, 1e3, 1e8, &re)) return CLI_EXIT_USAGE;
       have_re = 1;
       break;
-    case 'N': case 'T': case 'U': case 'L':
+    case 'N': case 'T': case 'W': case 'U': case 'L':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       have_visc_opt = 1;
       break;

@@ -34,6 +34,8 @@ static void polar_help(FILE *fp)
         "      --ncrit-range LO:HI  also sweep at N_crit LO and HI and report the band each\n"
         "                         point spans over the three (transition uncertainty)\n"
         "      --turbulence PCT   free-stream turbulence in percent; sets N_crit (Mack 1977)\n"
+        "      --transition NAME   N_crit of a named condition: quiet-air 11, tunnel 9, sanded 7,\n"
+        "                         rotor-inflow 5, printed-rough 3 (common practice; user guide)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
         "  -p, --panels N         panels on the contour (default 160)\n"
@@ -69,7 +71,7 @@ int cmd_polar(int argc, char **argv)
   static const struct option opts[] = {
     {"re", required_argument, NULL, 'r'},        {"alpha", required_argument, NULL, 'a'},
     {"mach", required_argument, NULL, 'm'},      {"ncrit", required_argument, NULL, 'N'},
-    {"turbulence", required_argument, NULL, 'T'}, {"trip-upper", required_argument, NULL, 'U'},
+    {"turbulence", required_argument, NULL, 'T'}, {"transition", required_argument, NULL, 'W'}, {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'}, {"panels", required_argument, NULL, 'p'},
     {"json", no_argument, NULL, 'J'},            {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
@@ -97,7 +99,7 @@ int cmd_polar(int argc, char **argv)
     case 'm':
       if (cli_parse_list("--mach", optarg, 0.0, 0.7, machs, &nmach)) return CLI_EXIT_USAGE;
       break;
-    case 'N': case 'T': case 'U': case 'L':
+    case 'N': case 'T': case 'W': case 'U': case 'L':
       if (cli_visc_opts_parse(&vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
     case 'p':

@@ -48,7 +48,9 @@ static void rotor_help(FILE *fp)
         "      --density RHO       kg/m3        --viscosity MU   Pa s\n"
         "      --sound-speed A     m/s\n"
         "section tables:\n"
-        "      --ncrit N, --turbulence PCT, --trip-upper X, --trip-lower X   as for polar\n"
+        "      --ncrit N, --turbulence PCT, --transition NAME, --trip-upper X, --trip-lower X\n"
+        "                          as for polar (NAME: quiet-air, tunnel, sanded, rotor-inflow,\n"
+        "                          printed-rough)\n"
         "      --ncrit-range LO:HI also solve every point with tables at N_crit LO and HI and\n"
         "                          report the band thrust, power and efficiency span over the\n"
         "                          three (transition uncertainty; tables of their own, cached)\n"
@@ -168,7 +170,7 @@ int cmd_rotor(int argc, char **argv)
     {"inflow", required_argument, NULL, 'i'},       {"altitude", required_argument, NULL, 'A'},
     {"density", required_argument, NULL, 'D'},      {"viscosity", required_argument, NULL, 'V'},
     {"sound-speed", required_argument, NULL, 'S'},  {"ncrit", required_argument, NULL, 'N'},
-    {"turbulence", required_argument, NULL, 'T'},   {"trip-upper", required_argument, NULL, 'U'},
+    {"turbulence", required_argument, NULL, 'T'},   {"transition", required_argument, NULL, 'W'},   {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'},   {"table-alpha", required_argument, NULL, 'a'},
     {"panels", required_argument, NULL, 'p'},       {"polar-table", required_argument, NULL, 'P'},
     {"cache-dir", required_argument, NULL, 'c'},    {"no-cache", no_argument, NULL, 'X'},
@@ -214,7 +216,7 @@ int cmd_rotor(int argc, char **argv)
     case 'D': if (cli_parse_double("--density", optarg, 0.01, 50.0, &density)) return CLI_EXIT_USAGE; break;
     case 'V': if (cli_parse_double("--viscosity", optarg, 1e-7, 1e-2, &viscosity)) return CLI_EXIT_USAGE; break;
     case 'S': if (cli_parse_double("--sound-speed", optarg, 50.0, 2000.0, &sound)) return CLI_EXIT_USAGE; break;
-    case 'N': case 'T': case 'U': case 'L':
+    case 'N': case 'T': case 'W': case 'U': case 'L':
       if (cli_visc_opts_parse(&to.vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
     case 'a':

@@ -192,6 +192,32 @@ static void test_bl_march_rejects_bad_input(void **state)
   assert_true(isnan(ascr_bl_ncrit_from_turbulence(0.0)));
 }
 
+/* Transition presets: each named, with a basis; the tunnel's value is Mack's relation at the
+ * turbulence of a low-turbulence tunnel (0.07 %); the others, common practice, in the order of
+ * growing disturbance (smooth calm air to a rough print) and each close to the turbulence level
+ * its basis quotes (within 0.6 of Mack's relation at that level). */
+static void test_bl_transition_presets(void **state)
+{
+  (void)state;
+  size_t n = 0;
+  const ascr_transition_preset *p = ascr_transition_presets(&n);
+  assert_true(n >= 5);
+  for (size_t i = 0; i < n; i++) {
+    assert_non_null(p[i].basis);
+    assert_true(strlen(p[i].basis) > 20);
+    if (i > 0) assert_true(p[i].ncrit < p[i - 1].ncrit);
+    assert_ptr_equal(ascr_transition_preset_find(p[i].name), &p[i]);
+  }
+  const ascr_transition_preset *t = ascr_transition_preset_find("tunnel");
+  assert_non_null(t);
+  assert_true(fabs(t->ncrit - ascr_bl_ncrit_from_turbulence(0.07)) < 0.1);
+  const double tu[5] = {0.03, 0.07, 0.15, 0.3, 0.8}; /* the levels the bases quote */
+  for (size_t i = 0; i < 5 && i < n; i++) {
+    assert_true(fabs(p[i].ncrit - ascr_bl_ncrit_from_turbulence(tu[i])) < 0.6);
+  }
+  assert_null(ascr_transition_preset_find("no-such"));
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
@@ -203,6 +229,7 @@ int main(void)
     cmocka_unit_test(test_bl_turbulent_flat_plate_skin_friction),
     cmocka_unit_test(test_bl_flat_plate_transition),
     cmocka_unit_test(test_bl_march_rejects_bad_input),
+    cmocka_unit_test(test_bl_transition_presets),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
