@@ -88,7 +88,7 @@ static size_t distinct(const fig_rotor_point *p, size_t np, int which, double *o
 {
   size_t n = 0;
   for (size_t i = 0; i < np; i++) {
-    double v = which ? p[i].speed : p[i].rpm;
+    double v = which == 2 ? p[i].J : which ? p[i].speed : p[i].rpm;
     if (!isfinite(v)) continue;
     size_t k = 0;
     while (k < n && fabs(out[k] - v) > 1e-9 * (1.0 + fabs(v))) k++;
@@ -109,8 +109,8 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
   enum { MAXG = 12 };
   double rpms[MAXG], spds[MAXG];
   size_t nr = distinct(p, np, 0, rpms, MAXG), nv = distinct(p, np, 1, spds, MAXG);
-  double *buf = calloc(13 * np + 1, sizeof *buf);
-  plot_series *sr = calloc(7 * MAXG + 1, sizeof *sr);
+  double *buf = calloc(16 * np + 1, sizeof *buf);
+  plot_series *sr = calloc(9 * MAXG + 1, sizeof *sr);
   char (*lab)[48] = calloc(2 * MAXG, sizeof *lab);
   if (buf == NULL || sr == NULL || lab == NULL) {
     free(buf);
@@ -149,12 +149,24 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
     for (size_t q = start; q < off; q++) nfin += (size_t)isfinite(ET[q]);
     sr[2 * MAXG + g] = (plot_series){NULL, off - start, J + start, ET + start, nfin < 2};
   }
+  /* points on a grid of advance ratios (rotor --advance-ratio: every rpm at every J): the
+   * rpm panels by J instead of by airspeed, which then differs from point to point */
+  double jv[MAXG];
+  size_t nj = distinct(p, np, 2, jv, MAXG);
+  int jgrid = nj >= 1 && nj < MAXG && nv > nj && nr >= 2;
+  for (size_t q = 0; jgrid && q < nj; q++) {
+    size_t c = 0;
+    for (size_t i = 0; i < np; i++) c += (size_t)(fabs(p[i].J - jv[q]) <= 1e-9 * (1.0 + jv[q]));
+    jgrid = c >= 2;
+  }
+  size_t ngrp = jgrid ? nj : nv;
   off = 0;
-  for (size_t v = 0; v < nv; v++) {
+  for (size_t v = 0; v < ngrp; v++) {
     size_t start = off;
     for (size_t g = 0; g < nr; g++) {
       for (size_t i = 0; i < np; i++) {
-        if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
+        int in = jgrid ? fabs(p[i].J - jv[v]) <= 1e-9 * (1.0 + jv[v]) : p[i].speed == spds[v];
+        if (p[i].rpm == rpms[g] && in) {
           RP[off] = p[i].rpm;
           TH[off] = p[i].thrust;
           PW[off] = p[i].power;
@@ -162,12 +174,14 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
         }
       }
     }
-    snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "%.3g m/s", spds[v]);
+    if (jgrid) snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "J %.3g", jv[v]);
+    else snprintf(lab[MAXG + v], sizeof lab[MAXG + v], "%.3g m/s", spds[v]);
     size_t m = off - start;
     int banded = 0;
     for (size_t g = 0, q = 0; g < nr; g++) {
       for (size_t i = 0; i < np; i++) {
-        if (p[i].rpm == rpms[g] && p[i].speed == spds[v]) {
+        int in = jgrid ? fabs(p[i].J - jv[v]) <= 1e-9 * (1.0 + jv[v]) : p[i].speed == spds[v];
+        if (p[i].rpm == rpms[g] && in) {
           BX[boff + q] = BX[boff + m + q] = p[i].rpm;
           BT[boff + q] = p[i].thrust_band[0];
           BT[boff + m + q] = p[i].thrust_band[1];
@@ -186,16 +200,48 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
     thr[nthr++] = (plot_series){lab[MAXG + v], m, RP + start, TH + start, m < 2};
     pwr[npwr++] = (plot_series){NULL, m, RP + start, PW + start, m < 2};
   }
+  /* Reynolds-number study (small-prop test practice): CT and CP against the chord Re at
+   * 0.75 R, one line per advance ratio, where the points hold fixed J at two or more rpm
+   * (rotor --advance-ratio); x as log10 Re */
+  size_t nre = 0;
+  double *RX = buf + 13 * np, *RT = buf + 14 * np, *RC = buf + 15 * np;
+  plot_series *rct = sr + 7 * MAXG, *rcp = sr + 8 * MAXG;
+  char (*jl)[24] = calloc(MAXG, sizeof *jl);
+  off = 0;
+  for (size_t q = 0; jl != NULL && jgrid && q < nj; q++) {
+    size_t start = off;
+    for (size_t g = 0; g < nr; g++) {
+      for (size_t i = 0; i < np; i++) {
+        if (p[i].rpm == rpms[g] && fabs(p[i].J - jv[q]) <= 1e-9 * (1.0 + jv[q]) &&
+            isfinite(p[i].CT) && p[i].re_075 > 0.0) {
+          RX[off] = log10(p[i].re_075);
+          RT[off] = p[i].CT;
+          RC[off] = p[i].CP;
+          off++;
+        }
+      }
+    }
+    if (off - start >= 2) {
+      snprintf(jl[q], sizeof jl[q], "J %.3g", jv[q]);
+      rct[nre] = (plot_series){jl[q], off - start, RX + start, RT + start, 0};
+      rcp[nre] = (plot_series){NULL, off - start, RX + start, RC + start, 0};
+      nre++;
+    }
+  }
   char t0[160], base[4200];
   snprintf(t0, sizeof t0, "thrust coefficient, %.28s", blade);
-  plot_panel pan[6] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
+  plot_panel pan[8] = {{t0, "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nr},
                        {"power coefficient", "advance ratio J", "C#dP#u = P/(#gr n#u3#d D#u5#d)", sr + MAXG, nr},
                        {"efficiency", "advance ratio J", "#gy = T V / P", sr + 2 * MAXG, nr},
                        {"thrust", "rotation rate (rpm)", "thrust (N)", thr, nthr},
                        {"shaft power", "rotation rate (rpm)", "power (W)", pwr, npwr},
+                       {"thrust coefficient at fixed J", "Re at 0.75 R", "C#dT#u", rct, nre},
+                       {"power coefficient at fixed J", "Re at 0.75 R", "C#dP#u", rcp, nre},
                        {"", "", "", NULL, 0}};
+  const int logx[8] = {0, 0, 0, 0, 0, 1, 1, 0};
   snprintf(base, sizeof base, "%s/rotor", dir);
-  int rc = plot_figure(base, NULL, 2, 3, pan, 5);
+  int rc = nre > 0 ? plot_figure_logx(base, NULL, 2, 4, pan, 7, logx) : plot_figure(base, NULL, 2, 3, pan, 5);
+  free(jl);
   /* spanwise loading of up to eight points with stations */
   plot_series ss[8];
   char sl[8][48];

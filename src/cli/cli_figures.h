@@ -59,12 +59,15 @@ void fig_polar_panels(const char *title, const fig_polar *p, size_t np, fig_pola
 typedef struct fig_rotor_point {
   double rpm, speed, J, CT, CP, eta, thrust, power;
   double thrust_band[2], power_band[2]; /* N_crit band [min, max]; NaN where there is none */
+  double re_075;                        /* chord Re at 0.75 R (NaN: unknown) */
   size_t ns;
   double *r_over_R, *dT_dr; /* ns entries or NULL */
 } fig_rotor_point;
 
 /* Rotor results: DIR/rotor.svg and .png (CT, CP, efficiency against J by rpm; thrust and power
- * against rpm by speed, each with its N_crit band shaded where the points carry one) and, when stations are given, DIR/rotor-spanwise.svg/.png (dT/dr of up to eight
+ * against rpm by speed, each with its N_crit band shaded where the points carry one; where the
+ * points hold fixed advance ratios at two or more rpm, also CT and CP against Re at 0.75 R by
+ * J) and, when stations are given, DIR/rotor-spanwise.svg/.png (dT/dr of up to eight
  * points). */
 int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np);
 

@@ -171,6 +171,11 @@ static int csv_to_result(const char *file, const char *model, json_t **out)
         json_array_append_new(arr, json_real(x1));
         json_object_set_new(pt, bn[q], arr);
       }
+      int cre = cli_csv_col(&t, "re_075");
+      const char *rc75 = cre >= 0 ? t.cell[r * t.ncol + (size_t)cre] : NULL;
+      char *e75 = NULL;
+      double re75 = rc75 != NULL ? strtod(rc75, &e75) : NAN;
+      if (rc75 != NULL && e75 != rc75 && *e75 == '\0') json_object_set_new(pt, "re_075", json_real(re75));
       json_array_append_new(list, pt);
     }
     for (size_t k = 0; k < nneed; k++) json_decref(v[k]);

@@ -446,6 +446,7 @@ int cmd_rotor(int argc, char **argv)
       fr[k].eta = ok ? pt->r.efficiency : NAN;
       fr[k].thrust = ok ? pt->r.thrust_N : NAN;
       fr[k].power = ok ? pt->r.power_W : NAN;
+      fr[k].re_075 = ok ? pt->r.re_075 : NAN;
       for (int q = 0; q < 2; q++) {
         fr[k].thrust_band[q] = ok && pt->banded ? pt->band.thrust_N[q] : NAN;
         fr[k].power_band[q] = ok && pt->banded ? pt->band.power_W[q] : NAN;

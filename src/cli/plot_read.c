@@ -196,6 +196,7 @@ static int read_rotor(const char *file, json_t *root, plot_data *d)
                       &f[k].thrust, &f[k].power};
     rc = jnums(file, "points", k, p, keys, out, 8);
     if (rc != 0) break;
+    f[k].re_075 = jnum(p, "re_075"); /* NaN where absent (results before 2026-12-03) */
     /* the N_crit band, where the result has one (a list of two numbers; anything else: none) */
     const char *bk[2] = {"thrust_band_N", "power_band_W"};
     double *bd[2] = {f[k].thrust_band, f[k].power_band};
