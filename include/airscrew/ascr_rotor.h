@@ -113,13 +113,13 @@ typedef struct ascr_rotor_element {
   int stalled, re_outside, converged;
 } ascr_rotor_element;
 
-/** Results at one operating point. Numbers of an unconverged point must not be reported as
- *  results (converged = 0). */
 /** A point whose thrust rests more than this share on flagged elements (extended, bridged or
  *  outside the table's Re range) is reported with low confidence. 10 %: a choice of ours, the
  *  size of the end-to-end errors the validation set shows with computed polars. */
 #define ASCR_ROTOR_LOW_CONFIDENCE_SHARE 0.10
 
+/** Results at one operating point. Numbers of an unconverged point must not be reported as
+ *  results (converged = 0). */
 typedef struct ascr_rotor_result {
   double rpm, speed_m_s;
   double thrust_N, torque_Nm, power_W;
