@@ -47,6 +47,9 @@ typedef struct ascr_blade {
   size_t n_sections;
   char **section_source;       /* per section: generator spec or resolved file path */
   char **section_name;         /* per section: the name used in the file */
+  double envelope_rpm[2];      /* the blade's operating range for its section tables (blade file
+                                  "envelope"); NaN (or 0, a blade built in code) when not given */
+  double envelope_airspeed_max_m_s; /* its highest airspeed (0 when the file gives none) */
 } ascr_blade;
 
 /** Check a blade: counts and ranges, ascending stations within hub..tip, chord > 0, section

@@ -192,11 +192,45 @@ static ascr_status read_stations(const rd *r, json_t *arr, double scale, ascr_bl
   return ASCR_OK;
 }
 
+/* "envelope": {"rpm_min", "rpm_max", "airspeed_max_m_s"} — the operating range the blade's
+ * section tables are built for (optional; NaN when absent). */
+static ascr_status read_envelope(const rd *r, json_t *env, ascr_blade *b)
+{
+  b->envelope_rpm[0] = b->envelope_rpm[1] = b->envelope_airspeed_max_m_s = NAN;
+  if (env == NULL) {
+    return ASCR_OK;
+  }
+  static const char *const keys[] = {"rpm_min", "rpm_max", "airspeed_max_m_s", NULL};
+  if (!json_is_object(env)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: envelope: must be an object", r->file);
+  }
+  ascr_status st = need_keys(r, env, "envelope", keys);
+  if (st == ASCR_OK) st = get_number(r, env, "rpm_min", "envelope", 1, 0.0, &b->envelope_rpm[0]);
+  if (st == ASCR_OK) st = get_number(r, env, "rpm_max", "envelope", 1, 0.0, &b->envelope_rpm[1]);
+  if (st == ASCR_OK) {
+    st = get_number(r, env, "airspeed_max_m_s", "envelope", 0, 0.0, &b->envelope_airspeed_max_m_s);
+  }
+  if (st != ASCR_OK) {
+    return st;
+  }
+  if (!(b->envelope_rpm[0] > 0.0 && b->envelope_rpm[1] >= b->envelope_rpm[0] &&
+        b->envelope_rpm[1] <= 1e6)) {
+    return core_fail(r->err, ASCR_EINVAL,
+                     "%s: envelope: rpm_min %g, rpm_max %g: need 0 < rpm_min <= rpm_max <= 1e6",
+                     r->file, b->envelope_rpm[0], b->envelope_rpm[1]);
+  }
+  if (!(b->envelope_airspeed_max_m_s >= 0.0 && b->envelope_airspeed_max_m_s <= 300.0)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: envelope.airspeed_max_m_s: %g must be 0 .. 300",
+                     r->file, b->envelope_airspeed_max_m_s);
+  }
+  return ASCR_OK;
+}
+
 static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, ascr_blade *b)
 {
   static const char *const keys[] = {"format", "name", "blades", "tip_radius", "tip_radius_m",
                                      "hub_radius", "length_unit", "pitch_offset_deg", "rotation", "sections",
-                                     "stations", NULL};
+                                     "stations", "envelope", NULL};
   if (!json_is_object(root)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
   }
@@ -288,6 +322,10 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
       return core_fail(r->err, ASCR_EPARSE,
                        "%s: rotation: must be \"ccw\" or \"cw\" (seen from the front)", r->file);
     }
+  }
+  st = read_envelope(r, json_object_get(root, "envelope"), b);
+  if (st != ASCR_OK) {
+    return st;
   }
   st = read_sections(r, json_object_get(root, "sections"), base_dir, b);
   if (st != ASCR_OK) {

@@ -402,8 +402,16 @@ ascr_status ascr_blade_tables_prepare(const ascr_blade *b, const ascr_rotor_para
       break;
     }
     ascr_section_fingerprint(secs[s], in->fingerprint);
-    st = ascr_rotor_section_re_range(b, s, p, rpm_lo, rpm_hi, v_lo, v_hi, &in->re_lo, &in->re_hi,
-                                     err);
+    /* the blade's own envelope, where its file gives one, joins the request's range: every
+     * request then builds the same curves (the cache serves them all) */
+    double rl = rpm_lo, rh = rpm_hi, vl = v_lo, vh = v_hi;
+    if (b->envelope_rpm[0] > 0.0 && b->envelope_rpm[1] >= b->envelope_rpm[0]) { /* NaN, 0: none */
+      rl = fmin(rl, b->envelope_rpm[0]);
+      rh = fmax(rh, b->envelope_rpm[1]);
+      vl = fmin(vl, 0.0);
+      if (b->envelope_airspeed_max_m_s > 0.0) vh = fmax(vh, b->envelope_airspeed_max_m_s);
+    }
+    st = ascr_rotor_section_re_range(b, s, p, rl, rh, vl, vh, &in->re_lo, &in->re_hi, err);
     if (st != ASCR_OK) {
       st = fail(out, ASCR_TABLES_ARGUMENTS, st);
       break;

@@ -63,8 +63,20 @@ static void test_tip_radius_in_metres(void **state)
     ascr_assert_close(b->r_tip_m, 0.1, 1e-12, 0.0, "tip radius");
     ascr_assert_close(b->r_hub_m, 0.02, 1e-12, 0.0, "hub radius");
     ascr_assert_close(b->stations[0].chord_m, 0.015, 1e-12, 0.0, "root chord");
+    assert_true(isnan(b->envelope_rpm[0])); /* no envelope given */
     ascr_blade_free(b);
   }
+  /* an envelope for the section tables */
+  static const char env[] =
+      "{\"format\":\"airscrew-blade-1\",\"blades\":2,\"length_unit\":\"mm\",\"tip_radius\":100,"
+      "\"hub_radius\":20,\"envelope\":{\"rpm_min\":5000,\"rpm_max\":20000,\"airspeed_max_m_s\":15},"
+      "\"sections\":{\"a\":\"naca4412\"},\"stations\":[{\"r\":20,\"chord\":15,\"twist_deg\":20},"
+      "{\"r\":100,\"chord\":10,\"twist_deg\":10}]}";
+  ascr_blade *b = NULL;
+  assert_int_equal(ascr_blade_parse(env, strlen(env), "env.json", NULL, &b, NULL), ASCR_OK);
+  assert_true(b->envelope_rpm[0] == 5000.0 && b->envelope_rpm[1] == 20000.0);
+  assert_true(b->envelope_airspeed_max_m_s == 15.0);
+  ascr_blade_free(b);
 }
 
 static void test_bad_files(void **state)
@@ -94,6 +106,12 @@ static void test_bad_files(void **state)
       {"{\"format\":\"airscrew-blade-1\",\"blades\":2,\"format\":\"airscrew-blade-1\"}", ASCR_EPARSE, "bad.json"},
       {HEAD SECS "\"stations\":[{\"r\":0.2,\"chord\":0.1,\"twist_deg\":20}]}", ASCR_EPARSE, "at least 2"},
       {HEAD "\"tip_radius_m\":0.1," SECS "\"stations\":[]}", ASCR_EPARSE, "not both"},
+      {HEAD "\"envelope\":{\"rpm_min\":9000,\"rpm_max\":5000}," SECS "\"stations\":[]}", ASCR_EINVAL,
+       "envelope: rpm_min 9000"},
+      {HEAD "\"envelope\":{\"rpm_min\":5000}," SECS "\"stations\":[]}", ASCR_EPARSE,
+       "envelope.rpm_max: missing"},
+      {HEAD "\"envelope\":{\"rpm_min\":5000,\"rpm_max\":9000,\"speed\":3}," SECS "\"stations\":[]}",
+       ASCR_EPARSE, "envelope.speed: unknown field"},
   };
   for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
     ascr_blade *b = NULL;

@@ -117,6 +117,20 @@ static void test_point_alone_and_in_a_map(void **state)
   assert_true(nneg > 0);
   ascr_blade_tables_free(&alone);
   ascr_blade_tables_free(&wide);
+  /* with the blade's own envelope (blade file "envelope") every request inside it builds the
+   * same curves: here the wide map's, served by the cache */
+  tb.b.envelope_rpm[0] = 6000.0;
+  tb.b.envelope_rpm[1] = 30000.0;
+  tb.b.envelope_airspeed_max_m_s = 15.0;
+  ascr_blade_tables e1, e2;
+  assert_int_equal(ascr_blade_tables_prepare(&tb.b, NULL, 12000, 12000, 0, 0, &o, &e1, &err), ASCR_OK);
+  assert_int_equal(ascr_blade_tables_prepare(&tb.b, NULL, 20000, 25000, 5, 5, &o, &e2, &err), ASCR_OK);
+  assert_int_equal(e1.info[0].n_curves, e2.info[0].n_curves);
+  assert_int_equal(e1.info[0].computed, 0);
+  for (size_t k = 0; k < e1.info[0].n_curves; k++) assert_true(e1.info[0].re[k] == e2.info[0].re[k]);
+  ascr_blade_tables_free(&e1);
+  ascr_blade_tables_free(&e2);
+  tb.b.envelope_rpm[0] = tb.b.envelope_rpm[1] = NAN;
   /* a section whose curves never reach above 1 deg has no usable curve: refused, named */
   o.curve.alpha_lo_deg = -8.0;
   o.curve.alpha_hi_deg = -5.0;
