@@ -89,6 +89,13 @@ ASCR_EXPORT ascr_rotor_params ascr_rotor_params_defaults(void);
 ASCR_EXPORT ascr_status ascr_isa(double altitude_m, double *density_kg_m3, double *viscosity_pa_s,
                                  double *sound_speed_m_s, ascr_errbuf *err);
 
+/** Air at a temperature (K) and static pressure (Pa): density (ideal gas), viscosity
+ *  (Sutherland), speed of sound, with the 1976 standard's constants. ASCR_EDOM outside
+ *  180..350 K or 10..120 kPa. */
+ASCR_EXPORT ascr_status ascr_air_from_tp(double temperature_k, double pressure_pa,
+                                         double *density_kg_m3, double *viscosity_pa_s,
+                                         double *sound_speed_m_s, ascr_errbuf *err);
+
 /** Chord Reynolds-number range that section `section` of blade b meets over rpm in
  *  rpm_lo..rpm_hi and axial speed in v_lo..v_hi (relative speed without induction, widened by
  *  0.8 and 1.25 for the induced velocities, which change it by less than that at the loadings

@@ -47,6 +47,9 @@ static void rotor_help(FILE *fp)
         "      --altitude M        ISA 1976 troposphere at M metres\n"
         "      --density RHO       kg/m3        --viscosity MU   Pa s\n"
         "      --sound-speed A     m/s\n"
+        "      --temperature C     air temperature, deg C (default 15), and/or\n"
+        "      --pressure P        static pressure, Pa (default 101325): density, viscosity and\n"
+        "                          speed of sound from them\n"
         "section tables:\n"
         "      --ncrit N, --turbulence PCT, --transition NAME, --trip-upper X, --trip-lower X\n"
         "                          as for polar (NAME: quiet-air, tunnel, sanded, rotor-inflow,\n"
@@ -169,7 +172,8 @@ int cmd_rotor(int argc, char **argv)
     {"thrust", required_argument, NULL, 'H'},       {"rpm-range", required_argument, NULL, 'R'},
     {"inflow", required_argument, NULL, 'i'},       {"altitude", required_argument, NULL, 'A'},
     {"density", required_argument, NULL, 'D'},      {"viscosity", required_argument, NULL, 'V'},
-    {"sound-speed", required_argument, NULL, 'S'},  {"ncrit", required_argument, NULL, 'N'},
+    {"sound-speed", required_argument, NULL, 'S'},  {"temperature", required_argument, NULL, 'K'},
+    {"pressure", required_argument, NULL, 'Y'},  {"ncrit", required_argument, NULL, 'N'},
     {"turbulence", required_argument, NULL, 'T'},   {"transition", required_argument, NULL, 'W'},   {"trip-upper", required_argument, NULL, 'U'},
     {"trip-lower", required_argument, NULL, 'L'},   {"table-alpha", required_argument, NULL, 'a'},
     {"panels", required_argument, NULL, 'p'},       {"polar-table", required_argument, NULL, 'P'},
@@ -183,7 +187,7 @@ int cmd_rotor(int argc, char **argv)
   size_t nrpm = 0, nspeed = 1;
   int by_j = 0, by_v = 0; /* speeds given as advance ratios J / as airspeeds */
   double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN, nc_lo = NAN, nc_hi = NAN;
-  double density = NAN, viscosity = NAN, sound = NAN;
+  double density = NAN, viscosity = NAN, sound = NAN, temp_c = NAN, press = NAN;
   const char *inflow = "bemt";
   cli_table_opts to;
   cli_table_opts_init(&to);
@@ -216,6 +220,8 @@ int cmd_rotor(int argc, char **argv)
     case 'D': if (cli_parse_double("--density", optarg, 0.01, 50.0, &density)) return CLI_EXIT_USAGE; break;
     case 'V': if (cli_parse_double("--viscosity", optarg, 1e-7, 1e-2, &viscosity)) return CLI_EXIT_USAGE; break;
     case 'S': if (cli_parse_double("--sound-speed", optarg, 50.0, 2000.0, &sound)) return CLI_EXIT_USAGE; break;
+    case 'K': if (cli_parse_double("--temperature", optarg, -90.0, 75.0, &temp_c)) return CLI_EXIT_USAGE; break;
+    case 'Y': if (cli_parse_double("--pressure", optarg, 1e4, 1.2e5, &press)) return CLI_EXIT_USAGE; break;
     case 'N': case 'T': case 'W': case 'U': case 'L':
       if (cli_visc_opts_parse(&to.vo, c, optarg)) return CLI_EXIT_USAGE;
       break;
@@ -295,6 +301,21 @@ int cmd_rotor(int argc, char **argv)
     ascr_status st = ascr_isa(altitude, &rp.density_kg_m3, &rp.viscosity_pa_s, &rp.sound_speed_m_s, &err);
     if (st != ASCR_OK) {
       cli_error("--altitude: %s", err.msg);
+      return CLI_EXIT_USAGE;
+    }
+  }
+  if (!isnan(temp_c) || !isnan(press)) {
+    if (!isnan(altitude) || !isnan(density) || !isnan(viscosity) || !isnan(sound)) {
+      cli_error("rotor: --temperature/--pressure exclude --altitude, --density, --viscosity and "
+                "--sound-speed");
+      return CLI_EXIT_USAGE;
+    }
+    ascr_errbuf err;
+    ascr_status st = ascr_air_from_tp(273.15 + (isnan(temp_c) ? 15.0 : temp_c),
+                                      isnan(press) ? 101325.0 : press, &rp.density_kg_m3,
+                                      &rp.viscosity_pa_s, &rp.sound_speed_m_s, &err);
+    if (st != ASCR_OK) {
+      cli_error("--temperature/--pressure: %s", err.msg);
       return CLI_EXIT_USAGE;
     }
   }

@@ -42,22 +42,6 @@ ascr_rotor_params ascr_rotor_params_defaults(void)
   return p;
 }
 
-ascr_status ascr_isa(double h, double *rho, double *mu, double *a, ascr_errbuf *err)
-{
-  if (!(isfinite(h) && h >= -500.0 && h <= 11000.0)) {
-    return core_fail(err, ASCR_EDOM, "altitude %g m outside the ISA troposphere (-500 .. 11000 m)", h);
-  }
-  /* U.S. Standard Atmosphere 1976: T0 288.15 K, lapse 6.5 K/km, p0 101325 Pa, R 287.05287,
-   * g0 9.80665, Sutherland (beta 1.458e-6, S 110.4 K), gamma 1.4 */
-  const double r_air = 287.05287, g0 = 9.80665, lapse = 0.0065;
-  double t = 288.15 - lapse * h;
-  double p = 101325.0 * pow(t / 288.15, g0 / (r_air * lapse));
-  *rho = p / (r_air * t);
-  *mu = 1.458e-6 * t * sqrt(t) / (t + 110.4);
-  *a = sqrt(1.4 * r_air * t);
-  return ASCR_OK;
-}
-
 typedef struct elem_ctx {
   const ascr_blade *b;
   const ascr_polar_table *const *tables;

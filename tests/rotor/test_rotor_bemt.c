@@ -408,6 +408,16 @@ static void test_isa(void **state)
   ascr_assert_close(a, 332.53, 1e-4, 0.0, "ISA a(2000 m)");
   ascr_assert_close(mu, 1.7260e-5, 1e-3, 0.0, "ISA mu(2000 m)");
   assert_int_equal(ascr_isa(20000.0, &rho, &mu, &a, NULL), ASCR_EDOM);
+  /* given temperature and pressure: the standard sea level again, and a hot day (35 C,
+   * 101325 Pa: dry air 1.146 kg/m3 in engineering tables, value from memory) */
+  double r2, m2, a2;
+  assert_int_equal(ascr_isa(0.0, &rho, &mu, &a, NULL), ASCR_OK);
+  assert_int_equal(ascr_air_from_tp(288.15, 101325.0, &r2, &m2, &a2, NULL), ASCR_OK);
+  assert_true(fabs(r2 - rho) < 1e-12 && fabs(m2 - mu) < 1e-15 && fabs(a2 - a) < 1e-9);
+  assert_int_equal(ascr_air_from_tp(308.15, 101325.0, &r2, &m2, &a2, NULL), ASCR_OK);
+  ascr_assert_close(r2, 1.146, 1e-3, 0.0, "density at 35 C, 1 atm");
+  assert_true(m2 > mu && a2 > a); /* warmer air: more viscous, faster sound */
+  assert_int_equal(ascr_air_from_tp(500.0, 101325.0, &r2, &m2, &a2, NULL), ASCR_EDOM);
 }
 
 int main(void)
