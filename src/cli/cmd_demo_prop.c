@@ -307,6 +307,9 @@ int demo_prop(int argc, char **argv)
       json_object_set_new(h, "power_W", cli_json_num(hov_ok[m], hov[m].power_W));
       json_object_set_new(h, "figure_of_merit", cli_json_num(hov_ok[m], hov[m].figure_of_merit));
       json_object_set_new(h, "tip_mach", cli_json_num(hov_ok[m], hov[m].tip_mach));
+      json_object_set_new(h, "CT_over_sigma", cli_json_num(hov_ok[m], hov[m].CT_over_sigma));
+      json_object_set_new(h, "confidence",
+                          hov_ok[m] ? json_string(hov[m].low_confidence ? "low" : "normal") : json_null());
       if (!hov_ok[m]) json_object_set_new(h, "message", json_string(hov_msg[m]));
       for (size_t e = 0; hov_ok[m] && e < rp.n_elements; e++) {
         const ascr_rotor_element *el = &hel[m][e];
@@ -454,14 +457,17 @@ int demo_prop(int argc, char **argv)
             b->n_blades, 2000.0 * b->r_tip_m, 1000.0 * b->r_hub_m);
     for (size_t s = 0; s < b->n_sections; s++) fprintf(f, "%s = <code>%s</code>%s", b->section_name[s], b->section_source[s], s + 1 < b->n_sections ? "; " : ".");
     fprintf(f, "</p>\n<h2>Hover</h2>\n<table><tr><th>inflow model</th><th>rpm</th><th>thrust (N)</th>"
-               "<th>torque (N&nbsp;m)</th><th>power (W)</th><th>figure of merit</th><th>tip Mach</th></tr>\n");
+               "<th>torque (N&nbsp;m)</th><th>power (W)</th><th>figure of merit</th><th>tip Mach</th>"
+               "<th>CT/&sigma;</th><th>confidence</th></tr>\n");
     for (int m = 0; m < 2; m++) {
       if (hov_ok[m]) {
-        fprintf(f, "<tr><td>%s</td><td>%.0f</td><td>%.4f</td><td>%.5f</td><td>%.3f</td><td>%.3f</td><td>%.3f</td></tr>\n",
+        fprintf(f, "<tr><td>%s</td><td>%.0f</td><td>%.4f</td><td>%.5f</td><td>%.3f</td><td>%.3f</td><td>%.3f</td>"
+                   "<td>%.4f</td><td>%s (%.0f&nbsp;%% of the thrust on flagged elements)</td></tr>\n",
                 m ? "vortex" : "BEMT", hov[m].rpm, hov[m].thrust_N, hov[m].torque_Nm, hov[m].power_W,
-                hov[m].figure_of_merit, hov[m].tip_mach);
+                hov[m].figure_of_merit, hov[m].tip_mach, hov[m].CT_over_sigma,
+                hov[m].low_confidence ? "low" : "normal", 100.0 * hov[m].flagged_thrust_share);
       } else {
-        fprintf(f, "<tr><td>%s</td><td colspan=\"6\">not converged</td></tr>\n", m ? "vortex" : "BEMT");
+        fprintf(f, "<tr><td>%s</td><td colspan=\"8\">not converged</td></tr>\n", m ? "vortex" : "BEMT");
       }
     }
     fprintf(f, "</table>\n<h2>Convergence</h2>\n<p>Rotor map: BEMT %zu of %d points converged, vortex %zu of %d "
