@@ -33,6 +33,15 @@ static void make(synth *s, double k, double cd0)
   }
 }
 
+/* four curves whose lift and drag change with Re, for the Re interpolation tests */
+static void make_four(synth *a, synth *b, synth *c, synth *d)
+{
+  make(a, 0.80, 0.030);
+  make(b, 0.85, 0.020);
+  make(c, 0.90, 0.014);
+  make(d, 0.95, 0.010);
+}
+
 static void test_inside_and_extension(void **state)
 {
   (void)state;
@@ -91,10 +100,7 @@ static void test_re_interpolation_and_mach(void **state)
 {
   (void)state;
   synth a, b, c, d;
-  make(&a, 0.80, 0.030);
-  make(&b, 0.85, 0.020);
-  make(&c, 0.90, 0.014);
-  make(&d, 0.95, 0.010);
+  make_four(&a, &b, &c, &d);
   ascr_table_curve cv[4] = {{3e5, NA, d.al, d.cl, d.cd, d.cm, NULL},
                             {3e4, NA, a.al, a.cl, a.cd, a.cm, NULL},
                             {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL},
@@ -130,10 +136,7 @@ static void test_lookup_is_local_in_re(void **state)
 {
   (void)state;
   synth a, b, c, d;
-  make(&a, 0.80, 0.030);
-  make(&b, 0.85, 0.020);
-  make(&c, 0.90, 0.014);
-  make(&d, 0.95, 0.010);
+  make_four(&a, &b, &c, &d);
   ascr_table_curve two[2] = {{6e4, NA, b.al, b.cl, b.cd, b.cm, NULL},
                              {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL}};
   ascr_table_curve four[4] = {{3e4, NA, a.al, a.cl, a.cd, a.cm, NULL},

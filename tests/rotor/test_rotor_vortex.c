@@ -18,17 +18,23 @@ typedef struct test_blade {
   ascr_blade_station st[8];
 } test_blade;
 
-/* a rectangular, linearly twisted two-blade rotor (our own test geometry) */
-static void rotor(test_blade *t, double pitch75_deg)
+/* a two-blade rotor of tip radius rt and hub rh with nst stations to be filled by the caller */
+static void blade_shell(test_blade *t, double rt, double rh, size_t nst)
 {
   memset(t, 0, sizeof *t);
   t->b.n_blades = 2;
-  t->b.r_tip_m = 0.1;
-  t->b.r_hub_m = 0.015;
+  t->b.r_tip_m = rt;
+  t->b.r_hub_m = rh;
   t->b.rotation = 1;
-  t->b.n_stations = 2;
+  t->b.n_stations = nst;
   t->b.stations = t->st;
   t->b.n_sections = 1;
+}
+
+/* a rectangular, linearly twisted two-blade rotor (our own test geometry) */
+static void rotor(test_blade *t, double pitch75_deg)
+{
+  blade_shell(t, 0.1, 0.015, 2);
   t->st[0] = (ascr_blade_station){0.02, 0.012, pitch75_deg + 0.55 * 12.0, 0};
   t->st[1] = (ascr_blade_station){0.10, 0.012, pitch75_deg - 0.25 * 12.0, 0};
 }
@@ -137,14 +143,7 @@ static void test_hover_below_ideal_and_near_bemt(void **state)
   const ascr_polar_table *tabs[1] = {tab};
   for (double coll = 2.0; coll <= 12.01; coll += 1.0) {
     test_blade t;
-    memset(&t, 0, sizeof t);
-    t.b.n_blades = 2;
-    t.b.r_tip_m = 0.3;
-    t.b.r_hub_m = 0.045;
-    t.b.rotation = 1;
-    t.b.n_stations = 2;
-    t.b.stations = t.st;
-    t.b.n_sections = 1;
+    blade_shell(&t, 0.3, 0.045, 2);
     t.st[0] = (ascr_blade_station){0.045, 0.05, coll, 0};
     t.st[1] = (ascr_blade_station){0.3, 0.05, coll, 0};
     hover_check(&t.b, tabs, coll, "untwisted R/c 6");
@@ -179,14 +178,7 @@ static void test_stalled_root_smooth(void **state)
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &tab, NULL), ASCR_OK);
   const ascr_polar_table *tabs[1] = {tab};
   test_blade t;
-  memset(&t, 0, sizeof t);
-  t.b.n_blades = 2;
-  t.b.r_tip_m = 0.1;
-  t.b.r_hub_m = 0.012;
-  t.b.rotation = 1;
-  t.b.n_stations = 3;
-  t.b.stations = t.st;
-  t.b.n_sections = 1;
+  blade_shell(&t, 0.1, 0.012, 3);
   t.st[0] = (ascr_blade_station){0.015, 0.014, 34.0, 0};
   t.st[1] = (ascr_blade_station){0.05, 0.014, 16.0, 0};
   t.st[2] = (ascr_blade_station){0.10, 0.008, 9.0, 0};
@@ -227,7 +219,6 @@ static void test_betz_prandtl_circulation(void **state)
   const double omega = V / (lam * R), rpm = omega * 60.0 / (2.0 * PI);
   enum { NS = 60 };
   test_blade t;
-  memset(&t, 0, sizeof t);
   ascr_blade_station st[NS];
   double phit = atan((1.0 + 0.5 * zeta) * lam);
   for (int k = 0; k < NS; k++) {
@@ -242,13 +233,9 @@ static void test_betz_prandtl_circulation(void **state)
     if (c < 1e-4) c = 1e-4; /* the tip: zero circulation, a sliver of chord */
     st[k] = (ascr_blade_station){r, c, (phi + cld / (2.0 * PI)) / DEG, 0};
   }
+  blade_shell(&t, R, 0.2 * R, NS);
   t.b.n_blades = B;
-  t.b.r_tip_m = R;
-  t.b.r_hub_m = 0.2 * R;
-  t.b.rotation = 1;
-  t.b.n_stations = NS;
   t.b.stations = st;
-  t.b.n_sections = 1;
   ascr_polar_table *tab;
   assert_int_equal(ascr_polar_table_linear(2.0 * PI, 0.0, 0.0, &tab, NULL), ASCR_OK);
   const ascr_polar_table *tabs[1] = {tab};
