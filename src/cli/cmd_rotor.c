@@ -649,7 +649,7 @@ int cmd_rotor(int argc, char **argv)
       if (in->user_file) {
         fprintf(fp, "section  %-10s table from %s\n", blade->section_name[s], in->user_file);
       } else {
-        fprintf(fp, "section  %-10s Re %.0f .. %.0f needed; %zu curves (%zu from cache, %zu computed)\n",
+        fprintf(fp, "section  %-10s Re %.0f .. %.0f to cover; %zu curves (%zu from cache, %zu computed)\n",
                 blade->section_name[s], in->re_lo, in->re_hi, in->n_curves, in->from_cache, in->computed);
       }
     }
