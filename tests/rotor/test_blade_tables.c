@@ -100,8 +100,8 @@ static void test_point_alone_and_in_a_map(void **state)
   /* the vortex model over the map's envelope, hover to windmilling (a 6-inch prop at 15 m/s
    * and 6000 rpm has J 0.98: its thrust is negative) */
   size_t nconv = 0, npt = 0, nneg = 0;
-  for (double rpm = 6000.0; rpm <= 30000.0; rpm += 2000.0) {
-    for (double v = 0.0; v <= 15.0; v += 5.0) {
+  for (double rpm = 6000.0; rpm <= 30000.0; rpm += 4000.0) {
+    for (double v = 0.0; v <= 15.0; v += 7.5) {
       ascr_rotor_result r;
       ascr_status st = ascr_rotor_point(&tb.b, (const ascr_polar_table *const *)wide.tables, NULL,
                                         ASCR_INFLOW_VORTEX, NULL, rpm, v, &r, NULL, &err);
