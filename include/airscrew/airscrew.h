@@ -17,5 +17,6 @@
 #include "airscrew/ascr_table.h"
 #include "airscrew/ascr_rotor.h"
 #include "airscrew/ascr_blade_tables.h"
+#include "airscrew/ascr_powertrain.h"
 
 #endif /* AIRSCREW_H */

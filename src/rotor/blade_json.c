@@ -4,6 +4,7 @@
  */
 #include "rotor/rotor_impl.h"
 #include "core/core_impl.h"
+#include "core/json_fields.h"
 #include "airscrew/ascr_geom.h"
 
 #include <jansson.h>
@@ -14,10 +15,7 @@
 
 #define BLADE_MAX_BYTES (4u << 20)
 
-typedef struct rd {
-  const char *file;
-  ascr_errbuf *err;
-} rd;
+typedef core_json_ctx rd;
 
 static char *dup_str(const char *s)
 {
@@ -27,47 +25,6 @@ static char *dup_str(const char *s)
     memcpy(d, s, n);
   }
   return d;
-}
-
-static ascr_status need_keys(const rd *r, json_t *obj, const char *path, const char *const *allowed)
-{
-  const char *key;
-  json_t *val;
-  json_object_foreach(obj, key, val) {
-    int ok = 0;
-    for (size_t i = 0; allowed[i] != NULL; i++) {
-      ok |= strcmp(key, allowed[i]) == 0;
-    }
-    if (!ok) {
-      return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: unknown field", r->file, path,
-                       path[0] ? "." : "", key);
-    }
-  }
-  return ASCR_OK;
-}
-
-static ascr_status get_number(const rd *r, json_t *obj, const char *key, const char *path,
-                              int required, double def, double *out)
-{
-  json_t *v = json_object_get(obj, key);
-  if (v == NULL) {
-    if (required) {
-      return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: missing (a number is required)", r->file,
-                       path, path[0] ? "." : "", key);
-    }
-    *out = def;
-    return ASCR_OK;
-  }
-  if (!json_is_number(v)) {
-    return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: must be a number", r->file, path,
-                     path[0] ? "." : "", key);
-  }
-  *out = json_number_value(v);
-  if (!isfinite(*out)) {
-    return core_fail(r->err, ASCR_EPARSE, "%s: %s%s%s: not a finite number", r->file, path,
-                     path[0] ? "." : "", key);
-  }
-  return ASCR_OK;
 }
 
 static char *join_path(const char *dir, const char *rel)
@@ -151,16 +108,16 @@ static ascr_status read_stations(const rd *r, json_t *arr, double scale, ascr_bl
       return core_fail(r->err, ASCR_EPARSE, "%s: %s: must be an object {r, chord, twist_deg, section}",
                        r->file, path);
     }
-    ascr_status st = need_keys(r, s, path, keys);
+    ascr_status st = core_json_keys(r, s, path, keys);
     double rr, cc, tw;
     if (st == ASCR_OK) {
-      st = get_number(r, s, "r", path, 1, 0.0, &rr);
+      st = core_json_number(r, s, "r", path, 1, 0.0, &rr);
     }
     if (st == ASCR_OK) {
-      st = get_number(r, s, "chord", path, 1, 0.0, &cc);
+      st = core_json_number(r, s, "chord", path, 1, 0.0, &cc);
     }
     if (st == ASCR_OK) {
-      st = get_number(r, s, "twist_deg", path, 1, 0.0, &tw);
+      st = core_json_number(r, s, "twist_deg", path, 1, 0.0, &tw);
     }
     if (st != ASCR_OK) {
       return st;
@@ -204,11 +161,11 @@ static ascr_status read_envelope(const rd *r, json_t *env, ascr_blade *b)
   if (!json_is_object(env)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: envelope: must be an object", r->file);
   }
-  ascr_status st = need_keys(r, env, "envelope", keys);
-  if (st == ASCR_OK) st = get_number(r, env, "rpm_min", "envelope", 1, 0.0, &b->envelope_rpm[0]);
-  if (st == ASCR_OK) st = get_number(r, env, "rpm_max", "envelope", 1, 0.0, &b->envelope_rpm[1]);
+  ascr_status st = core_json_keys(r, env, "envelope", keys);
+  if (st == ASCR_OK) st = core_json_number(r, env, "rpm_min", "envelope", 1, 0.0, &b->envelope_rpm[0]);
+  if (st == ASCR_OK) st = core_json_number(r, env, "rpm_max", "envelope", 1, 0.0, &b->envelope_rpm[1]);
   if (st == ASCR_OK) {
-    st = get_number(r, env, "airspeed_max_m_s", "envelope", 0, 0.0, &b->envelope_airspeed_max_m_s);
+    st = core_json_number(r, env, "airspeed_max_m_s", "envelope", 0, 0.0, &b->envelope_airspeed_max_m_s);
   }
   if (st != ASCR_OK) {
     return st;
@@ -234,7 +191,7 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
   if (!json_is_object(root)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
   }
-  ascr_status st = need_keys(r, root, "", keys);
+  ascr_status st = core_json_keys(r, root, "", keys);
   if (st != ASCR_OK) {
     return st;
   }
@@ -290,8 +247,8 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
                      "tip_radius_m (in metres), not both", r->file);
   }
   double tip, hub;
-  st = get_number(r, root, has_m ? "tip_radius_m" : "tip_radius", "", 1, 0.0, &tip);
-  if (st == ASCR_OK) st = get_number(r, root, "hub_radius", "", 0, 0.0, &hub);
+  st = core_json_number(r, root, has_m ? "tip_radius_m" : "tip_radius", "", 1, 0.0, &tip);
+  if (st == ASCR_OK) st = core_json_number(r, root, "hub_radius", "", 0, 0.0, &hub);
   if (st != ASCR_OK) return st;
   if (fraction) {
     /* stations as fractions of the tip radius, the radius in metres */
@@ -306,7 +263,7 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
     return core_fail(r->err, ASCR_EINVAL, "%s: %s: %g must be > 0", r->file,
                      has_m ? "tip_radius_m" : "tip_radius", tip);
   }
-  st = get_number(r, root, "pitch_offset_deg", "", 0, 0.0, &b->pitch_offset_deg);
+  st = core_json_number(r, root, "pitch_offset_deg", "", 0, 0.0, &b->pitch_offset_deg);
   if (st != ASCR_OK) {
     return st;
   }
@@ -353,14 +310,10 @@ ascr_status ascr_blade_parse(const char *text, size_t len, const char *name, con
   }
   *out = NULL;
   rd r = {name != NULL ? name : "(blade)", err};
-  if (memchr(text, '\0', len) != NULL) {
-    return core_fail(err, ASCR_EPARSE, "%s: binary data (NUL byte), not a JSON blade file", r.file);
-  }
-  json_error_t je;
-  json_t *root = json_loadb(text, len, JSON_REJECT_DUPLICATES, &je);
-  if (root == NULL) {
-    return core_fail(err, ASCR_EPARSE, "%s:%d:%d: JSON syntax: %s", r.file, je.line, je.column,
-                     je.text);
+  json_t *root;
+  ascr_status st0 = core_json_load(&r, text, len, &root);
+  if (st0 != ASCR_OK) {
+    return st0;
   }
   ascr_blade *b = calloc(1, sizeof *b);
   if (b == NULL) {
@@ -383,26 +336,11 @@ ascr_status ascr_blade_read(const char *path, ascr_blade **out, ascr_errbuf *err
     return core_fail(err, ASCR_EINVAL, "blade: no file given");
   }
   *out = NULL;
-  FILE *f = fopen(path, "rb");
-  if (f == NULL) {
-    return core_fail(err, ASCR_EIO, "%s: cannot open blade file", path);
-  }
-  char *buf = malloc(BLADE_MAX_BYTES + 1);
-  if (buf == NULL) {
-    fclose(f);
-    return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
-  }
-  size_t n = fread(buf, 1, BLADE_MAX_BYTES + 1, f);
-  int bad = ferror(f);
-  fclose(f);
-  if (bad) {
-    free(buf);
-    return core_fail(err, ASCR_EIO, "%s: read error", path);
-  }
-  if (n > BLADE_MAX_BYTES) {
-    free(buf);
-    return core_fail(err, ASCR_EPARSE, "%s: larger than %u MiB, not a blade file", path,
-                     BLADE_MAX_BYTES >> 20);
+  char *buf;
+  size_t n;
+  ascr_status rs = core_file_read(path, BLADE_MAX_BYTES, "blade file", &buf, &n, err);
+  if (rs != ASCR_OK) {
+    return rs;
   }
   /* directory of the file, for relative section paths */
   char *dir = dup_str(path);
