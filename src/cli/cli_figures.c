@@ -394,3 +394,42 @@ int fig_re_study(const char *dir, const char *section, double bubble_cl, const f
   free(lab);
   return rc;
 }
+
+int fig_drive(const char *dir, const char *blade, const char *powertrain,
+              const fig_drive_series *s, size_t ns)
+{
+  enum { MAXS = 12 };
+  if (ns > MAXS) ns = MAXS;
+  plot_series sr[5 * MAXS + 1];
+  char lab[MAXS][48], flab[MAXS][48];
+  double fx[MAXS][2], fy[MAXS][2];
+  size_t nt = 0;
+  for (size_t k = 0; k < ns; k++) {
+    snprintf(lab[k], sizeof lab[k], "%.3g m/s", s[k].speed);
+    sr[nt++] = (plot_series){lab[k], s[k].n, s[k].throttle, s[k].thrust, 0};
+    if (isfinite(s[k].band_lo) && isfinite(s[k].fit_slope)) {
+      /* the best straight line over the usable band, as markers at its ends joined */
+      fx[k][0] = s[k].band_lo;
+      fx[k][1] = 100.0;
+      fy[k][0] = s[k].fit_offset + s[k].fit_slope * fx[k][0];
+      fy[k][1] = s[k].fit_offset + s[k].fit_slope * 100.0;
+      snprintf(flab[k], sizeof flab[k], "best line, %.3g m/s", s[k].speed);
+      sr[nt++] = (plot_series){flab[k], 2, fx[k], fy[k], 0};
+    }
+  }
+  plot_series *rp = sr + nt;
+  for (size_t k = 0; k < ns; k++) rp[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].rpm, 0};
+  plot_series *cu = rp + ns;
+  for (size_t k = 0; k < ns; k++) cu[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].current, 0};
+  plot_series *pw = cu + ns;
+  for (size_t k = 0; k < ns; k++) pw[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].power, 0};
+  char base[4200];
+  (void)blade;
+  (void)powertrain;
+  plot_panel pan[4] = {{"thrust against throttle", "throttle (%)", "thrust (N)", sr, nt},
+                       {"rotation rate", "throttle (%)", "rpm", rp, ns},
+                       {"battery current", "throttle (%)", "current (A)", cu, ns},
+                       {"electrical power at the battery", "throttle (%)", "power (W)", pw, ns}};
+  snprintf(base, sizeof base, "%s/drive", dir);
+  return plot_figure(base, NULL, 2, 2, pan, 4) ? CLI_EXIT_OUTPUT : 0;
+}

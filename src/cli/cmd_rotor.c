@@ -5,6 +5,7 @@
 #define _GNU_SOURCE
 #include "cli.h"
 #include "cli_figures.h"
+#include "cli_rotor_opts.h"
 #include "cli_tables.h"
 #include "commands.h"
 
@@ -42,29 +43,7 @@ static void rotor_help(FILE *fp)
         "      --thrust N          find the rpm giving N newtons at each airspeed (needs\n"
         "                          --rpm-range)\n"
         "      --rpm-range LO:HI   search range of --thrust, rev/min\n"
-        "  -i, --inflow MODEL      bemt (default) or vortex\n"
-        "air (default ISA sea level):\n"
-        "      --altitude M        ISA 1976 troposphere at M metres\n"
-        "      --density RHO       kg/m3        --viscosity MU   Pa s\n"
-        "      --sound-speed A     m/s\n"
-        "      --temperature C     air temperature, deg C (default 15), and/or\n"
-        "      --pressure P        static pressure, Pa (default 101325): density, viscosity and\n"
-        "                          speed of sound from them\n"
-        "section tables:\n"
-        "      --ncrit N, --turbulence PCT, --transition NAME, --trip-upper X, --trip-lower X\n"
-        "                          as for polar (NAME: quiet-air, tunnel, sanded, rotor-inflow,\n"
-        "                          printed-rough)\n"
-        "      --ncrit-range LO:HI also solve every point with tables at N_crit LO and HI and\n"
-        "                          report the band thrust, power and efficiency span over the\n"
-        "                          three (transition uncertainty; tables of their own, cached)\n"
-        "      --table-alpha A:B:S angles of the computed curves (default -8:16:1)\n"
-        "  -p, --panels N          panels on each section (default 160)\n"
-        "      --polar-table NAME=FILE  use a polar-table file for section NAME\n"
-        "      --cache-dir DIR     cache folder (default $AIRSCREW_CACHE_DIR, $XDG_CACHE_HOME/airscrew\n"
-        "                          or ~/.cache/airscrew)\n"
-        "      --no-cache          neither read nor write the cache\n"
-        "model:\n"
-        "  -e, --elements N        blade elements (default 40)\n"
+        CLI_ROTOR_OPTS_HELP
         "output:\n"
         "      --stations          print the spanwise distributions in the table output\n"
         "      --plot DIR          also draw CT, CP, efficiency against J, thrust against rpm and\n"
@@ -170,15 +149,8 @@ int cmd_rotor(int argc, char **argv)
     {"rpm", required_argument, NULL, 'n'},          {"airspeed", required_argument, NULL, 'v'},
     {"speed", required_argument, NULL, 'v'},        {"advance-ratio", required_argument, NULL, 'j'},
     {"thrust", required_argument, NULL, 'H'},       {"rpm-range", required_argument, NULL, 'R'},
-    {"inflow", required_argument, NULL, 'i'},       {"altitude", required_argument, NULL, 'A'},
-    {"density", required_argument, NULL, 'D'},      {"viscosity", required_argument, NULL, 'V'},
-    {"sound-speed", required_argument, NULL, 'S'},  {"temperature", required_argument, NULL, 'K'},
-    {"pressure", required_argument, NULL, 'Y'},  {"ncrit", required_argument, NULL, 'N'},
-    {"turbulence", required_argument, NULL, 'T'},   {"transition", required_argument, NULL, 'W'},   {"trip-upper", required_argument, NULL, 'U'},
-    {"trip-lower", required_argument, NULL, 'L'},   {"table-alpha", required_argument, NULL, 'a'},
-    {"panels", required_argument, NULL, 'p'},       {"polar-table", required_argument, NULL, 'P'},
-    {"cache-dir", required_argument, NULL, 'c'},    {"no-cache", no_argument, NULL, 'X'},
-    {"elements", required_argument, NULL, 'e'},     {"stations", no_argument, NULL, 's'},
+    CLI_ROTOR_LONGOPTS,
+    {"stations", no_argument, NULL, 's'},
     {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
     {"plot", required_argument, NULL, 'G'},          {"ncrit-range", required_argument, NULL, 'B'},
@@ -186,14 +158,11 @@ int cmd_rotor(int argc, char **argv)
   double rpms[ROTOR_MAX_VALUES], speeds[ROTOR_MAX_VALUES] = {0.0};
   size_t nrpm = 0, nspeed = 1;
   int by_j = 0, by_v = 0; /* speeds given as advance ratios J / as airspeeds */
-  double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, altitude = NAN, nc_lo = NAN, nc_hi = NAN;
-  double density = NAN, viscosity = NAN, sound = NAN, temp_c = NAN, press = NAN;
-  const char *inflow = "bemt";
-  cli_table_opts to;
-  cli_table_opts_init(&to);
-  int no_cache = 0, stations = 0, json = 0, csv = 0, force = 0, c;
-  const char *cache_dir = NULL, *outpath = NULL, *plotdir = NULL;
-  ascr_rotor_params rp = ascr_rotor_params_defaults();
+  double thrust = NAN, rpm_lo = NAN, rpm_hi = NAN, nc_lo = NAN, nc_hi = NAN;
+  cli_rotor_opts ro;
+  cli_rotor_opts_init(&ro);
+  int stations = 0, json = 0, csv = 0, force = 0, c;
+  const char *outpath = NULL, *plotdir = NULL;
   opterr = 0;
   cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":n:v:i:p:e:o:h", opts, NULL)) != -1) {
@@ -209,41 +178,6 @@ int cmd_rotor(int argc, char **argv)
       break;
     case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;
     case 'R': if (cli_parse_pair("--rpm-range", optarg, 1.0, 1e6, &rpm_lo, &rpm_hi)) return CLI_EXIT_USAGE; break;
-    case 'i':
-      if (strcmp(optarg, "bemt") != 0 && strcmp(optarg, "vortex") != 0) {
-        cli_error("--inflow: '%s' is not a model (bemt or vortex)", optarg);
-        return CLI_EXIT_USAGE;
-      }
-      inflow = optarg;
-      break;
-    case 'A': if (cli_parse_double("--altitude", optarg, -500.0, 11000.0, &altitude)) return CLI_EXIT_USAGE; break;
-    case 'D': if (cli_parse_double("--density", optarg, 0.01, 50.0, &density)) return CLI_EXIT_USAGE; break;
-    case 'V': if (cli_parse_double("--viscosity", optarg, 1e-7, 1e-2, &viscosity)) return CLI_EXIT_USAGE; break;
-    case 'S': if (cli_parse_double("--sound-speed", optarg, 50.0, 2000.0, &sound)) return CLI_EXIT_USAGE; break;
-    case 'K': if (cli_parse_double("--temperature", optarg, -90.0, 75.0, &temp_c)) return CLI_EXIT_USAGE; break;
-    case 'Y': if (cli_parse_double("--pressure", optarg, 1e4, 1.2e5, &press)) return CLI_EXIT_USAGE; break;
-    case 'N': case 'T': case 'W': case 'U': case 'L':
-      if (cli_visc_opts_parse(&to.vo, c, optarg)) return CLI_EXIT_USAGE;
-      break;
-    case 'a':
-      if (cli_parse_range("--table-alpha", optarg, -30.0, 30.0, &to.alpha_lo, &to.alpha_hi, &to.alpha_step))
-        return CLI_EXIT_USAGE;
-      break;
-    case 'p': if (cli_parse_size("--panels", optarg, 40, 400, &to.panels)) return CLI_EXIT_USAGE; break;
-    case 'P': {
-      const char *eq = strchr(optarg, '=');
-      if (eq == NULL || eq == optarg || eq[1] == '\0' || to.n_files >= CLI_MAX_LIST) {
-        cli_error("--polar-table: '%s' is not NAME=FILE", optarg);
-        return CLI_EXIT_USAGE;
-      }
-      *(char *)eq = '\0';
-      to.file_section[to.n_files] = optarg;
-      to.file_path[to.n_files++] = eq + 1;
-      break;
-    }
-    case 'c': cache_dir = optarg; break;
-    case 'X': no_cache = 1; break;
-    case 'e': if (cli_parse_size("--elements", optarg, 8, 400, &rp.n_elements)) return CLI_EXIT_USAGE; break;
     case 's': stations = 1; break;
     case 'G': plotdir = optarg; break;
     case 'B':
@@ -255,15 +189,16 @@ int cmd_rotor(int argc, char **argv)
     case 'F': force = 1; break;
     case 'h': rotor_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("rotor: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
-    default: cli_error("rotor: unknown option '%s' (see airscrew rotor --help)", argv[optind - 1]); return CLI_EXIT_USAGE;
+    default: {
+      int r = cli_rotor_opts_parse(&ro, c, optarg);
+      if (r == 0) break;
+      if (r < 0) cli_error("rotor: unknown option '%s' (see airscrew rotor --help)", argv[optind - 1]);
+      return CLI_EXIT_USAGE;
+    }
     }
   }
   if (optind != argc - 1) {
     cli_error("rotor: give exactly one BLADE file; see airscrew rotor --help");
-    return CLI_EXIT_USAGE;
-  }
-  if (no_cache && cache_dir != NULL) {
-    cli_error("rotor: --no-cache and --cache-dir exclude each other");
     return CLI_EXIT_USAGE;
   }
   if (by_j && by_v) {
@@ -291,38 +226,12 @@ int cmd_rotor(int argc, char **argv)
     cli_error("rotor: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
-  ascr_inflow model = strcmp(inflow, "vortex") == 0 ? ASCR_INFLOW_VORTEX : ASCR_INFLOW_BEMT;
-  if (!isnan(altitude)) {
-    if (!isnan(density) || !isnan(viscosity) || !isnan(sound)) {
-      cli_error("rotor: --altitude excludes --density, --viscosity and --sound-speed");
-      return CLI_EXIT_USAGE;
-    }
-    ascr_errbuf err;
-    ascr_status st = ascr_isa(altitude, &rp.density_kg_m3, &rp.viscosity_pa_s, &rp.sound_speed_m_s, &err);
-    if (st != ASCR_OK) {
-      cli_error("--altitude: %s", err.msg);
-      return CLI_EXIT_USAGE;
-    }
-  }
-  if (!isnan(temp_c) || !isnan(press)) {
-    if (!isnan(altitude) || !isnan(density) || !isnan(viscosity) || !isnan(sound)) {
-      cli_error("rotor: --temperature/--pressure exclude --altitude, --density, --viscosity and "
-                "--sound-speed");
-      return CLI_EXIT_USAGE;
-    }
-    ascr_errbuf err;
-    ascr_status st = ascr_air_from_tp(273.15 + (isnan(temp_c) ? 15.0 : temp_c),
-                                      isnan(press) ? 101325.0 : press, &rp.density_kg_m3,
-                                      &rp.viscosity_pa_s, &rp.sound_speed_m_s, &err);
-    if (st != ASCR_OK) {
-      cli_error("--temperature/--pressure: %s", err.msg);
-      return CLI_EXIT_USAGE;
-    }
-  }
-  if (!isnan(density)) rp.density_kg_m3 = density;
-  if (!isnan(viscosity)) rp.viscosity_pa_s = viscosity;
-  if (!isnan(sound)) rp.sound_speed_m_s = sound;
-  to.cache_dir = no_cache ? NULL : (cache_dir != NULL ? cache_dir : cli_default_cache_dir());
+  int orc0 = cli_rotor_opts_finish(&ro, "rotor");
+  if (orc0) return orc0;
+  ascr_inflow model = cli_rotor_opts_model(&ro);
+  const char *inflow = ro.inflow;
+  ascr_rotor_params rp = ro.rp;
+  cli_table_opts to = ro.to;
 
   if (cli_check_options_only) return CLI_EXIT_OK;
   /* the output file checked before the plot folder is created (nothing left behind) */

@@ -86,7 +86,7 @@ ascr_status ascr_power_state_at(const ascr_powertrain *pt, ascr_battery_state s,
   o->battery_voltage_V = voc - ib * rb;
   o->motor_voltage_V = e + i * m->resistance_ohm; /* d Vin less the switch drop */
   o->motor_torque_Nm = k * (i - i0);
-  o->shaft_power_W = o->motor_torque_Nm * w;
+  o->shaft_power_W = o->motor_torque_Nm * w + 0.0; /* + 0.0: no -0 at standstill */
   o->electrical_power_W = o->battery_voltage_V * ib;
   o->copper_loss_W = i * i * m->resistance_ohm;
   o->no_load_loss_W = e * i0;

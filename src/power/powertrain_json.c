@@ -186,7 +186,7 @@ ascr_status ascr_powertrain_validate(const ascr_powertrain *pt, ascr_errbuf *err
     const char *why;
   } c[] = {
       {"motor.kv_rpm_per_V", m->kv_rpm_per_V, 10.0, 1e5, 0, ""},
-      {"motor.resistance_ohm", m->resistance_ohm, 0.0, 100.0, 0, ""},
+      {"motor.resistance_ohm", m->resistance_ohm, 1e-4, 100.0, 0, ""}, /* > 0: the circuit divides by it at standstill */
       {"motor.no_load_current_A", m->no_load_current_A, 0.0, 100.0, 0, ""},
       {"motor.no_load_voltage_V", m->no_load_voltage_V, 0.1, 1000.0, 1, ""},
       {"motor.no_load_speed_share", m->no_load_speed_share, 0.0, 1.0, 0, ""},

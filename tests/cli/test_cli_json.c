@@ -423,6 +423,68 @@ static char *run_raw(const char *args, size_t *len)
   return buf;
 }
 
+/* airscrew drive ... --json: the contract of issue 14 (a list "points", each with the named
+ * fields and the motor's parameters echoed), the energy balance of each point, and agreement
+ * with the rotor command: the propeller at a drive point's rpm gives the drive point's thrust
+ * (1e-8: the 10 significant digits printed), and the throttle for a thrust lands on the rpm of
+ * "rotor --thrust" (its search's 1e-7). */
+#define DRIVE_ARGS ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json " ASCR_SOURCE_DIR \
+  "/tests/data/powertrains/eight-inch-3s.json --polar-table main=" ASCR_SOURCE_DIR           \
+  "/tests/data/naca4412-table.json"
+static void test_cli_drive_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("drive " DRIVE_ARGS " --throttle 40,80 --speed 0,6 --json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  json_t *pts = json_object_get(j, "points");
+  assert_int_equal(json_array_size(pts), 4);
+  static const char *const keys[] = {"throttle", "rpm", "speed_m_s", "thrust_N", "torque_Nm",
+                                     "current_A", "motor_voltage_V", "battery_voltage_V",
+                                     "shaft_power_W", "electrical_power_W", "kv_rpm_per_V",
+                                     "resistance_ohm", "no_load_current_A", NULL};
+  for (size_t k = 0; k < 4; k++) {
+    json_t *p = json_array_get(pts, k);
+    assert_true(json_is_true(json_object_get(p, "converged")));
+    for (size_t i = 0; keys[i] != NULL; i++) (void)num(p, keys[i]);
+    ascr_assert_close(num(p, "kv_rpm_per_V"), 920.0, 0.0, 0.0, "KV echoed");
+    double sum = num(p, "shaft_power_W") + num(p, "copper_loss_W") + num(p, "no_load_loss_W") +
+                 num(p, "esc_loss_W") + num(p, "wiring_loss_W");
+    ascr_assert_close(num(p, "electrical_power_W"), sum, 1e-8, 0.0, "energy balance");
+  }
+  /* the first point (40 %, 0 m/s) against the rotor command at its rpm */
+  json_t *p0 = json_array_get(pts, 0);
+  ascr_assert_close(num(p0, "throttle"), 0.4, 1e-12, 0.0, "throttle as a fraction");
+  char args[2048];
+  snprintf(args, sizeof args, "rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm %.10g "
+           "--polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --json", num(p0, "rpm"));
+  json_t *r = run_json(args, &code);
+  assert_int_equal(code, 0);
+  json_t *rp = json_array_get(json_object_get(r, "points"), 0);
+  ascr_assert_close(num(rp, "thrust_N"), num(p0, "thrust_N"), 1e-8, 0.0, "rotor at the drive rpm");
+  ascr_assert_close(num(rp, "torque_Nm"), num(p0, "torque_Nm"), 1e-8, 0.0, "torque at the drive rpm");
+  json_decref(r);
+  json_t *lin = json_object_get(j, "linearity");
+  assert_int_equal(json_array_size(lin), 2);
+  (void)num(json_array_get(lin, 0), "max_deviation");
+  (void)num(json_array_get(lin, 0), "gain_ratio_25_75");
+  json_decref(j);
+  /* the throttle for 3 N in hover and the rotor's own thrust search */
+  j = run_json("drive " DRIVE_ARGS " --thrust 3 --json", &code);
+  assert_int_equal(code, 0);
+  json_t *h = json_array_get(json_object_get(j, "points"), 0);
+  ascr_assert_close(num(h, "thrust_N"), 3.0, 1e-6, 0.0, "thrust reached");
+  assert_true(num(h, "throttle") > 0.0 && num(h, "throttle") < 1.0);
+  r = run_json("rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --thrust 3 --rpm-range "
+               "1000:30000 --polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --json", &code);
+  assert_int_equal(code, 0);
+  rp = json_array_get(json_object_get(r, "points"), 0);
+  ascr_assert_close(num(h, "rpm"), num(rp, "rpm"), 1e-6, 0.0, "hover rpm as rotor --thrust");
+  json_decref(r);
+  json_decref(j);
+}
+
 static void test_cli_output_is_deterministic(void **state)
 {
   (void)state;
@@ -456,6 +518,7 @@ int main(void)
     cmocka_unit_test(test_cli_polar_json_contract),
     cmocka_unit_test(test_cli_polar_json_transition_band),
     cmocka_unit_test(test_cli_rotor_json_contract),
+    cmocka_unit_test(test_cli_drive_json_contract),
     cmocka_unit_test(test_cli_output_is_deterministic),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
