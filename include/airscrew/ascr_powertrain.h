@@ -79,12 +79,23 @@ typedef enum ascr_battery_state {
   ASCR_BATTERY_LOADED = 2
 } ascr_battery_state;
 
+/** The craft the powertrain flies: its rotors share the one battery (each with its own motor
+ *  and controller, all at the same throttle). */
+typedef struct ascr_craft {
+  double mass_kg;                /* all-up mass */
+  int rotors;                    /* 1 .. 16 */
+  double drag_area_m2;           /* drag coefficient times its reference area (the body's
+                                    parasite drag, taken the same in climb; 0: none stated) */
+} ascr_craft;
+
 typedef struct ascr_powertrain {
   char *name;                    /* may be NULL */
   ascr_motor motor;
   ascr_esc esc;
   ascr_battery battery;
-  double wiring_resistance_ohm;  /* battery to controller, both leads */
+  double wiring_resistance_ohm;  /* battery to controller, both leads, one rotor's branch */
+  int has_craft;                 /* craft given: its rotors share the pack */
+  ascr_craft craft;
 } ascr_powertrain;
 
 /** Check ranges (KV, resistances, cell counts and voltages, shares); the message names the
@@ -108,7 +119,8 @@ ASCR_EXPORT double ascr_battery_open_voltage(const ascr_battery *b, ascr_battery
 /** The electrical state of the powertrain at a throttle and shaft speed (no propeller). */
 typedef struct ascr_power_state {
   double throttle, rpm;
-  double motor_current_A, battery_current_A;
+  double motor_current_A;
+  double battery_current_A;      /* the pack's whole current (every rotor of the craft) */
   double back_emf_V;
   double motor_voltage_V;        /* mean voltage at the motor's terminals (d V_in less the
                                     controller's switch drop) */
@@ -116,7 +128,7 @@ typedef struct ascr_power_state {
   double battery_voltage_V;      /* at the battery's terminals */
   double motor_torque_Nm;        /* shaft torque k (I - I0) */
   double shaft_power_W;          /* torque times angular speed */
-  double electrical_power_W;     /* drawn at the battery's terminals */
+  double electrical_power_W;     /* drawn at the battery's terminals by this rotor */
   double copper_loss_W, no_load_loss_W, esc_loss_W, wiring_loss_W;
   double battery_loss_W;         /* inside the pack (not part of electrical_power_W) */
   double motor_efficiency;       /* shaft / motor input (NaN when the input is not positive) */
@@ -214,6 +226,27 @@ typedef struct ascr_drive_linearity {
  *  status of a failed point. */
 ASCR_EXPORT ascr_status ascr_drive_linearity_at(const ascr_drive *d, double speed_m_s,
                                                 ascr_drive_linearity *out, ascr_errbuf *err);
+
+/** Standard gravity (m/s^2; the 1901 CGPM value) for the craft's weight. */
+#define ASCR_STANDARD_GRAVITY 9.80665
+
+/** Hover of the craft (the powertrain must carry one): each rotor carries its share of the
+ *  weight at zero airspeed (ascr_drive_throttle_for_thrust). endurance_s (may be NULL): the
+ *  pack's usable capacity over its current, a constant-current discharge at the chosen state of
+ *  charge (no voltage-charge curve: the states full / nominal / loaded bracket a flight).
+ *  @return as ascr_drive_throttle_for_thrust; ASCR_EINVAL without a craft. */
+ASCR_EXPORT ascr_status ascr_drive_hover(const ascr_drive *d, ascr_drive_point *out,
+                                         double *endurance_s, ascr_errbuf *err);
+
+/** Largest steady vertical climb rate: at full throttle, rotors x T(1, Vc) = m g + 1/2 rho Vc^2
+ *  (drag area), the propellers in axial inflow at the climb speed (the body's drag area taken
+ *  the same as in forward flight: an assumption), by GSL's Brent solver on Vc between 0 (where
+ *  full throttle must lift the craft) and the speed where the surplus has gone (found by
+ *  doubling from 2 m/s up to 128 m/s). out: the full-throttle point at that climb rate.
+ *  @return ASCR_OK; ASCR_EDOM when full throttle does not lift the craft; ASCR_EMAXITER;
+ *          ASCR_EINVAL without a craft. */
+ASCR_EXPORT ascr_status ascr_drive_max_climb(const ascr_drive *d, double *climb_m_s,
+                                             ascr_drive_point *out, ascr_errbuf *err);
 
 #ifdef __cplusplus
 }

@@ -48,6 +48,10 @@ static void drive_help(FILE *fp)
         "      --thrust N          the throttle giving N newtons at each airspeed (hover: 0)\n"
         "      --battery STATE     open-circuit voltage of the pack: full, nominal (default) or\n"
         "                          loaded (late in the flight), from the powertrain file\n"
+        "craft (the powertrain file's \"craft\": mass, rotors on the pack, drag area):\n"
+        "      --hover             the hover throttle, currents and endurance\n"
+        "      --climb             the largest vertical climb rate at full throttle\n"
+        "                          (with either and no --throttle, no throttle points are run)\n"
         CLI_ROTOR_OPTS_HELP
         "output:\n"
         "      --plot DIR          also draw thrust, rpm, current and power against throttle\n"
@@ -189,7 +193,8 @@ int cmd_drive(int argc, char **argv)
   static const struct option opts[] = {
     {"throttle", required_argument, NULL, 't'},     {"speed", required_argument, NULL, 'v'},
     {"airspeed", required_argument, NULL, 'v'},     {"thrust", required_argument, NULL, 'H'},
-    {"battery", required_argument, NULL, 'b'},
+    {"battery", required_argument, NULL, 'b'},      {"hover", no_argument, NULL, 'Q'},
+    {"climb", no_argument, NULL, 'M'},
     CLI_ROTOR_LONGOPTS,
     {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
@@ -198,7 +203,7 @@ int cmd_drive(int argc, char **argv)
   double thr[DRIVE_MAX_VALUES], speeds[DRIVE_MAX_VALUES] = {0.0};
   size_t nthr = 0, nspeed = 1;
   double thrust = NAN;
-  int state = ASCR_BATTERY_NOMINAL, json = 0, csv = 0, force = 0, c;
+  int state = ASCR_BATTERY_NOMINAL, json = 0, csv = 0, force = 0, hover = 0, climb = 0, c;
   const char *outpath = NULL, *plotdir = NULL;
   cli_rotor_opts ro;
   cli_rotor_opts_init(&ro);
@@ -219,6 +224,8 @@ int cmd_drive(int argc, char **argv)
       state = k;
       break;
     }
+    case 'Q': hover = 1; break;
+    case 'M': climb = 1; break;
     case 'G': plotdir = optarg; break;
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
@@ -247,10 +254,11 @@ int cmd_drive(int argc, char **argv)
     cli_error("drive: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
-  if (!trim && nthr == 0) {
+  if (!trim && nthr == 0 && !hover && !climb) {
     for (size_t i = 0; i <= 10; i++) thr[i] = 10.0 * (double)i;
     nthr = 11;
   }
+  int map = !trim && nthr > 0; /* throttle points, and with them the map and its linearity */
   int orc = cli_rotor_opts_finish(&ro, "drive");
   if (orc) return orc;
   if (cli_check_options_only) return CLI_EXIT_OK;
@@ -275,17 +283,29 @@ int cmd_drive(int argc, char **argv)
     cli_output_discard(&out);
     return st == ASCR_ENOMEM ? CLI_EXIT_INTERNAL : CLI_EXIT_INPUT;
   }
+  if ((hover || climb) && !pt->has_craft) {
+    cli_error("%s: --hover and --climb need a \"craft\" (mass_kg, rotors) in the powertrain file", pfile);
+    ascr_powertrain_free(pt);
+    ascr_blade_free(blade);
+    cli_output_discard(&out);
+    return CLI_EXIT_INPUT;
+  }
   /* the tables: up to the highest speed the motor can reach (full throttle, full pack) down to
    * a fifth of it, whatever the request's throttles, so that a point's tables do not depend on
    * what else was asked; slower points are flagged by the rotor models */
   double n_max = ascr_power_no_load_rpm(pt, ASCR_BATTERY_FULL, 1.0);
   double vmax = 0.0;
   for (size_t i = 0; i < nspeed; i++) vmax = fmax(vmax, speeds[i]);
+  if (blade->envelope_airspeed_max_m_s > 0.0) vmax = fmax(vmax, blade->envelope_airspeed_max_m_s);
   cli_tables tabs;
   memset(&tabs, 0, sizeof tabs);
   drive_row *rows = NULL;
   ascr_drive_linearity *lin = NULL;
   size_t nrow = trim ? nspeed : nthr * nspeed, nconv = 0;
+  ascr_drive_point hov, clp;
+  double endurance = NAN, vclimb = NAN;
+  int hov_ok = 0, cl_ok = 0;
+  char hov_msg[ASCR_ERRBUF_SIZE] = "", cl_msg[ASCR_ERRBUF_SIZE] = "";
   if (!(n_max > 100.0)) {
     cli_error("%s: the motor cannot turn at full throttle (no-load speed %.0f rpm)", pfile, n_max);
     rc = CLI_EXIT_INPUT;
@@ -293,7 +313,7 @@ int cmd_drive(int argc, char **argv)
   }
   rc = cli_tables_prepare(blade, &ro.rp, 0.2 * n_max, n_max, 0.0, vmax, &ro.to, &tabs);
   if (rc) goto done;
-  rows = calloc(nrow, sizeof *rows);
+  rows = calloc(nrow + 1, sizeof *rows);
   lin = calloc(nspeed, sizeof *lin);
   if (rows == NULL || lin == NULL) {
     cli_error("out of memory");
@@ -324,7 +344,33 @@ int cmd_drive(int argc, char **argv)
     r->solved = 1;
     nconv += (size_t)r->p.converged;
   }
-  for (size_t s = 0; rc == 0 && !trim && s < nspeed; s++) {
+  if (rc == 0 && hover) {
+    st = ascr_drive_hover(&drv, &hov, &endurance, &err);
+    if (st == ASCR_EDOM || st == ASCR_EMAXITER) {
+      snprintf(hov_msg, sizeof hov_msg, "%s", err.msg);
+      cli_warn("hover: %s", err.msg);
+    } else if (st != ASCR_OK) {
+      cli_error("%s", err.msg);
+      rc = cli_exit_for(st);
+    } else {
+      hov_ok = hov.converged;
+      nconv += (size_t)hov_ok;
+    }
+  }
+  if (rc == 0 && climb) {
+    st = ascr_drive_max_climb(&drv, &vclimb, &clp, &err);
+    if (st == ASCR_EDOM || st == ASCR_EMAXITER) {
+      snprintf(cl_msg, sizeof cl_msg, "%s", err.msg);
+      cli_warn("climb: %s", err.msg);
+    } else if (st != ASCR_OK) {
+      cli_error("%s", err.msg);
+      rc = cli_exit_for(st);
+    } else {
+      cl_ok = clp.converged;
+      nconv += (size_t)cl_ok;
+    }
+  }
+  for (size_t s = 0; rc == 0 && map && s < nspeed; s++) {
     st = ascr_drive_linearity_at(&drv, speeds[s], &lin[s], &err);
     if (st != ASCR_OK) {
       cli_error("%s", err.msg);
@@ -339,7 +385,7 @@ int cmd_drive(int argc, char **argv)
   const char *bname = blade->name != NULL ? blade->name : bfile;
   const char *pname = pt->name != NULL ? pt->name : pfile;
   double voc = ascr_battery_open_voltage(&pt->battery, (ascr_battery_state)state);
-  if (plotdir != NULL && !trim) {
+  if (plotdir != NULL && map) {
     fig_drive_series *fs = calloc(nspeed, sizeof *fs);
     double *fb = calloc(nspeed * 5 * ASCR_DRIVE_MAP_POINTS + 1, sizeof *fb);
     if (fs == NULL || fb == NULL) {
@@ -392,11 +438,28 @@ int cmd_drive(int argc, char **argv)
     json_t *pa = json_array();
     for (size_t k = 0; k < nrow; k++) json_array_append_new(pa, point_json(&rows[k], pt));
     json_object_set_new(o, "points", pa);
-    if (!trim) {
+    if (hover) {
+      drive_row r = {hov, hov_ok || hov_msg[0] == '\0', ""};
+      snprintf(r.note, sizeof r.note, "%s", hov_msg);
+      json_t *h = point_json(&r, pt);
+      json_object_set_new(h, "craft_mass_kg", json_real(pt->craft.mass_kg));
+      json_object_set_new(h, "rotors", json_integer(pt->craft.rotors));
+      json_object_set_new(h, "endurance_min", cli_json_num(hov_ok, endurance / 60.0));
+      json_object_set_new(o, "hover", h);
+    }
+    if (climb) {
+      drive_row r = {clp, cl_ok || cl_msg[0] == '\0', ""};
+      snprintf(r.note, sizeof r.note, "%s", cl_msg);
+      json_t *h = point_json(&r, pt);
+      json_object_set_new(h, "climb_rate_m_s", cli_json_num(cl_ok, vclimb));
+      json_object_set_new(h, "drag_area_m2", json_real(pt->craft.drag_area_m2));
+      json_object_set_new(o, "max_climb", h);
+    }
+    if (map) {
       json_t *la = json_array();
       for (size_t s = 0; s < nspeed; s++) {
         const ascr_drive_linearity *l = &lin[s];
-        json_t *lo = json_object(), *band = json_array(), *map = json_array();
+        json_t *lo = json_object(), *band = json_array(), *mapa = json_array();
         int has = !isnan(l->band[0]);
         json_object_set_new(lo, "speed_m_s", json_real(l->speed_m_s));
         json_array_append_new(band, cli_json_num(has, l->band[0]));
@@ -409,9 +472,9 @@ int cmd_drive(int argc, char **argv)
         json_object_set_new(lo, "complete", json_boolean(l->complete));
         for (size_t i = 0; i < ASCR_DRIVE_MAP_POINTS; i++) {
           drive_row r = {l->grid[i], 1, ""};
-          json_array_append_new(map, point_json(&r, pt));
+          json_array_append_new(mapa, point_json(&r, pt));
         }
-        json_object_set_new(lo, "map", map);
+        json_object_set_new(lo, "map", mapa);
         json_array_append_new(la, lo);
       }
       json_object_set_new(o, "linearity", la);
@@ -426,7 +489,12 @@ int cmd_drive(int argc, char **argv)
     fprintf(fp, "# blade: %s\n# powertrain: %s\n# battery: %s (%.3f V open circuit)\n", bname, pname,
             state_names[state], voc);
     for (size_t i = 0; drive_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", drive_cautions[i]);
-    for (size_t s = 0; !trim && s < nspeed; s++) {
+    if (hover && hov_ok) {
+      fprintf(fp, "# hover: throttle %.4f, %.0f rpm, pack current %.4g A, endurance %.2f min\n", hov.throttle,
+              hov.rotor.rpm, hov.power.battery_current_A, endurance / 60.0);
+    }
+    if (climb && cl_ok) fprintf(fp, "# max_climb: %.4g m/s\n", vclimb);
+    for (size_t s = 0; map && s < nspeed; s++) {
       const ascr_drive_linearity *l = &lin[s];
       fprintf(fp, "# linearity at %g m/s: usable_band %.2f..1, max_deviation %.4f, gain_ratio_25_75 %.4f\n",
               l->speed_m_s, l->band[0], l->max_deviation, l->gain_ratio);
@@ -465,7 +533,7 @@ int cmd_drive(int argc, char **argv)
     fprintf(fp, "battery     %s charge: %.2f V open circuit\n", state_names[state], voc);
     fprintf(fp, "air         density %.4f kg/m3\n", ro.rp.density_kg_m3);
     if (trim) fprintf(fp, "target      %g N\n", thrust);
-    fprintf(fp, "\n%8s %6s %7s %8s %9s %8s %8s %7s %7s %8s %8s %6s %6s  %s\n", "throttle", "V m/s", "rpm",
+    if (nrow > 0) fprintf(fp, "\n%8s %6s %7s %8s %9s %8s %8s %7s %7s %8s %8s %6s %6s  %s\n", "throttle", "V m/s", "rpm",
             "thrust N", "torque Nm", "I mot A", "I bat A", "V mot", "V bat", "shaft W", "elec W",
             "eta_m", "g/W", "notes");
     for (size_t k = 0; k < nrow; k++) {
@@ -489,9 +557,36 @@ int cmd_drive(int argc, char **argv)
               p->power.battery_voltage_V, p->power.shaft_power_W, p->power.electrical_power_W, em, gw, w);
     }
     fputc('\n', fp);
-    for (size_t s = 0; !trim && s < nspeed; s++) lin_text(fp, &lin[s]);
-    fputs("(I mot: motor current; I bat: battery current = throttle x motor current; V mot: at the\n"
-          " motor's terminals; g/W: thrust in grams-force per electrical watt at the battery)\n\n", fp);
+    for (size_t s = 0; map && s < nspeed; s++) lin_text(fp, &lin[s]);
+    if (hover) {
+      const ascr_craft *cr = &pt->craft;
+      if (hov_ok) {
+        fprintf(fp, "hover: %.4g kg on %d rotors, %.4f N each: throttle %.1f %%, %.0f rpm, motor %.3f A, "
+                "pack %.3f A at %.3f V, %.2f W from the pack in all; endurance %.1f min (%.0f %% of "
+                "%.3g Ah)%s\n", cr->mass_kg, cr->rotors, hov.rotor.thrust_N, 100.0 * hov.throttle,
+                hov.rotor.rpm, hov.power.motor_current_A, hov.power.battery_current_A,
+                hov.power.battery_voltage_V, cr->rotors * hov.power.electrical_power_W, endurance / 60.0,
+                100.0 * pt->battery.usable_share, pt->battery.capacity_Ah,
+                hov.flags & ASCR_DRIVE_LOW_CONFIDENCE ? " (low confidence)" : "");
+      } else {
+        fprintf(fp, "hover: no solution: %s\n", hov_msg[0] ? hov_msg : "not converged");
+      }
+    }
+    if (climb) {
+      if (cl_ok) {
+        fprintf(fp, "climb: at most %.2f m/s vertically (full throttle, %.0f rpm, %.4f N a rotor, drag "
+                "area %.4g m2)%s\n", vclimb, clp.rotor.rpm, clp.rotor.thrust_N, pt->craft.drag_area_m2,
+                clp.flags & ASCR_DRIVE_LOW_CONFIDENCE ? " (low confidence)" : "");
+      } else {
+        fprintf(fp, "climb: no solution: %s\n", cl_msg[0] ? cl_msg : "not converged");
+      }
+    }
+    if (nrow > 0) {
+      fputs("(I mot: motor current; I bat: the pack's current (throttle x motor current, times the\n"
+            " rotors on the pack); V mot: at the motor's terminals; g/W: thrust in grams-force per\n"
+            " electrical watt drawn from the pack)\n", fp);
+    }
+    fputc('\n', fp);
     for (size_t i = 0; drive_cautions[i] != NULL; i++) fprintf(fp, "caution: %s\n", drive_cautions[i]);
   }
 done:

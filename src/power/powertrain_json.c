@@ -75,7 +75,7 @@ static ascr_status read_count(const core_json_ctx *r, json_t *obj, const char *k
 static ascr_status parse_root(const core_json_ctx *r, json_t *root, ascr_powertrain *pt)
 {
   static const char *const keys[] = {"format", "name", "motor", "esc", "battery",
-                                     "wiring_resistance_ohm", NULL};
+                                     "wiring_resistance_ohm", "craft", NULL};
   if (!json_is_object(root)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
   }
@@ -146,6 +146,21 @@ static ascr_status parse_root(const core_json_ctx *r, json_t *root, ascr_powertr
   if (st != ASCR_OK) {
     return st;
   }
+  json_t *craft = json_object_get(root, "craft");
+  if (craft != NULL) {
+    double nr = 0.0;
+    const field cf[] = {{"mass_kg", &pt->craft.mass_kg, 1, 0.0},
+                        {"rotors", &nr, 1, 0.0},
+                        {"drag_area_m2", &pt->craft.drag_area_m2, 0, 0.0}};
+    st = read_object(r, root, "craft", 1, cf, sizeof cf / sizeof cf[0]);
+    if (st == ASCR_OK) {
+      st = read_count(r, craft, "rotors", "craft", 1, 0, 1, 16, &pt->craft.rotors);
+    }
+    if (st != ASCR_OK) {
+      return st;
+    }
+    pt->has_craft = 1;
+  }
   ascr_errbuf e2;
   st = ascr_powertrain_validate(pt, &e2);
   if (st != ASCR_OK) {
@@ -208,6 +223,9 @@ ascr_status ascr_powertrain_validate(const ascr_powertrain *pt, ascr_errbuf *err
       {"battery.usable_share", b->usable_share, 0.05, 1.0, 0, ""},
       {"battery.mass_kg", b->mass_kg, 0.0, 100.0, 1, ""},
       {"wiring_resistance_ohm", pt->wiring_resistance_ohm, 0.0, 10.0, 0, ""},
+      {"craft.mass_kg", pt->has_craft ? pt->craft.mass_kg : NAN, 1e-3, 1e4, 1, ""},
+      {"craft.rotors", pt->has_craft ? (double)pt->craft.rotors : NAN, 1.0, 16.0, 1, ""},
+      {"craft.drag_area_m2", pt->has_craft ? pt->craft.drag_area_m2 : NAN, 0.0, 100.0, 1, ""},
   };
   for (size_t i = 0; i < sizeof c / sizeof c[0]; i++) {
     ascr_status st = check(err, c[i].path, c[i].v, c[i].lo, c[i].hi, c[i].optional, c[i].why);

@@ -227,6 +227,43 @@ static void test_flags(void **state)
   f->pt = saved;
 }
 
+/* The craft: hover carries the weight share, the endurance is the usable charge over the pack's
+ * current (four rotors on the pack); the climb rate balances full-throttle thrust against weight
+ * and drag, falls with mass, and a craft too heavy to lift is refused. */
+static void test_craft(void **state)
+{
+  fixture *f = *state;
+  ascr_powertrain saved = f->pt;
+  f->pt.battery.cell_resistance_ohm = 0.01;
+  f->pt.has_craft = 1;
+  f->pt.craft.mass_kg = 2.0;
+  f->pt.craft.rotors = 4;
+  f->pt.craft.drag_area_m2 = 0.01;
+  ascr_drive_point h;
+  double endurance;
+  ascr_errbuf err;
+  assert_int_equal(ascr_drive_hover(&f->d, &h, &endurance, &err), ASCR_OK);
+  ascr_assert_close(h.rotor.thrust_N, 2.0 * ASCR_STANDARD_GRAVITY / 4.0, 1e-6, 0.0, "weight share");
+  ascr_assert_close(h.power.battery_current_A, 4.0 * h.throttle * h.power.motor_current_A, 1e-12, 0.0,
+                    "pack current of four rotors");
+  ascr_assert_close(endurance, 0.8 * 1.3 * 3600.0 / h.power.battery_current_A, 1e-12, 0.0, "endurance");
+  double vc, vc_heavy;
+  ascr_drive_point top;
+  assert_int_equal(ascr_drive_max_climb(&f->d, &vc, &top, &err), ASCR_OK);
+  assert_true(vc > 1.0);
+  double drag = 0.5 * f->p.density_kg_m3 * 0.01 * vc * vc;
+  ascr_assert_close(4.0 * top.rotor.thrust_N, 2.0 * ASCR_STANDARD_GRAVITY + drag, 1e-6, 0.0,
+                    "thrust = weight + drag at the climb rate");
+  f->pt.craft.mass_kg = 3.0;
+  assert_int_equal(ascr_drive_max_climb(&f->d, &vc_heavy, &top, &err), ASCR_OK);
+  assert_true(vc_heavy < vc);
+  f->pt.craft.mass_kg = 10.0;
+  assert_int_equal(ascr_drive_max_climb(&f->d, &vc_heavy, &top, &err), ASCR_EDOM);
+  assert_non_null(strstr(err.msg, "cannot climb"));
+  f->pt = saved;
+  assert_int_equal(ascr_drive_hover(&f->d, &h, &endurance, &err), ASCR_EINVAL);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -234,6 +271,7 @@ int main(void)
       cmocka_unit_test(test_hover_throttle),
       cmocka_unit_test(test_map_and_linearity),
       cmocka_unit_test(test_flags),
+      cmocka_unit_test(test_craft),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -73,13 +73,16 @@ static ascr_powertrain full_train(void)
   pt.battery.cell_voltage_loaded_V = 3.5;
   pt.battery.cell_resistance_ohm = 0.01;
   pt.wiring_resistance_ohm = 0.006;
+  pt.has_craft = 1; /* four rotors on the pack */
+  pt.craft.mass_kg = 0.6;
+  pt.craft.rotors = 4;
   return pt;
 }
 
 /* Energy balance: power at the battery's terminals = shaft + copper + no-load + controller +
  * wiring, to 1e-9 relative (conservation of energy in the averaged circuit; the issue's
- * figure), over throttles, speeds and states of charge; and the battery's own loss
- * = open-circuit power - terminal power. */
+ * figure), over throttles, speeds and states of charge, four rotors on the pack; and the
+ * battery's own loss = open-circuit power - terminal power, per branch. */
 static void test_energy_balance(void **state)
 {
   (void)state;
@@ -97,10 +100,12 @@ static void test_energy_balance(void **state)
                      p.wiring_loss_W;
         ascr_assert_close(p.electrical_power_W, sum, 1e-9, 1e-12, "energy balance");
         double voc = ascr_battery_open_voltage(&pt.battery, (ascr_battery_state)s);
-        ascr_assert_close(voc * p.battery_current_A, p.electrical_power_W + p.battery_loss_W, 1e-9,
-                          1e-12, "battery loss");
-        ascr_assert_close(p.battery_current_A, d * p.motor_current_A, 1e-12, 0.0,
-                          "averaged switch: Ib = d I");
+        ascr_assert_close(voc * p.battery_current_A / 4.0, p.electrical_power_W + p.battery_loss_W,
+                          1e-9, 1e-12, "battery loss");
+        ascr_assert_close(p.battery_current_A, 4.0 * d * p.motor_current_A, 1e-12, 0.0,
+                          "averaged switch: Ib = d I, four branches on the pack");
+        ascr_assert_close(p.battery_voltage_V, voc - p.battery_current_A * 0.02, 1e-12, 0.0,
+                          "pack drop under the whole current (4 cells x 0.01 ohm / 2 strings)");
       }
       /* at the no-load speed the shaft torque vanishes */
       ascr_power_state p;
@@ -196,6 +201,12 @@ static void test_file_bad(void **state)
       {"\"wiring_resistance_ohm\": 0.005", "\"wiring_resistance_ohm\": 0.005, \"propeller\": 1",
        "t.json: propeller: unknown field"},
       {"\"cell_resistance_ohm\": 0.008, ", "", "t.json: battery.cell_resistance_ohm: missing"},
+      {"\"wiring_resistance_ohm\": 0.005", "\"wiring_resistance_ohm\": 0.005, \"craft\": {\"mass_kg\": 0.2}",
+       "t.json: craft.rotors: missing"},
+      {"\"wiring_resistance_ohm\": 0.005", "\"wiring_resistance_ohm\": 0.005, \"craft\": {\"mass_kg\": 0.2, \"rotors\": 40}",
+       "t.json: craft.rotors: 40, must be 1 .. 16"},
+      {"\"wiring_resistance_ohm\": 0.005", "\"wiring_resistance_ohm\": 0.005, \"craft\": {\"mass_kg\": -1, \"rotors\": 4}",
+       "t.json: craft.mass_kg: -1 must be"},
   };
   for (size_t i = 0; i < sizeof c / sizeof c[0]; i++) {
     const char *at = strstr(good_file, c[i].from);

@@ -1,0 +1,165 @@
+/* src/power/flight.c
+ * The craft on its powertrain: hover (throttle, currents, endurance) and the largest vertical
+ * climb rate. Forward flight with the disc at incidence is not modelled yet.
+ * docs/theory/powertrain.md ("The craft").
+ */
+#include "power/power_impl.h"
+#include "core/core_impl.h"
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_roots.h>
+#include <math.h>
+#include <string.h>
+
+static ascr_status need_craft(const ascr_drive *d, ascr_errbuf *err)
+{
+  if (d == NULL || d->powertrain == NULL || !d->powertrain->has_craft) {
+    return core_fail(err, ASCR_EINVAL, "drive: the powertrain file gives no craft (mass, rotors)");
+  }
+  return ASCR_OK;
+}
+
+ascr_status ascr_drive_hover(const ascr_drive *d, ascr_drive_point *out, double *endurance_s,
+                             ascr_errbuf *err)
+{
+  ascr_status st = need_craft(d, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  const ascr_craft *c = &d->powertrain->craft;
+  double thrust = c->mass_kg * ASCR_STANDARD_GRAVITY / (double)c->rotors;
+  st = ascr_drive_throttle_for_thrust(d, thrust, 0.0, out, err);
+  if (endurance_s != NULL) {
+    const ascr_battery *b = &d->powertrain->battery;
+    double ib = out->power.battery_current_A;
+    *endurance_s = st == ASCR_OK && ib > 0.0 ? b->usable_share * b->capacity_Ah * 3600.0 / ib : NAN;
+  }
+  return st;
+}
+
+typedef struct climb_ctx {
+  const ascr_drive *d;
+  double weight, drag_k;   /* m g; 1/2 rho CdA */
+  ascr_drive_point pt;
+  ascr_status st;
+  int failed;              /* a full-throttle point did not converge */
+  ascr_errbuf *err;
+} climb_ctx;
+
+/* rotors T(1, Vc) - m g - 1/2 rho Vc^2 CdA */
+static double surplus(double vc, void *vx)
+{
+  climb_ctx *c = vx;
+  ascr_status st = ascr_drive_point_at(c->d, 1.0, vc, &c->pt, c->err);
+  if (st != ASCR_OK) {
+    c->st = st;
+    return NAN;
+  }
+  if (!c->pt.converged) {
+    c->failed = 1;
+    return NAN;
+  }
+  return (double)c->d->powertrain->craft.rotors * c->pt.rotor.thrust_N - c->weight - c->drag_k * vc * vc;
+}
+
+ascr_status ascr_drive_max_climb(const ascr_drive *d, double *climb_m_s, ascr_drive_point *out,
+                                 ascr_errbuf *err)
+{
+  ascr_status st = need_craft(d, err);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  if (climb_m_s == NULL || out == NULL) {
+    return core_fail(err, ASCR_EINVAL, "drive: no result");
+  }
+  const ascr_craft *cr = &d->powertrain->craft;
+  climb_ctx c;
+  memset(&c, 0, sizeof c);
+  c.d = d;
+  c.weight = cr->mass_kg * ASCR_STANDARD_GRAVITY;
+  c.drag_k = 0.5 * d->params->density_kg_m3 * cr->drag_area_m2;
+  c.st = ASCR_OK;
+  c.err = err;
+  double f0 = surplus(0.0, &c);
+  if (c.st != ASCR_OK) {
+    return c.st;
+  }
+  if (c.failed) {
+    return core_fail(err, ASCR_EMAXITER, "drive: the full-throttle point in hover did not converge");
+  }
+  if (!(f0 > 0.0)) {
+    return core_fail(err, ASCR_EDOM, "drive: full throttle gives %.4g N in all, less than the "
+                     "craft's weight %.4g N: it cannot climb", f0 + c.weight, c.weight);
+  }
+  double lo = 0.0, hi = 2.0, fh = NAN;
+  for (; hi <= 128.0; hi *= 2.0) {
+    fh = surplus(hi, &c);
+    if (c.st != ASCR_OK) {
+      return c.st;
+    }
+    if (c.failed || !(fh > 0.0)) {
+      break;
+    }
+    lo = hi;
+  }
+  if (c.failed) {
+    /* a windmilling or unconverged point at hi: the surplus is gone before it (the prop
+     * cannot drive the air faster than its no-load pitch speed); search below it on the
+     * points that converge by bisection to the last converged speed */
+    double a = lo, b = hi;
+    for (int it = 0; it < 40; it++) {
+      double m = 0.5 * (a + b);
+      c.failed = 0;
+      double fm = surplus(m, &c);
+      if (c.st != ASCR_OK) {
+        return c.st;
+      }
+      if (c.failed) {
+        b = m;
+      } else if (fm > 0.0) {
+        a = m;
+      } else {
+        hi = m;
+        fh = fm;
+        break;
+      }
+    }
+    if (c.failed || !(fh <= 0.0)) {
+      return core_fail(err, ASCR_EMAXITER, "drive: the climb rate could not be bracketed (the "
+                       "full-throttle point fails to converge near %.3g m/s)", b);
+    }
+    lo = a;
+  }
+  if (!(fh <= 0.0)) {
+    return core_fail(err, ASCR_EMAXITER, "drive: still climbing at 128 m/s: check the craft");
+  }
+  gsl_function fn = {surplus, &c};
+  gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+  if (s == NULL) {
+    return core_fail(err, ASCR_ENOMEM, "drive: out of memory");
+  }
+  double vc = NAN;
+  if (gsl_root_fsolver_set(s, &fn, lo, hi) == GSL_SUCCESS) {
+    for (int it = 0; it < 100 && c.st == ASCR_OK && !c.failed; it++) {
+      if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
+        break;
+      }
+      if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s), 1e-9,
+                                 1e-9) == GSL_SUCCESS) {
+        vc = gsl_root_fsolver_root(s);
+        break;
+      }
+    }
+  }
+  gsl_root_fsolver_free(s);
+  if (c.st != ASCR_OK) {
+    return c.st;
+  }
+  if (c.failed || isnan(vc)) {
+    return core_fail(err, ASCR_EMAXITER, "drive: the climb-rate search did not converge");
+  }
+  (void)surplus(vc, &c);
+  *climb_m_s = vc;
+  *out = c.pt;
+  return ASCR_OK;
+}
