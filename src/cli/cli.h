@@ -129,6 +129,11 @@ int cli_parse_list(const char *opt, const char *text, double lo, double hi, doub
 int cli_parse_range(const char *opt, const char *text, double lo, double hi, double *a0,
                     double *a1, double *step);
 
+/* VALUES as a comma list (at most CLI_MAX_LIST) or START:END:STEP (at most max values), all
+ * within [lo, hi]. Returns 0, or 1 with a message printed. */
+int cli_parse_values(const char *opt, const char *text, double lo, double hi, size_t max,
+                     double *out, size_t *n);
+
 /* Viscous options shared by flow and polar. */
 typedef struct cli_visc_opts {
   const char *preset; /* --transition NAME given (its N_crit is in ncrit) */

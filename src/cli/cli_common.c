@@ -510,6 +510,24 @@ int cli_parse_range(const char *opt, const char *text, double lo, double hi, dou
   return 0;
 }
 
+int cli_parse_values(const char *opt, const char *text, double lo, double hi, size_t max,
+                     double *out, size_t *n)
+{
+  if (strchr(text, ':') != NULL) {
+    double a0, a1, st;
+    if (cli_parse_range(opt, text, lo, hi, &a0, &a1, &st)) return 1;
+    size_t m = ascr_polar_grid_size(a0, a1, st);
+    if (m == 0 || m > max) {
+      cli_error("%s: '%s' gives %zu values; 1 .. %zu allowed", opt, text, m, max);
+      return 1;
+    }
+    for (size_t i = 0; i < m; i++) out[i] = a0 + (double)i * st;
+    *n = m;
+    return 0;
+  }
+  return cli_parse_list(opt, text, lo, hi, out, n);
+}
+
 void cli_visc_opts_init(cli_visc_opts *o)
 {
   o->preset = NULL;

@@ -395,41 +395,51 @@ int fig_re_study(const char *dir, const char *section, double bubble_cl, const f
   return rc;
 }
 
-int fig_drive(const char *dir, const char *blade, const char *powertrain,
-              const fig_drive_series *s, size_t ns)
+int fig_drive(const char *dir, const ascr_drive_linearity *lin, size_t ns)
 {
-  enum { MAXS = 12 };
+  enum { MAXS = 12, NP = ASCR_DRIVE_MAP_POINTS };
   if (ns > MAXS) ns = MAXS;
   plot_series sr[5 * MAXS + 1];
   char lab[MAXS][48], flab[MAXS][48];
   double fx[MAXS][2], fy[MAXS][2];
+  double v[MAXS][5][NP]; /* throttle %, thrust, rpm, current, power */
   size_t nt = 0;
   for (size_t k = 0; k < ns; k++) {
-    snprintf(lab[k], sizeof lab[k], "%.3g m/s", s[k].speed);
-    sr[nt++] = (plot_series){lab[k], s[k].n, s[k].throttle, s[k].thrust, 0};
-    if (isfinite(s[k].band_lo) && isfinite(s[k].fit_slope)) {
-      /* the best straight line over the usable band, as markers at its ends joined */
-      fx[k][0] = s[k].band_lo;
+    for (size_t i = 0; i < NP; i++) {
+      const ascr_drive_point *p = &lin[k].grid[i];
+      int ok = p->converged;
+      v[k][0][i] = 100.0 * p->throttle;
+      v[k][1][i] = ok ? p->rotor.thrust_N : NAN;
+      v[k][2][i] = ok ? p->rotor.rpm : NAN;
+      v[k][3][i] = ok ? p->power.battery_current_A : NAN;
+      v[k][4][i] = ok ? p->power.electrical_power_W : NAN;
+    }
+    snprintf(lab[k], sizeof lab[k], "%.3g m/s", lin[k].speed_m_s);
+    sr[nt++] = (plot_series){lab[k], NP, v[k][0], v[k][1], 0};
+  }
+  /* the best straight lines over the usable bands after every map, so that a map has the same
+   * colour in every panel */
+  for (size_t k = 0; k < ns; k++) {
+    if (isfinite(lin[k].band[0]) && isfinite(lin[k].fit_slope_N)) {
+      fx[k][0] = 100.0 * lin[k].band[0];
       fx[k][1] = 100.0;
-      fy[k][0] = s[k].fit_offset + s[k].fit_slope * fx[k][0];
-      fy[k][1] = s[k].fit_offset + s[k].fit_slope * 100.0;
-      snprintf(flab[k], sizeof flab[k], "best line, %.3g m/s", s[k].speed);
+      fy[k][0] = lin[k].fit_offset_N + lin[k].fit_slope_N * lin[k].band[0];
+      fy[k][1] = lin[k].fit_offset_N + lin[k].fit_slope_N;
+      snprintf(flab[k], sizeof flab[k], "best line, %.3g m/s", lin[k].speed_m_s);
       sr[nt++] = (plot_series){flab[k], 2, fx[k], fy[k], 0};
     }
   }
-  plot_series *rp = sr + nt;
-  for (size_t k = 0; k < ns; k++) rp[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].rpm, 0};
-  plot_series *cu = rp + ns;
-  for (size_t k = 0; k < ns; k++) cu[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].current, 0};
-  plot_series *pw = cu + ns;
-  for (size_t k = 0; k < ns; k++) pw[k] = (plot_series){NULL, s[k].n, s[k].throttle, s[k].power, 0};
+  plot_series *rp = sr + nt, *cu = rp + ns, *pw = cu + ns;
+  for (size_t k = 0; k < ns; k++) {
+    rp[k] = (plot_series){NULL, NP, v[k][0], v[k][2], 0};
+    cu[k] = (plot_series){NULL, NP, v[k][0], v[k][3], 0};
+    pw[k] = (plot_series){NULL, NP, v[k][0], v[k][4], 0};
+  }
   char base[4200];
-  (void)blade;
-  (void)powertrain;
   plot_panel pan[4] = {{"thrust against throttle", "throttle (%)", "thrust (N)", sr, nt},
                        {"rotation rate", "throttle (%)", "rpm", rp, ns},
-                       {"battery current", "throttle (%)", "current (A)", cu, ns},
-                       {"electrical power at the battery", "throttle (%)", "power (W)", pw, ns}};
+                       {"battery current (the pack's)", "throttle (%)", "current (A)", cu, ns},
+                       {"electrical power from the pack", "throttle (%)", "power (W)", pw, ns}};
   snprintf(base, sizeof base, "%s/drive", dir);
   return plot_figure(base, NULL, 2, 2, pan, 4) ? CLI_EXIT_OUTPUT : 0;
 }

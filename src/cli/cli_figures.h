@@ -71,20 +71,11 @@ typedef struct fig_rotor_point {
  * points). */
 int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np);
 
-/* The throttle map of a powertrain at one airspeed (NaN where a point did not converge). */
-typedef struct fig_drive_series {
-  double speed;                 /* m/s */
-  size_t n;
-  double *throttle;             /* percent */
-  double *thrust, *rpm, *current, *power; /* N, rpm, battery A, electrical W */
-  double band_lo;               /* usable band from this throttle (percent; NaN: none) */
-  double fit_offset, fit_slope; /* best straight line, N and N per percent */
-} fig_drive_series;
-
-/* Thrust (with its best straight line over the usable band), rpm, battery current and
- * electrical power against throttle, one line per airspeed: DIR/drive.svg and .png. */
-int fig_drive(const char *dir, const char *blade, const char *powertrain,
-              const fig_drive_series *s, size_t ns);
+/* Throttle maps of a powertrain (ascr_drive_linearity_at, one per airspeed): thrust with its
+ * best straight line over the usable band, rpm, pack current and electrical power against
+ * throttle, one line per airspeed, unconverged points left out: DIR/drive.svg and .png. */
+struct ascr_drive_linearity;
+int fig_drive(const char *dir, const struct ascr_drive_linearity *lin, size_t ns);
 
 /* One viscous solution: DIR/flow-cp.svg/.png (-Cp over x/c, viscous and inviscid, transition and
  * separated stations marked) and DIR/flow-bl.svg/.png (displacement thickness, shape factor and

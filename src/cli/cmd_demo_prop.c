@@ -10,6 +10,7 @@
 #include "cli_plot.h"
 #include "cli_tables.h"
 #include "commands.h"
+#include "demo_drive.h"
 
 #include <dirent.h>
 #include <errno.h>
@@ -238,6 +239,16 @@ int demo_prop(int argc, char **argv)
                                    thrust_hover, 0.0, lo, hi, &hov[m], hel[m], &err);
     hov_ok[m] = st == ASCR_OK && hov[m].converged;
     snprintf(hov_msg[m], sizeof hov_msg[m], "%s", hov_ok[m] ? "" : err.msg);
+  }
+
+  /* ---- the prop on its powertrain (its own tables, as "airscrew drive" makes them) ---- */
+  fprintf(stderr, "  powertrain: hover, climb and throttle maps...\n");
+  demo_drive_out dd;
+  rc = demo_drive_section(b, &rp, &to, outdir, &dd);
+  if (rc) {
+    cli_tables_free(&tabs);
+    ascr_blade_free(b);
+    return rc;
   }
 
   /* ---- files ---- */
@@ -470,7 +481,8 @@ int demo_prop(int argc, char **argv)
         fprintf(f, "<tr><td>%s</td><td colspan=\"8\">not converged</td></tr>\n", m ? "vortex" : "BEMT");
       }
     }
-    fprintf(f, "</table>\n<h2>Convergence</h2>\n<p>Rotor map: BEMT %zu of %d points converged, vortex %zu of %d "
+    fprintf(f, "</table>\n%s", dd.html != NULL ? dd.html : "");
+    fprintf(f, "<h2>Convergence</h2>\n<p>Rotor map: BEMT %zu of %d points converged, vortex %zu of %d "
                "(unconverged points are left blank, never plotted as results).</p>\n<table><tr><th>section</th>"
                "<th>Re</th><th>converged polar points</th></tr>\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
     for (size_t s = 0; s < tabs.n; s++) {
@@ -485,6 +497,7 @@ int demo_prop(int argc, char **argv)
                "outside the converged angles the post-stall extension of Viterna &amp; Corrigan is used.</p>\n");
     static const char *const figs[][2] = {{"rotor-map.svg", "Rotor map over rpm and flight speed."},
                                           {"hover-spanwise.svg", "Spanwise loading and angle of attack in hover, both inflow models."},
+                                          {"drive.svg", "The prop on its powertrain (nominal pack): thrust, rpm, pack current and power against throttle, static and at 8 m/s."},
                                           {"polars-blade.svg", "Computed polars of the blade section."},
                                           {"polars-root.svg", "Computed polars of the root section."}};
     for (size_t q = 0; q < sizeof figs / sizeof figs[0]; q++) {
@@ -501,7 +514,8 @@ int demo_prop(int argc, char **argv)
       fprintf(f, "<figcaption>%s</figcaption></figure>\n", figs[q][1]);
       free(svg);
     }
-    fprintf(f, "<h2>Files</h2>\n<p>blade.json, polars.csv, rotor-map.csv, hover.json, and every plot as "
+    fprintf(f, "<h2>Files</h2>\n<p>blade.json, polars.csv, rotor-map.csv, hover.json, powertrain.json, "
+               "drive-map.csv, and every plot as "
                "SVG and PNG, in this folder. Methods and their limits: airscrew's docs/theory/.</p>\n"
                "</body></html>\n");
     rc = mwrite(&mb, outdir, "report.html");
@@ -517,6 +531,7 @@ int demo_prop(int argc, char **argv)
       }
     }
     printf("  rotor map: BEMT %zu/%d, vortex %zu/%d points converged\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
+    if (dd.summary != NULL) printf("%s\n", dd.summary);
     printf("outputs in %s/:\n", outdir);
     DIR *d = opendir(outdir);
     struct dirent *e;
@@ -530,6 +545,7 @@ int demo_prop(int argc, char **argv)
     printf("open %s/report.html in a browser for the one-page report.\n", outdir);
     for (int q = 0; cautions[q] != NULL; q++) printf("caution: %s\n", cautions[q]);
   }
+  demo_drive_out_free(&dd);
   cli_tables_free(&tabs);
   ascr_blade_free(b);
   return rc;

@@ -65,24 +65,6 @@ static void drive_help(FILE *fp)
         fp);
 }
 
-static int parse_values(const char *opt, const char *text, double lo, double hi, double *out,
-                        size_t *n)
-{
-  if (strchr(text, ':') != NULL) {
-    double a0, a1, st;
-    if (cli_parse_range(opt, text, lo, hi, &a0, &a1, &st)) return 1;
-    size_t m = ascr_polar_grid_size(a0, a1, st);
-    if (m == 0 || m > DRIVE_MAX_VALUES) {
-      cli_error("%s: '%s' gives %zu values; 1 .. %d allowed", opt, text, m, DRIVE_MAX_VALUES);
-      return 1;
-    }
-    for (size_t i = 0; i < m; i++) out[i] = a0 + (double)i * st;
-    *n = m;
-    return 0;
-  }
-  return cli_parse_list(opt, text, lo, hi, out, n);
-}
-
 typedef struct drive_row {
   ascr_drive_point p;
   int solved;                  /* the library returned a point */
@@ -211,8 +193,8 @@ int cmd_drive(int argc, char **argv)
   cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":t:v:i:p:e:o:h", opts, NULL)) != -1) {
     switch (c) {
-    case 't': if (parse_values("--throttle", optarg, 0.0, 100.0, thr, &nthr)) return CLI_EXIT_USAGE; break;
-    case 'v': if (parse_values("--speed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE; break;
+    case 't': if (cli_parse_values("--throttle", optarg, 0.0, 100.0, DRIVE_MAX_VALUES, thr, &nthr)) return CLI_EXIT_USAGE; break;
+    case 'v': if (cli_parse_values("--speed", optarg, 0.0, 300.0, DRIVE_MAX_VALUES, speeds, &nspeed)) return CLI_EXIT_USAGE; break;
     case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;
     case 'b': {
       int k = 0;
@@ -385,40 +367,7 @@ int cmd_drive(int argc, char **argv)
   const char *bname = blade->name != NULL ? blade->name : bfile;
   const char *pname = pt->name != NULL ? pt->name : pfile;
   double voc = ascr_battery_open_voltage(&pt->battery, (ascr_battery_state)state);
-  if (plotdir != NULL && map) {
-    fig_drive_series *fs = calloc(nspeed, sizeof *fs);
-    double *fb = calloc(nspeed * 5 * ASCR_DRIVE_MAP_POINTS + 1, sizeof *fb);
-    if (fs == NULL || fb == NULL) {
-      cli_error("out of memory");
-      rc = CLI_EXIT_INTERNAL;
-    }
-    for (size_t s = 0; rc == 0 && s < nspeed; s++) {
-      fig_drive_series *f = &fs[s];
-      f->speed = speeds[s];
-      f->n = ASCR_DRIVE_MAP_POINTS;
-      f->throttle = fb + s * 5 * ASCR_DRIVE_MAP_POINTS;
-      f->thrust = f->throttle + f->n;
-      f->rpm = f->thrust + f->n;
-      f->current = f->rpm + f->n;
-      f->power = f->current + f->n;
-      for (size_t i = 0; i < f->n; i++) {
-        const ascr_drive_point *p = &lin[s].grid[i];
-        int ok = p->converged;
-        f->throttle[i] = 100.0 * p->throttle;
-        f->thrust[i] = ok ? p->rotor.thrust_N : NAN;
-        f->rpm[i] = ok ? p->rotor.rpm : NAN;
-        f->current[i] = ok ? p->power.battery_current_A : NAN;
-        f->power[i] = ok ? p->power.electrical_power_W : NAN;
-      }
-      f->band_lo = 100.0 * lin[s].band[0];
-      f->fit_offset = lin[s].fit_offset_N;
-      f->fit_slope = lin[s].fit_slope_N / 100.0;
-    }
-    if (rc == 0) rc = fig_drive(plotdir, bname, pname, fs, nspeed);
-    free(fs);
-    free(fb);
-    if (rc != 0) goto done;
-  }
+  if (plotdir != NULL && map && (rc = fig_drive(plotdir, lin, nspeed)) != 0) goto done;
   FILE *fp = out.fp;
   if (json) {
     json_t *o = json_object();

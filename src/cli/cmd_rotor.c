@@ -57,25 +57,6 @@ static void rotor_help(FILE *fp)
         fp);
 }
 
-/* VALUES: list or START:END:STEP; at most ROTOR_MAX_VALUES */
-static int parse_values(const char *opt, const char *text, double lo, double hi, double *out,
-                        size_t *n)
-{
-  if (strchr(text, ':') != NULL) {
-    double a0, a1, st;
-    if (cli_parse_range(opt, text, lo, hi, &a0, &a1, &st)) return 1;
-    size_t m = ascr_polar_grid_size(a0, a1, st);
-    if (m == 0 || m > ROTOR_MAX_VALUES) {
-      cli_error("%s: '%s' gives %zu values; 1 .. %d allowed", opt, text, m, ROTOR_MAX_VALUES);
-      return 1;
-    }
-    for (size_t i = 0; i < m; i++) out[i] = a0 + (double)i * st;
-    *n = m;
-    return 0;
-  }
-  return cli_parse_list(opt, text, lo, hi, out, n);
-}
-
 typedef struct rotor_point {
   ascr_rotor_result r;
   ascr_rotor_element *el;
@@ -167,13 +148,13 @@ int cmd_rotor(int argc, char **argv)
   cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":n:v:i:p:e:o:h", opts, NULL)) != -1) {
     switch (c) {
-    case 'n': if (parse_values("--rpm", optarg, 1.0, 1e6, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
+    case 'n': if (cli_parse_values("--rpm", optarg, 1.0, 1e6, ROTOR_MAX_VALUES, rpms, &nrpm)) return CLI_EXIT_USAGE; break;
     case 'v':
-      if (parse_values("--airspeed", optarg, 0.0, 300.0, speeds, &nspeed)) return CLI_EXIT_USAGE;
+      if (cli_parse_values("--airspeed", optarg, 0.0, 300.0, ROTOR_MAX_VALUES, speeds, &nspeed)) return CLI_EXIT_USAGE;
       by_v = 1;
       break;
     case 'j':
-      if (parse_values("--advance-ratio", optarg, 0.0, 5.0, speeds, &nspeed)) return CLI_EXIT_USAGE;
+      if (cli_parse_values("--advance-ratio", optarg, 0.0, 5.0, ROTOR_MAX_VALUES, speeds, &nspeed)) return CLI_EXIT_USAGE;
       by_j = 1;
       break;
     case 'H': if (cli_parse_double("--thrust", optarg, 1e-6, 1e6, &thrust)) return CLI_EXIT_USAGE; break;

@@ -24,6 +24,14 @@ void *core_calloc(size_t n, size_t sz);
  * Returns 1, or 0 if a is singular to working precision. solve_small.c. */
 int core_solve_small(double *a, double *b, int n);
 
+/* Brent's method (GSL's solver) for a root of f in [lo, hi], where f changes sign: until the
+ * bracket is within epsabs + epsrel |x|, for at most maxit steps, or until *stop is set (by f,
+ * after an evaluation that failed; f must still return a finite value, or GSL calls its error
+ * handler). ASCR_OK with *root; ASCR_EMAXITER (no convergence, or stopped: *root NaN or the
+ * last estimate); ASCR_ENOMEM. brent.c. */
+ascr_status core_brent(double (*f)(double, void *), void *ctx, const int *stop, double lo,
+                       double hi, double epsabs, double epsrel, int maxit, double *root);
+
 /* pi to double precision (M_PI is not part of ISO C). */
 #define ASCR_PI 3.14159265358979323846
 

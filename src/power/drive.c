@@ -6,9 +6,7 @@
 #include "power/power_impl.h"
 #include "core/core_impl.h"
 
-#include <gsl/gsl_errno.h>
 #include <gsl/gsl_fit.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <string.h>
 
@@ -17,10 +15,12 @@ typedef struct balance_ctx {
   double throttle, speed;
   ascr_status st;      /* first failure of the rotor model */
   int converged;       /* every rotor point so far converged */
+  int stop;            /* either failed: end the search */
   ascr_errbuf *err;
 } balance_ctx;
 
-/* Q_motor(rpm) - Q_prop(rpm) */
+/* Q_motor(rpm) - Q_prop(rpm); a failed evaluation sets the flags and returns 0 (finite: GSL
+ * calls its error handler on a non-finite value) */
 static double balance_fn(double rpm, void *vc)
 {
   balance_ctx *c = vc;
@@ -29,13 +29,11 @@ static double balance_fn(double rpm, void *vc)
   ascr_power_state_at(c->d->powertrain, c->d->state, c->throttle, rpm, &ps, NULL);
   ascr_status st = ascr_rotor_point(c->d->blade, c->d->tables, c->d->params, c->d->model,
                                     c->d->vortex, rpm, c->speed, &rr, NULL, c->err);
-  if (st != ASCR_OK) {
+  if (st != ASCR_OK || !rr.converged) {
     c->st = st;
-    return NAN;
-  }
-  if (!rr.converged) {
     c->converged = 0;
-    return NAN;
+    c->stop = 1;
+    return 0.0;
   }
   return ps.motor_torque_Nm - rr.torque_Nm;
 }
@@ -93,7 +91,7 @@ ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle, double spe
     standstill(d, throttle, speed_m_s, out);
     return ASCR_OK;
   }
-  balance_ctx c = {d, throttle, speed_m_s, ASCR_OK, 1, err};
+  balance_ctx c = {d, throttle, speed_m_s, ASCR_OK, 1, 0, err};
   /* upper end: at the no-load speed the motor gives no torque; the propeller needs some unless
    * the airflow drives it (windmilling) */
   double f_hi = balance_fn(n_nl, &c);
@@ -131,25 +129,10 @@ ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle, double spe
   if (isnan(lo)) {
     return ASCR_OK; /* no sign change down to 1 % of the no-load speed: not converged */
   }
-  gsl_function fn = {balance_fn, &c};
-  gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-  if (s == NULL) {
+  double rpm;
+  if (core_brent(balance_fn, &c, &c.stop, lo, hi, 0.0, 1e-9, 100, &rpm) == ASCR_ENOMEM) {
     return core_fail(err, ASCR_ENOMEM, "drive: out of memory");
   }
-  double rpm = NAN;
-  if (gsl_root_fsolver_set(s, &fn, lo, hi) == GSL_SUCCESS) {
-    for (int it = 0; it < 100 && c.st == ASCR_OK && c.converged; it++) {
-      if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
-        break;
-      }
-      double x0 = gsl_root_fsolver_x_lower(s), x1 = gsl_root_fsolver_x_upper(s);
-      if (gsl_root_test_interval(x0, x1, 0.0, 1e-9) == GSL_SUCCESS) {
-        rpm = gsl_root_fsolver_root(s);
-        break;
-      }
-    }
-  }
-  gsl_root_fsolver_free(s);
   if (c.st != ASCR_OK) {
     return c.st;
   }

@@ -6,8 +6,6 @@
 #include "power/power_impl.h"
 #include "core/core_impl.h"
 
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <string.h>
 
@@ -43,21 +41,21 @@ typedef struct climb_ctx {
   ascr_drive_point pt;
   ascr_status st;
   int failed;              /* a full-throttle point did not converge */
+  int stop;                /* an evaluation failed: end the search */
   ascr_errbuf *err;
 } climb_ctx;
 
-/* rotors T(1, Vc) - m g - 1/2 rho Vc^2 CdA */
+/* rotors T(1, Vc) - m g - 1/2 rho Vc^2 CdA; a failed evaluation sets the flags and returns 0
+ * (finite: GSL calls its error handler on a non-finite value) */
 static double surplus(double vc, void *vx)
 {
   climb_ctx *c = vx;
   ascr_status st = ascr_drive_point_at(c->d, 1.0, vc, &c->pt, c->err);
-  if (st != ASCR_OK) {
+  if (st != ASCR_OK || !c->pt.converged) {
     c->st = st;
-    return NAN;
-  }
-  if (!c->pt.converged) {
     c->failed = 1;
-    return NAN;
+    c->stop = 1;
+    return 0.0;
   }
   return (double)c->d->powertrain->craft.rotors * c->pt.rotor.thrust_N - c->weight - c->drag_k * vc * vc;
 }
@@ -133,25 +131,11 @@ ascr_status ascr_drive_max_climb(const ascr_drive *d, double *climb_m_s, ascr_dr
   if (!(fh <= 0.0)) {
     return core_fail(err, ASCR_EMAXITER, "drive: still climbing at 128 m/s: check the craft");
   }
-  gsl_function fn = {surplus, &c};
-  gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-  if (s == NULL) {
+  double vc;
+  c.stop = 0;
+  if (core_brent(surplus, &c, &c.stop, lo, hi, 1e-9, 1e-9, 100, &vc) == ASCR_ENOMEM) {
     return core_fail(err, ASCR_ENOMEM, "drive: out of memory");
   }
-  double vc = NAN;
-  if (gsl_root_fsolver_set(s, &fn, lo, hi) == GSL_SUCCESS) {
-    for (int it = 0; it < 100 && c.st == ASCR_OK && !c.failed; it++) {
-      if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
-        break;
-      }
-      if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s), 1e-9,
-                                 1e-9) == GSL_SUCCESS) {
-        vc = gsl_root_fsolver_root(s);
-        break;
-      }
-    }
-  }
-  gsl_root_fsolver_free(s);
   if (c.st != ASCR_OK) {
     return c.st;
   }

@@ -6,8 +6,6 @@
 #include "rotor/rotor_impl.h"
 #include "core/core_impl.h"
 
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -105,6 +103,7 @@ typedef struct trim_ctx {
   double v, target;
   ascr_status st;
   int converged;
+  int stop; /* an evaluation failed: end the search */
   ascr_errbuf *err;
 } trim_ctx;
 
@@ -114,6 +113,7 @@ static double trim_fn(double rpm, void *ctx)
   ascr_rotor_result r;
   t->st = ascr_rotor_point(t->b, t->tables, t->p, t->model, t->vp, rpm, t->v, &r, NULL, t->err);
   t->converged &= t->st == ASCR_OK && r.converged;
+  t->stop = !(t->st == ASCR_OK && t->converged);
   /* a failed evaluation returns 0 (finite, so GSL does not call its error handler); the flags
    * above make the caller report it */
   return t->st == ASCR_OK && r.converged ? r.thrust_N - t->target : 0.0;
@@ -151,26 +151,11 @@ ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b, const ascr_polar_tabl
                      thrust_N, rpm_lo, rl.thrust_N, rpm_hi, rh.thrust_N);
   }
   /* T(rpm) is smooth and, for a fixed-pitch propeller, rises with rpm over the working range */
-  trim_ctx tc = {b, tables, p, model, vp, speed_m_s, thrust_N, ASCR_OK, 1, err};
-  gsl_function fn = {trim_fn, &tc};
-  gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-  if (s == NULL) {
+  trim_ctx tc = {b, tables, p, model, vp, speed_m_s, thrust_N, ASCR_OK, 1, 0, err};
+  double rpm;
+  if (core_brent(trim_fn, &tc, &tc.stop, rpm_lo, rpm_hi, 0.0, 1e-7, 100, &rpm) == ASCR_ENOMEM) {
     return core_fail(err, ASCR_ENOMEM, "rpm for thrust: out of memory");
   }
-  double rpm = NAN;
-  if (gsl_root_fsolver_set(s, &fn, rpm_lo, rpm_hi) == GSL_SUCCESS) {
-    for (int it = 0; it < 100 && tc.st == ASCR_OK && tc.converged; it++) {
-      if (gsl_root_fsolver_iterate(s) != GSL_SUCCESS) {
-        break;
-      }
-      double x0 = gsl_root_fsolver_x_lower(s), x1 = gsl_root_fsolver_x_upper(s);
-      if (gsl_root_test_interval(x0, x1, 0.0, 1e-7) == GSL_SUCCESS) {
-        rpm = gsl_root_fsolver_root(s);
-        break;
-      }
-    }
-  }
-  gsl_root_fsolver_free(s);
   if (tc.st != ASCR_OK) {
     return tc.st;
   }

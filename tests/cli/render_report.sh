@@ -16,11 +16,14 @@ if ! "$exe" demo --out "$tmp/demo" > "$tmp/out" 2> "$tmp/err"; then
 fi
 fail=0
 for f in blade.json polars.csv rotor-map.csv hover.json report.html rotor-map.svg rotor-map.png \
-         hover-spanwise.svg hover-spanwise.png polars-blade.svg polars-blade.png; do
+         hover-spanwise.svg hover-spanwise.png polars-blade.svg polars-blade.png powertrain.json \
+         drive-map.csv drive.svg drive.png; do
   if [ ! -s "$tmp/demo/$f" ]; then echo "FAIL: $f missing or empty"; fail=1; fi
 done
 grep -q "outputs in" "$tmp/out" || { echo "FAIL: no output listing"; fail=1; }
 grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report lacks the cautions"; fail=1; }
+grep -q "<h2>Powertrain</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the powertrain section"; fail=1; }
+grep -q "powertrain: hover at" "$tmp/out" || { echo "FAIL: no powertrain summary"; fail=1; }
 # the demo's title once over both streams (issue 17: it was printed as progress and as summary)
 n_title=$(cat "$tmp/out" "$tmp/err" | grep -c "three-blade prop")
 [ "$n_title" = 1 ] || { echo "FAIL: the demo's title appears $n_title times in its output"; fail=1; }
