@@ -224,6 +224,40 @@ ASCR_EXPORT ascr_status ascr_rotor_rpm_for_thrust(const ascr_blade *b,
                                                   ascr_rotor_result *res, ascr_rotor_element *el,
                                                   ascr_errbuf *err);
 
+/** A rotor whose disc meets the airflow at incidence (a multirotor in forward flight). */
+typedef struct ascr_rotor_incidence_result {
+  ascr_rotor_result r;        /* thrust (along the axis), torque, power, coefficients, flags;
+                                 J and efficiency with the axial component V cos(i) */
+  double incidence_deg;       /* between the airflow and the rotor axis: 0 axial, 90 edgewise */
+  double v_axial_m_s, v_inplane_m_s; /* V cos(i), V sin(i) */
+  double mu;                  /* advance ratio of the in-plane flow, V sin(i) / (Omega R) */
+  double h_force_N;           /* in-plane force along the in-plane flow (a drag on the disc) */
+  double side_force_N;        /* in-plane force across it, towards the advancing side */
+  double roll_moment_Nm;      /* hub moment about the in-plane flow's axis, advancing side up */
+  double pitch_moment_Nm;     /* hub moment about the axis across it, downstream side up */
+  double induced_mean_m_s;    /* area-weighted mean axial induced velocity */
+  double skew_deg;            /* wake skew angle chi, tan chi = V sin(i) / (V cos(i) + v_mean) */
+  size_t n_azimuth;
+} ascr_rotor_incidence_result;
+
+/** BEMT at incidence: every annulus in Glauert's forward-flight momentum balance,
+ *  dT = 4 pi r rho F v sqrt(Vp^2 + (Va + v)^2) dr and dQ = 4 pi r^2 rho F u sqrt(...) dr
+ *  (Glauert, ARC R&M 1111, 1926; Leishman, Principles of Helicopter Aerodynamics, 2nd ed.,
+ *  2006, ch. 2), against the blade elements averaged over n_azimuth azimuths (each with the
+ *  in-plane flow added to its tangential speed, radial flow neglected), the induced velocity
+ *  skewed across the disc by the linear inflow of Coleman, Feingold & Stempin (NACA ARR L5E10,
+ *  1945): v (1 + tan(chi/2) (r/R) cos psi). With Vp = 0 these are the axial BEMT's equations
+ *  (ascr_rotor_bemt, which the tests compare). Per annulus (v, u) by Newton's method, then
+ *  alternating bracketed solves where Newton fails; the skew from the disc's mean inflow,
+ *  repeated until it settles. n_azimuth 4 .. 360 (0: 24).
+ *  @return ASCR_OK (converged or not: res->r.converged), ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_rotor_incidence(const ascr_blade *b,
+                                             const ascr_polar_table *const *tables,
+                                             const ascr_rotor_params *p, double rpm,
+                                             double speed_m_s, double incidence_deg,
+                                             size_t n_azimuth, ascr_rotor_incidence_result *res,
+                                             ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

@@ -57,28 +57,7 @@ typedef struct elem_ctx {
 
 static void lookup(elem_ctx *e, double alpha)
 {
-  polar_table_lookup(e->tables[e->s0], alpha, e->re, e->mach, 0, &e->smp);
-  if (e->s1 != e->s0 && e->w > 0.0) {
-    ascr_table_sample q;
-    polar_table_lookup(e->tables[e->s1], alpha, e->re, e->mach, 0, &q);
-    double w = e->w;
-    e->smp.cl = (1.0 - w) * e->smp.cl + w * q.cl;
-    e->smp.cd = (1.0 - w) * e->smp.cd + w * q.cd;
-    e->smp.region = q.region > e->smp.region ? q.region : e->smp.region;
-    e->smp.stalled |= q.stalled;
-    e->smp.re_outside |= q.re_outside;
-  }
-}
-
-static double prandtl(double b_half, double dist, double rref, double sphi)
-{
-  /* F = 2/pi acos(exp(-f)), f = (B/2) dist / (rref |sin phi|) (Glauert 1935) */
-  double s = fabs(sphi);
-  if (s < 1e-12) {
-    return 1.0;
-  }
-  double f = b_half * dist / (rref * s);
-  return 2.0 / ASCR_PI * acos(exp(-f));
+  rotor_sample(e->tables, e->s0, e->s1, e->w, alpha, e->re, e->mach, &e->smp);
 }
 
 static double residual(double phi, void *ctx)
@@ -88,17 +67,7 @@ static double residual(double phi, void *ctx)
   lookup(e, e->theta - phi);
   double cn = e->smp.cl * cp - e->smp.cd * sp;
   double ct = e->smp.cl * sp + e->smp.cd * cp;
-  double bh = 0.5 * e->b->n_blades;
-  double f = 1.0;
-  if (e->p->tip_loss) {
-    f *= prandtl(bh, e->b->r_tip_m - e->r, e->r, sp);
-  }
-  if (e->p->hub_loss && e->b->r_hub_m > 0.0) {
-    f *= prandtl(bh, e->r - e->b->r_hub_m, e->b->r_hub_m, sp);
-  }
-  if (f < 1e-8) {
-    f = 1e-8;
-  }
+  double f = rotor_loss(e->b, e->p, e->r, sp);
   e->loss = f;
   double k = e->sigma * cn / (4.0 * f * sp * sp);
   double kp = e->p->swirl ? e->sigma * ct / (4.0 * f * sp * cp) : 0.0;

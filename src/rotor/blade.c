@@ -5,6 +5,7 @@
  */
 #include "rotor/rotor_impl.h"
 #include "core/core_impl.h"
+#include "polar/polar_impl.h"
 
 #include <math.h>
 #include <stdlib.h>
@@ -111,4 +112,41 @@ void ascr_blade_free(ascr_blade *b)
 double rotor_edge(double r0, double r1, size_t i, size_t n)
 {
   return r0 + (r1 - r0) * sin(0.5 * 3.14159265358979323846 * (double)i / (double)n);
+}
+
+void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
+                  double alpha, double re, double mach, ascr_table_sample *out)
+{
+  polar_table_lookup(tables[s0], alpha, re, mach, 0, out);
+  if (s1 != s0 && w > 0.0) {
+    ascr_table_sample q;
+    polar_table_lookup(tables[s1], alpha, re, mach, 0, &q);
+    out->cl = (1.0 - w) * out->cl + w * q.cl;
+    out->cd = (1.0 - w) * out->cd + w * q.cd;
+    out->region = q.region > out->region ? q.region : out->region;
+    out->stalled |= q.stalled;
+    out->re_outside |= q.re_outside;
+  }
+}
+
+static double prandtl(double b_half, double dist, double rref, double sphi)
+{
+  double s = fabs(sphi);
+  if (s < 1e-12) {
+    return 1.0;
+  }
+  double f = b_half * dist / (rref * s);
+  return 2.0 / ASCR_PI * acos(exp(-f));
+}
+
+double rotor_loss(const ascr_blade *b, const ascr_rotor_params *p, double r, double sin_phi)
+{
+  double bh = 0.5 * b->n_blades, f = 1.0;
+  if (p->tip_loss) {
+    f *= prandtl(bh, b->r_tip_m - r, r, sin_phi);
+  }
+  if (p->hub_loss && b->r_hub_m > 0.0) {
+    f *= prandtl(bh, r - b->r_hub_m, b->r_hub_m, sin_phi);
+  }
+  return f < 1e-8 ? 1e-8 : f;
 }

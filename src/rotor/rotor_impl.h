@@ -12,6 +12,18 @@
 void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_deg, size_t *s0,
                     size_t *s1, double *w);
 
+/* The blended section coefficients at an element: section s0's table, blended with weight w
+ * towards section s1's (rotor_blade_at), at angle of attack alpha (rad), Re and Mach; the flags
+ * of either (blade.c). */
+void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
+                  double alpha, double re, double mach, ascr_table_sample *out);
+
+/* Prandtl's tip-and-hub loss factor of blade b at radius r for inflow angle sin_phi (the
+ * parameters' switches applied; floored at 1e-8): F = 2/pi acos(exp(-f)),
+ * f = (B/2) dist / (rref |sin phi|) (Glauert 1935) for the tip (dist R - r, rref r) and the hub
+ * (dist r - r_hub, rref r_hub) (blade.c). */
+double rotor_loss(const ascr_blade *b, const ascr_rotor_params *p, double r, double sin_phi);
+
 /* Outer edge radius of element i-1 / inner edge of element i (i = 0..n) of a blade spanning
  * r0..r1: sine spacing, fine at the tip where the loading falls to zero and coarse at the root
  * (where close trailing vortices would make the vortex model ill-conditioned). */

@@ -186,17 +186,7 @@ static double local_g(const vx *s, size_t i, double ua, double ut, ascr_table_sa
   double ph = atan2(va, vt);
   double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
   double mach = w / s->p->sound_speed_m_s;
-  polar_table_lookup(s->tables[s->s0[i]], s->theta[i] - ph, re, mach, 0, smp);
-  if (s->s1[i] != s->s0[i] && s->w[i] > 0.0) {
-    ascr_table_sample q;
-    polar_table_lookup(s->tables[s->s1[i]], s->theta[i] - ph, re, mach, 0, &q);
-    double t = s->w[i];
-    smp->cl = (1.0 - t) * smp->cl + t * q.cl;
-    smp->cd = (1.0 - t) * smp->cd + t * q.cd;
-    smp->region = q.region > smp->region ? q.region : smp->region;
-    smp->stalled |= q.stalled;
-    smp->re_outside |= q.re_outside;
-  }
+  rotor_sample(s->tables, s->s0[i], s->s1[i], s->w[i], s->theta[i] - ph, re, mach, smp);
   if (wrel != NULL) *wrel = w;
   if (phi != NULL) *phi = ph;
   return 0.5 * w * s->chord[i] * smp->cl;
