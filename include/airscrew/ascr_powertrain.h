@@ -182,8 +182,11 @@ enum {
 /** One operating point of motor and propeller. */
 typedef struct ascr_drive_point {
   double throttle, speed_m_s;
+  double incidence_deg;            /* of the airflow to the rotor axis (0: axial) */
   ascr_power_state power;          /* electrical state at the balance */
   ascr_rotor_result rotor;         /* the propeller at the balance */
+  double h_force_N, side_force_N;  /* in-plane forces at incidence (ascr_rotor_incidence; 0 axial) */
+  double roll_moment_Nm, pitch_moment_Nm;
   unsigned flags;
   int converged;                   /* balance found and the propeller point converged */
 } ascr_drive_point;
@@ -197,6 +200,13 @@ typedef struct ascr_drive_point {
 ASCR_EXPORT ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle,
                                             double speed_m_s, ascr_drive_point *out,
                                             ascr_errbuf *err);
+
+/** As ascr_drive_point_at with the airflow at incidence_deg (0 .. 90) to the rotor axis: the
+ *  propeller by ascr_rotor_incidence (BEMT; the vortex model is not available at incidence:
+ *  ASCR_EINVAL) unless the incidence is 0. */
+ASCR_EXPORT ascr_status ascr_drive_point_incidence(const ascr_drive *d, double throttle,
+                                                   double speed_m_s, double incidence_deg,
+                                                   ascr_drive_point *out, ascr_errbuf *err);
 
 /** The throttle at which the propeller gives thrust_N at an airspeed: the rpm from the rotor's
  *  thrust search (ascr_rotor_rpm_for_thrust, from a low rpm to the full-throttle no-load
@@ -247,6 +257,18 @@ ASCR_EXPORT ascr_status ascr_drive_hover(const ascr_drive *d, ascr_drive_point *
  *          ASCR_EINVAL without a craft. */
 ASCR_EXPORT ascr_status ascr_drive_max_climb(const ascr_drive *d, double *climb_m_s,
                                              ascr_drive_point *out, ascr_errbuf *err);
+
+/** Top speed in level flight: at full throttle the discs tilt forward by tau until, with the
+ *  rotors' thrust T and in-plane force H at incidence 90 - tau to the airflow,
+ *  rotors (T cos tau + H sin tau) = m g (vertical) — tau by Brent's method at each speed — and
+ *  the top speed is where rotors (T sin tau - H cos tau) = 1/2 rho V^2 (drag area), by Brent's
+ *  method on V (bracket from 1 m/s, doubling to 128 m/s). No body lift; the rotors' mutual
+ *  interference is ignored. out: the full-throttle point there; tilt_deg: tau.
+ *  @return ASCR_OK; ASCR_EDOM when full throttle does not hold the craft up; ASCR_EMAXITER;
+ *          ASCR_EINVAL without a craft or with the vortex model. */
+ASCR_EXPORT ascr_status ascr_drive_top_speed(const ascr_drive *d, double *speed_m_s,
+                                             double *tilt_deg, ascr_drive_point *out,
+                                             ascr_errbuf *err);
 
 #ifdef __cplusplus
 }

@@ -46,11 +46,15 @@ static void drive_help(FILE *fp)
         "  -t, --throttle VALUES   throttle settings, percent 0..100 (default 0:100:10)\n"
         "  -v, --speed VALUES      axial airspeeds, m/s (default 0); --airspeed is the same\n"
         "      --thrust N          the throttle giving N newtons at each airspeed (hover: 0)\n"
+        "      --incidence DEG     the airflow at DEG to the rotor axis (0 axial, 90 edgewise;\n"
+        "                          BEMT only): in-plane force and hub moments too; no map\n"
         "      --battery STATE     open-circuit voltage of the pack: full, nominal (default) or\n"
         "                          loaded (late in the flight), from the powertrain file\n"
         "craft (the powertrain file's \"craft\": mass, rotors on the pack, drag area):\n"
         "      --hover             the hover throttle, currents and endurance\n"
         "      --climb             the largest vertical climb rate at full throttle\n"
+        "      --top-speed         the top speed in level flight, discs tilted forward (BEMT at\n"
+        "                          incidence; takes some seconds)\n"
         "                          (with either and no --throttle, no throttle points are run)\n"
         CLI_ROTOR_OPTS_HELP
         "output:\n"
@@ -141,6 +145,13 @@ static json_t *point_json(const drive_row *r, const ascr_powertrain *pt)
   json_object_set_new(o, "overall_efficiency", cli_json_num(ok, e->overall_efficiency));
   double gw = ok && e->electrical_power_W > 0.0 ? 1000.0 * p->rotor.thrust_N / 9.80665 / e->electrical_power_W : NAN;
   json_object_set_new(o, "thrust_per_power_g_W", cli_json_num(ok, gw));
+  json_object_set_new(o, "incidence_deg", json_real(p->incidence_deg));
+  if (p->incidence_deg > 0.0) {
+    json_object_set_new(o, "h_force_N", cli_json_num(ok, p->h_force_N));
+    json_object_set_new(o, "side_force_N", cli_json_num(ok, p->side_force_N));
+    json_object_set_new(o, "roll_moment_Nm", cli_json_num(ok, p->roll_moment_Nm));
+    json_object_set_new(o, "pitch_moment_Nm", cli_json_num(ok, p->pitch_moment_Nm));
+  }
   json_object_set_new(o, "converged", json_boolean(ok));
   json_object_set_new(o, "confidence", ok ? json_string(p->rotor.low_confidence ? "low" : "normal") : json_null());
   json_object_set_new(o, "flags", flags_json(r->solved ? p->flags : 0));
@@ -176,7 +187,8 @@ int cmd_drive(int argc, char **argv)
     {"throttle", required_argument, NULL, 't'},     {"speed", required_argument, NULL, 'v'},
     {"airspeed", required_argument, NULL, 'v'},     {"thrust", required_argument, NULL, 'H'},
     {"battery", required_argument, NULL, 'b'},      {"hover", no_argument, NULL, 'Q'},
-    {"climb", no_argument, NULL, 'M'},
+    {"climb", no_argument, NULL, 'M'},              {"top-speed", no_argument, NULL, 'Z'},
+    {"incidence", required_argument, NULL, 'I'},
     CLI_ROTOR_LONGOPTS,
     {"json", no_argument, NULL, 'J'},               {"csv", no_argument, NULL, 'C'},
     {"output", required_argument, NULL, 'o'},       {"force", no_argument, NULL, 'F'},
@@ -185,7 +197,8 @@ int cmd_drive(int argc, char **argv)
   double thr[DRIVE_MAX_VALUES], speeds[DRIVE_MAX_VALUES] = {0.0};
   size_t nthr = 0, nspeed = 1;
   double thrust = NAN;
-  int state = ASCR_BATTERY_NOMINAL, json = 0, csv = 0, force = 0, hover = 0, climb = 0, c;
+  int state = ASCR_BATTERY_NOMINAL, json = 0, csv = 0, force = 0, hover = 0, climb = 0, top = 0, c;
+  double incidence = 0.0;
   const char *outpath = NULL, *plotdir = NULL;
   cli_rotor_opts ro;
   cli_rotor_opts_init(&ro);
@@ -208,6 +221,8 @@ int cmd_drive(int argc, char **argv)
     }
     case 'Q': hover = 1; break;
     case 'M': climb = 1; break;
+    case 'Z': top = 1; break;
+    case 'I': if (cli_parse_double("--incidence", optarg, 0.0, 90.0, &incidence)) return CLI_EXIT_USAGE; break;
     case 'G': plotdir = optarg; break;
     case 'J': json = 1; break;
     case 'C': csv = 1; break;
@@ -236,13 +251,21 @@ int cmd_drive(int argc, char **argv)
     cli_error("drive: --json and --csv exclude each other");
     return CLI_EXIT_USAGE;
   }
-  if (!trim && nthr == 0 && !hover && !climb) {
+  int orc = cli_rotor_opts_finish(&ro, "drive");
+  if (orc) return orc;
+  if ((top || incidence > 0.0) && cli_rotor_opts_model(&ro) != ASCR_INFLOW_BEMT) {
+    cli_error("drive: --top-speed and --incidence use the BEMT (the vortex model has no disc at incidence)");
+    return CLI_EXIT_USAGE;
+  }
+  if (trim && incidence > 0.0) {
+    cli_error("drive: --thrust is axial; --incidence goes with --throttle");
+    return CLI_EXIT_USAGE;
+  }
+  if (!trim && nthr == 0 && !hover && !climb && !top) {
     for (size_t i = 0; i <= 10; i++) thr[i] = 10.0 * (double)i;
     nthr = 11;
   }
-  int map = !trim && nthr > 0; /* throttle points, and with them the map and its linearity */
-  int orc = cli_rotor_opts_finish(&ro, "drive");
-  if (orc) return orc;
+  int map = !trim && nthr > 0 && incidence == 0.0; /* the throttle map and its linearity */
   if (cli_check_options_only) return CLI_EXIT_OK;
   if (outpath != NULL && (orc = cli_output_check(outpath, force)) != 0) return orc;
   if (plotdir != NULL && (orc = fig_prepare_dir(plotdir, (const char *const[]){"drive", NULL}, force)) != 0) {
@@ -265,8 +288,9 @@ int cmd_drive(int argc, char **argv)
     cli_output_discard(&out);
     return st == ASCR_ENOMEM ? CLI_EXIT_INTERNAL : CLI_EXIT_INPUT;
   }
-  if ((hover || climb) && !pt->has_craft) {
-    cli_error("%s: --hover and --climb need a \"craft\" (mass_kg, rotors) in the powertrain file", pfile);
+  if ((hover || climb || top) && !pt->has_craft) {
+    cli_error("%s: --hover, --climb and --top-speed need a \"craft\" (mass_kg, rotors) in the "
+              "powertrain file", pfile);
     ascr_powertrain_free(pt);
     ascr_blade_free(blade);
     cli_output_discard(&out);
@@ -285,9 +309,10 @@ int cmd_drive(int argc, char **argv)
   ascr_drive_linearity *lin = NULL;
   size_t nrow = trim ? nspeed : nthr * nspeed, nconv = 0;
   ascr_drive_point hov, clp;
-  double endurance = NAN, vclimb = NAN;
-  int hov_ok = 0, cl_ok = 0;
-  char hov_msg[ASCR_ERRBUF_SIZE] = "", cl_msg[ASCR_ERRBUF_SIZE] = "";
+  ascr_drive_point tsp;
+  double endurance = NAN, vclimb = NAN, vtop = NAN, tilt = NAN;
+  int hov_ok = 0, cl_ok = 0, top_ok = 0;
+  char hov_msg[ASCR_ERRBUF_SIZE] = "", cl_msg[ASCR_ERRBUF_SIZE] = "", top_msg[ASCR_ERRBUF_SIZE] = "";
   if (!(n_max > 100.0)) {
     cli_error("%s: the motor cannot turn at full throttle (no-load speed %.0f rpm)", pfile, n_max);
     rc = CLI_EXIT_INPUT;
@@ -316,7 +341,7 @@ int cmd_drive(int argc, char **argv)
         continue;
       }
     } else {
-      st = ascr_drive_point_at(&drv, thr[k / nspeed] / 100.0, v, &r->p, &err);
+      st = ascr_drive_point_incidence(&drv, thr[k / nspeed] / 100.0, v, incidence, &r->p, &err);
     }
     if (st != ASCR_OK) {
       cli_error("%s", err.msg);
@@ -350,6 +375,19 @@ int cmd_drive(int argc, char **argv)
     } else {
       cl_ok = clp.converged;
       nconv += (size_t)cl_ok;
+    }
+  }
+  if (rc == 0 && top) {
+    st = ascr_drive_top_speed(&drv, &vtop, &tilt, &tsp, &err);
+    if (st == ASCR_EDOM || st == ASCR_EMAXITER) {
+      snprintf(top_msg, sizeof top_msg, "%s", err.msg);
+      cli_warn("top speed: %s", err.msg);
+    } else if (st != ASCR_OK) {
+      cli_error("%s", err.msg);
+      rc = cli_exit_for(st);
+    } else {
+      top_ok = tsp.converged;
+      nconv += (size_t)top_ok;
     }
   }
   for (size_t s = 0; rc == 0 && map && s < nspeed; s++) {
@@ -404,6 +442,15 @@ int cmd_drive(int argc, char **argv)
       json_object_set_new(h, "drag_area_m2", json_real(pt->craft.drag_area_m2));
       json_object_set_new(o, "max_climb", h);
     }
+    if (top) {
+      drive_row r = {tsp, top_ok || top_msg[0] == '\0', ""};
+      snprintf(r.note, sizeof r.note, "%s", top_msg);
+      json_t *h = point_json(&r, pt);
+      json_object_set_new(h, "top_speed_m_s", cli_json_num(top_ok, vtop));
+      json_object_set_new(h, "tilt_deg", cli_json_num(top_ok, tilt));
+      json_object_set_new(h, "drag_area_m2", json_real(pt->craft.drag_area_m2));
+      json_object_set_new(o, "top_speed", h);
+    }
     if (map) {
       json_t *la = json_array();
       for (size_t s = 0; s < nspeed; s++) {
@@ -443,6 +490,7 @@ int cmd_drive(int argc, char **argv)
               hov.rotor.rpm, hov.power.battery_current_A, endurance / 60.0);
     }
     if (climb && cl_ok) fprintf(fp, "# max_climb: %.4g m/s\n", vclimb);
+    if (top && top_ok) fprintf(fp, "# top_speed: %.4g m/s, tilt %.2f deg\n", vtop, tilt);
     for (size_t s = 0; map && s < nspeed; s++) {
       const ascr_drive_linearity *l = &lin[s];
       fprintf(fp, "# linearity at %g m/s: usable_band %.2f..1, max_deviation %.4f, gain_ratio_25_75 %.4f\n",
@@ -519,6 +567,16 @@ int cmd_drive(int argc, char **argv)
                 hov.flags & ASCR_DRIVE_LOW_CONFIDENCE ? " (low confidence)" : "");
       } else {
         fprintf(fp, "hover: no solution: %s\n", hov_msg[0] ? hov_msg : "not converged");
+      }
+    }
+    if (top) {
+      if (top_ok) {
+        fprintf(fp, "top speed: %.2f m/s in level flight, discs tilted %.1f deg forward (full throttle, "
+                "%.0f rpm, %.4f N thrust and %.4f N in-plane force a rotor, drag area %.4g m2)%s\n",
+                vtop, tilt, tsp.rotor.rpm, tsp.rotor.thrust_N, tsp.h_force_N, pt->craft.drag_area_m2,
+                tsp.flags & ASCR_DRIVE_LOW_CONFIDENCE ? " (low confidence)" : "");
+      } else {
+        fprintf(fp, "top speed: no solution: %s\n", top_msg[0] ? top_msg : "not converged");
       }
     }
     if (climb) {

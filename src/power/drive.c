@@ -12,7 +12,7 @@
 
 typedef struct balance_ctx {
   const ascr_drive *d;
-  double throttle, speed;
+  double throttle, speed, incidence;
   ascr_status st;      /* first failure of the rotor model */
   int converged;       /* every rotor point so far converged */
   int stop;            /* either failed: end the search */
@@ -21,14 +21,36 @@ typedef struct balance_ctx {
 
 /* Q_motor(rpm) - Q_prop(rpm); a failed evaluation sets the flags and returns 0 (finite: GSL
  * calls its error handler on a non-finite value) */
+/* the propeller at rpm: axial by the chosen model, at incidence by the BEMT at incidence */
+static ascr_status prop_at(const ascr_drive *d, double rpm, double speed, double incidence,
+                           ascr_drive_point *o, ascr_errbuf *err)
+{
+  if (incidence == 0.0) {
+    o->h_force_N = o->side_force_N = o->roll_moment_Nm = o->pitch_moment_Nm = 0.0;
+    return ascr_rotor_point(d->blade, d->tables, d->params, d->model, d->vortex, rpm, speed,
+                            &o->rotor, NULL, err);
+  }
+  ascr_rotor_incidence_result ir;
+  ascr_status st = ascr_rotor_incidence(d->blade, d->tables, d->params, rpm, speed, incidence, 0,
+                                        &ir, err);
+  if (st == ASCR_OK) {
+    o->rotor = ir.r;
+    o->h_force_N = ir.h_force_N;
+    o->side_force_N = ir.side_force_N;
+    o->roll_moment_Nm = ir.roll_moment_Nm;
+    o->pitch_moment_Nm = ir.pitch_moment_Nm;
+  }
+  return st;
+}
+
 static double balance_fn(double rpm, void *vc)
 {
   balance_ctx *c = vc;
   ascr_power_state ps;
-  ascr_rotor_result rr;
+  ascr_drive_point tmp;
   ascr_power_state_at(c->d->powertrain, c->d->state, c->throttle, rpm, &ps, NULL);
-  ascr_status st = ascr_rotor_point(c->d->blade, c->d->tables, c->d->params, c->d->model,
-                                    c->d->vortex, rpm, c->speed, &rr, NULL, c->err);
+  ascr_status st = prop_at(c->d, rpm, c->speed, c->incidence, &tmp, c->err);
+  const ascr_rotor_result rr = tmp.rotor;
   if (st != ASCR_OK || !rr.converged) {
     c->st = st;
     c->converged = 0;
@@ -75,9 +97,21 @@ static void standstill(const ascr_drive *d, double throttle, double speed, ascr_
 ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle, double speed_m_s,
                                 ascr_drive_point *out, ascr_errbuf *err)
 {
+  return ascr_drive_point_incidence(d, throttle, speed_m_s, 0.0, out, err);
+}
+
+ascr_status ascr_drive_point_incidence(const ascr_drive *d, double throttle, double speed_m_s,
+                                       double incidence_deg, ascr_drive_point *out,
+                                       ascr_errbuf *err)
+{
   if (out == NULL || !(throttle >= 0.0 && throttle <= 1.0) || !(speed_m_s >= 0.0) ||
-      !isfinite(speed_m_s)) {
-    return core_fail(err, ASCR_EINVAL, "drive: throttle must be 0 .. 1 and the airspeed >= 0");
+      !isfinite(speed_m_s) || !(incidence_deg >= 0.0 && incidence_deg <= 90.0)) {
+    return core_fail(err, ASCR_EINVAL, "drive: throttle must be 0 .. 1, the airspeed >= 0 and the "
+                     "incidence 0 .. 90 deg");
+  }
+  if (incidence_deg != 0.0 && d != NULL && d->model != ASCR_INFLOW_BEMT) {
+    return core_fail(err, ASCR_EINVAL, "drive: the disc at incidence is modelled with the BEMT "
+                     "only (not the vortex model)");
   }
   ascr_status st = check_drive(d, err);
   if (st != ASCR_OK) {
@@ -86,12 +120,13 @@ ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle, double spe
   memset(out, 0, sizeof *out);
   out->throttle = throttle;
   out->speed_m_s = speed_m_s;
+  out->incidence_deg = incidence_deg;
   double n_nl = ascr_power_no_load_rpm(d->powertrain, d->state, throttle);
   if (!(n_nl > 1.0)) {
     standstill(d, throttle, speed_m_s, out);
     return ASCR_OK;
   }
-  balance_ctx c = {d, throttle, speed_m_s, ASCR_OK, 1, 0, err};
+  balance_ctx c = {d, throttle, speed_m_s, incidence_deg, ASCR_OK, 1, 0, err};
   /* upper end: at the no-load speed the motor gives no torque; the propeller needs some unless
    * the airflow drives it (windmilling) */
   double f_hi = balance_fn(n_nl, &c);
@@ -139,8 +174,7 @@ ascr_status ascr_drive_point_at(const ascr_drive *d, double throttle, double spe
   if (!c.converged || isnan(rpm)) {
     return ASCR_OK;
   }
-  st = ascr_rotor_point(d->blade, d->tables, d->params, d->model, d->vortex, rpm, speed_m_s,
-                        &out->rotor, NULL, err);
+  st = prop_at(d, rpm, speed_m_s, incidence_deg, out, err);
   if (st != ASCR_OK) {
     return st;
   }

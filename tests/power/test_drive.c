@@ -264,6 +264,43 @@ static void test_craft(void **state)
   assert_int_equal(ascr_drive_hover(&f->d, &h, &endurance, &err), ASCR_EINVAL);
 }
 
+/* Top speed in level flight: at the speed found, with the tilt found, full-throttle thrust and
+ * in-plane force balance weight and drag (1e-6 of the weight: Brent's tolerances on tilt and
+ * speed); more drag, less speed; the vortex model is refused (no incidence model). 20 elements:
+ * the check is of the balance, not of the discretisation. */
+static void test_top_speed(void **state)
+{
+  fixture *f = *state;
+  ascr_powertrain saved = f->pt;
+  ascr_rotor_params psave = f->p;
+  f->p.n_elements = 20;
+  f->pt.battery.cell_resistance_ohm = 0.01;
+  f->pt.has_craft = 1;
+  f->pt.craft.mass_kg = 0.6;
+  f->pt.craft.rotors = 4;
+  f->pt.craft.drag_area_m2 = 0.01;
+  double v, tilt, v2, tilt2;
+  ascr_drive_point o;
+  ascr_errbuf err;
+  assert_int_equal(ascr_drive_top_speed(&f->d, &v, &tilt, &o, &err), ASCR_OK);
+  assert_true(o.converged);
+  double tau = tilt * PI / 180.0, w = 0.6 * ASCR_STANDARD_GRAVITY;
+  ascr_assert_close(4.0 * (o.rotor.thrust_N * cos(tau) + o.h_force_N * sin(tau)), w, 1e-6, 0.0,
+                    "vertical balance");
+  ascr_assert_close(4.0 * (o.rotor.thrust_N * sin(tau) - o.h_force_N * cos(tau)),
+                    0.5 * f->p.density_kg_m3 * 0.01 * v * v, 1e-6 * w, 1e-6 * w, "horizontal balance");
+  ascr_assert_close(o.incidence_deg, 90.0 - tilt, 1e-9, 1e-9, "incidence = 90 - tilt");
+  assert_true(tilt > 0.0 && tilt < 90.0);
+  f->pt.craft.drag_area_m2 = 0.02;
+  assert_int_equal(ascr_drive_top_speed(&f->d, &v2, &tilt2, &o, &err), ASCR_OK);
+  assert_true(v2 < v);
+  f->d.model = ASCR_INFLOW_VORTEX;
+  assert_int_equal(ascr_drive_top_speed(&f->d, &v2, &tilt2, &o, &err), ASCR_EINVAL);
+  f->d.model = ASCR_INFLOW_BEMT;
+  f->pt = saved;
+  f->p = psave;
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -272,6 +309,7 @@ int main(void)
       cmocka_unit_test(test_map_and_linearity),
       cmocka_unit_test(test_flags),
       cmocka_unit_test(test_craft),
+      cmocka_unit_test(test_top_speed),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }
