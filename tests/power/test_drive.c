@@ -7,6 +7,7 @@
  * n^2 exactly (BEMT is then dimensionless in n) and the balance has a closed form.
  */
 #include "ascr_test.h"
+#include "test_props.h"
 #include "airscrew/ascr_powertrain.h"
 #include "airscrew/ascr_table.h"
 
@@ -19,7 +20,7 @@
 
 typedef struct fixture {
   ascr_blade b;
-  ascr_blade_station st[11];
+  ascr_blade_station st[TEST_PROP_STATIONS];
   ascr_polar_table *tab;
   const ascr_polar_table *tabs[1];
   ascr_rotor_params p;
@@ -31,22 +32,7 @@ static int setup(void **state)
 {
   fixture *f = calloc(1, sizeof *f);
   if (f == NULL) return -1;
-  double rtip = 0.0635, rhub = 0.008, pitch = 0.1016; /* 5 x 4 in */
-  f->b.n_blades = 2;
-  f->b.r_tip_m = rtip;
-  f->b.r_hub_m = rhub;
-  f->b.rotation = 1;
-  f->b.n_sections = 1;
-  f->b.n_stations = 11;
-  f->b.stations = f->st;
-  for (size_t i = 0; i < 11; i++) {
-    double r = 0.012 + (rtip - 0.012) * (double)i / 10.0;
-    f->st[i].r_m = r;
-    f->st[i].chord_m = 0.012 - 0.004 * (double)i / 10.0;
-    f->st[i].twist_deg = atan(pitch / (2.0 * PI * r)) * 180.0 / PI;
-    f->st[i].section = 0;
-  }
-  if (ascr_polar_table_linear(2.0 * PI, -2.0 * PI / 180.0, 0.02, &f->tab, NULL) != ASCR_OK) return -1;
+  if (test_prop_five_inch(&f->b, f->st, &f->tab) != 0) return -1;
   f->tabs[0] = f->tab;
   f->p = ascr_rotor_params_defaults();
   /* a 2300 rpm/V motor on an ideal 16.8 V supply first (battery, wiring and controller
