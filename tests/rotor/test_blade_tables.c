@@ -141,7 +141,6 @@ static void test_point_alone_and_in_a_map(void **state)
                    ASCR_EDOM);
   assert_int_equal(none.failed, ASCR_TABLES_TABLE);
   assert_non_null(strstr(err.msg, "section 'main'"));
-  /* the ends were extended in search of a usable curve before giving up */
   ascr_blade_tables_free(&none);
   char cmd[128];
   snprintf(cmd, sizeof cmd, "rm -rf %s", cache);
