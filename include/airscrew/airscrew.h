@@ -18,5 +18,6 @@
 #include "airscrew/ascr_rotor.h"
 #include "airscrew/ascr_blade_tables.h"
 #include "airscrew/ascr_powertrain.h"
+#include "airscrew/ascr_design.h"
 
 #endif /* AIRSCREW_H */
