@@ -86,6 +86,42 @@ ASCR_EXPORT ascr_status ascr_mil_design(const ascr_mil_spec *spec,
 ASCR_EXPORT void ascr_mil_blade(const ascr_mil_spec *spec, const ascr_mil_result *res,
                                 ascr_blade_station *st, ascr_blade *b);
 
+/* ---- design specification files ------------------------------------------------------ */
+
+/** Most sections a design spans. */
+#define ASCR_DESIGN_MAX_SECTIONS 8
+
+/** A design specification (file schema in docs/file-formats.md, "Design specification"). */
+typedef struct ascr_design_spec {
+  char *name;                  /* may be NULL */
+  ascr_mil_spec mil;           /* its section_from_r_m points into from_r */
+  double from_r[ASCR_DESIGN_MAX_SECTIONS];
+  ascr_blade *layout;          /* the sections (names, sources resolved) on a provisional layout
+                                  whose chords (0.3 R inboard to the minimum at the tip) bound
+                                  the Reynolds numbers the design can need: the tables' range */
+} ascr_design_spec;
+
+/** Read a design specification (JSON). Section files are resolved against the file's folder;
+ *  messages name the file and the field. @return ASCR_OK, ASCR_EIO, ASCR_EPARSE, ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_design_spec_read(const char *path, ascr_design_spec **out,
+                                              ascr_errbuf *err);
+/** As ascr_design_spec_read from a text buffer; name labels messages, base_dir resolves section
+ *  files (NULL: as given). */
+ASCR_EXPORT ascr_status ascr_design_spec_parse(const char *text, size_t len, const char *name,
+                                               const char *base_dir, ascr_design_spec **out,
+                                               ascr_errbuf *err);
+ASCR_EXPORT void ascr_design_spec_free(ascr_design_spec *s);
+
+/** The designed blade with the specification's sections (names and sources copied), ready for
+ *  the rotor models or for ascr_blade_to_json. @return ASCR_OK or ASCR_ENOMEM. */
+ASCR_EXPORT ascr_status ascr_design_blade(const ascr_design_spec *s, const ascr_mil_result *r,
+                                          ascr_blade **out, ascr_errbuf *err);
+
+/** A blade as a blade file (JSON text, "airscrew-blade-1", lengths in mm; file sections by
+ *  absolute path). *text is allocated (free()). @return ASCR_OK or ASCR_ENOMEM. */
+ASCR_EXPORT ascr_status ascr_blade_to_json(const ascr_blade *b, char **text, size_t *len,
+                                           ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

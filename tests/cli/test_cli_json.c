@@ -485,6 +485,43 @@ static void test_cli_drive_json_contract(void **state)
   json_decref(j);
 }
 
+/* airscrew design SPEC -o BLADE --json: the contract of issue 15 (design_point with rpm,
+ * speed_m_s, thrust_N, power_W, efficiency; blade_file), and the blade file it writes gives,
+ * under "rotor" at the design point, the predicted thrust and power (1e-3: the file keeps
+ * lengths to 1 um and twist to 1e-4 deg). */
+static void test_cli_design_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  char tmpl[] = "/tmp/airscrew-design-XXXXXX";
+  assert_non_null(mkdtemp(tmpl));
+  char args[2048], blade[256];
+  snprintf(blade, sizeof blade, "%s/designed.json", tmpl);
+  snprintf(args, sizeof args, "design " ASCR_SOURCE_DIR "/tests/data/designs/eight-inch-4412.json -o %s "
+           "--polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --json", blade);
+  json_t *j = run_json(args, &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  json_t *dp = json_object_get(j, "design_point");
+  ascr_assert_close(num(dp, "rpm"), 8000.0, 0.0, 0.0, "design rpm");
+  ascr_assert_close(num(dp, "speed_m_s"), 10.0, 0.0, 0.0, "design speed");
+  ascr_assert_close(num(dp, "thrust_N"), 2.5, 1e-2, 0.0, "design thrust within 1 %");
+  (void)num(dp, "power_W");
+  (void)num(dp, "efficiency");
+  assert_string_equal(json_string_value(json_object_get(j, "blade_file")), blade);
+  snprintf(args, sizeof args, "rotor %s --rpm 8000 --speed 10 --polar-table main=" ASCR_SOURCE_DIR
+           "/tests/data/naca4412-table.json --json", blade);
+  json_t *r = run_json(args, &code);
+  assert_int_equal(code, 0);
+  json_t *rp = json_array_get(json_object_get(r, "points"), 0);
+  ascr_assert_close(num(rp, "thrust_N"), num(dp, "thrust_N"), 1e-3, 0.0, "rotor on the designed blade");
+  ascr_assert_close(num(rp, "power_W"), num(dp, "power_W"), 1e-3, 0.0, "power on the designed blade");
+  json_decref(r);
+  json_decref(j);
+  unlink(blade);
+  rmdir(tmpl);
+}
+
 static void test_cli_output_is_deterministic(void **state)
 {
   (void)state;
@@ -519,6 +556,7 @@ int main(void)
     cmocka_unit_test(test_cli_polar_json_transition_band),
     cmocka_unit_test(test_cli_rotor_json_contract),
     cmocka_unit_test(test_cli_drive_json_contract),
+    cmocka_unit_test(test_cli_design_json_contract),
     cmocka_unit_test(test_cli_output_is_deterministic),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
