@@ -11,6 +11,7 @@
 #include "cli_tables.h"
 #include "commands.h"
 #include "demo_drive.h"
+#include "demo_design.h"
 
 #include <dirent.h>
 #include <errno.h>
@@ -251,6 +252,16 @@ int demo_prop(int argc, char **argv)
     return rc;
   }
 
+  /* ---- the blade of least induced loss for the same hover, beside the hand-drawn one ---- */
+  demo_design_out dz;
+  rc = demo_design_section(b, tv, &rp, thrust_hover, outdir, &dz);
+  if (rc) {
+    demo_drive_out_free(&dd);
+    cli_tables_free(&tabs);
+    ascr_blade_free(b);
+    return rc;
+  }
+
   /* ---- files ---- */
   rc = write_text(outdir, "blade.json", demo_blade, sizeof demo_blade - 1);
   mbuf mb;
@@ -481,7 +492,7 @@ int demo_prop(int argc, char **argv)
         fprintf(f, "<tr><td>%s</td><td colspan=\"8\">not converged</td></tr>\n", m ? "vortex" : "BEMT");
       }
     }
-    fprintf(f, "</table>\n%s", dd.html != NULL ? dd.html : "");
+    fprintf(f, "</table>\n%s%s", dd.html != NULL ? dd.html : "", dz.html != NULL ? dz.html : "");
     fprintf(f, "<h2>Convergence</h2>\n<p>Rotor map: BEMT %zu of %d points converged, vortex %zu of %d "
                "(unconverged points are left blank, never plotted as results).</p>\n<table><tr><th>section</th>"
                "<th>Re</th><th>converged polar points</th></tr>\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
@@ -497,6 +508,7 @@ int demo_prop(int argc, char **argv)
                "outside the converged angles the post-stall extension of Viterna &amp; Corrigan is used.</p>\n");
     static const char *const figs[][2] = {{"rotor-map.svg", "Rotor map over rpm and flight speed."},
                                           {"hover-spanwise.svg", "Spanwise loading and angle of attack in hover, both inflow models."},
+                                          {"design.svg", "Chord and twist of the hand-drawn blade and of the minimum-induced-loss design."},
                                           {"drive.svg", "The prop on its powertrain (nominal pack): thrust, rpm, pack current and power against throttle, static and at 8 m/s."},
                                           {"polars-blade.svg", "Computed polars of the blade section."},
                                           {"polars-root.svg", "Computed polars of the root section."}};
@@ -515,7 +527,7 @@ int demo_prop(int argc, char **argv)
       free(svg);
     }
     fprintf(f, "<h2>Files</h2>\n<p>blade.json, polars.csv, rotor-map.csv, hover.json, powertrain.json, "
-               "drive-map.csv, and every plot as "
+               "drive-map.csv, design-blade.json, and every plot as "
                "SVG and PNG, in this folder. Methods and their limits: airscrew's docs/theory/.</p>\n"
                "</body></html>\n");
     rc = mwrite(&mb, outdir, "report.html");
@@ -532,6 +544,7 @@ int demo_prop(int argc, char **argv)
     }
     printf("  rotor map: BEMT %zu/%d, vortex %zu/%d points converged\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
     if (dd.summary != NULL) printf("%s\n", dd.summary);
+    if (dz.summary != NULL) printf("%s\n", dz.summary);
     printf("outputs in %s/:\n", outdir);
     DIR *d = opendir(outdir);
     struct dirent *e;
@@ -545,6 +558,7 @@ int demo_prop(int argc, char **argv)
     printf("open %s/report.html in a browser for the one-page report.\n", outdir);
     for (int q = 0; cautions[q] != NULL; q++) printf("caution: %s\n", cautions[q]);
   }
+  demo_design_out_free(&dz);
   demo_drive_out_free(&dd);
   cli_tables_free(&tabs);
   ascr_blade_free(b);

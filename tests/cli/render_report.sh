@@ -17,13 +17,17 @@ fi
 fail=0
 for f in blade.json polars.csv rotor-map.csv hover.json report.html rotor-map.svg rotor-map.png \
          hover-spanwise.svg hover-spanwise.png polars-blade.svg polars-blade.png powertrain.json \
-         drive-map.csv drive.svg drive.png; do
+         drive-map.csv drive.svg drive.png design-blade.json design.svg design.png; do
   if [ ! -s "$tmp/demo/$f" ]; then echo "FAIL: $f missing or empty"; fail=1; fi
 done
 grep -q "outputs in" "$tmp/out" || { echo "FAIL: no output listing"; fail=1; }
 grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report lacks the cautions"; fail=1; }
 grep -q "<h2>Powertrain</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the powertrain section"; fail=1; }
 grep -q "powertrain: hover at" "$tmp/out" || { echo "FAIL: no powertrain summary"; fail=1; }
+grep -q "<h2>Designed blade</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the designed blade"; fail=1; }
+# the designed blade file is a blade file the rotor command reads
+"$exe" rotor "$tmp/demo/design-blade.json" --rpm 13600 > /dev/null 2>&1 ||
+  { echo "FAIL: rotor cannot use design-blade.json"; fail=1; }
 # the demo's title once over both streams (issue 17: it was printed as progress and as summary)
 n_title=$(cat "$tmp/out" "$tmp/err" | grep -c "three-blade prop")
 [ "$n_title" = 1 ] || { echo "FAIL: the demo's title appears $n_title times in its output"; fail=1; }
