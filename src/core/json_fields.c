@@ -99,3 +99,20 @@ ascr_status core_file_read(const char *path, size_t max, const char *what, char 
   *len = n;
   return ASCR_OK;
 }
+
+char *core_path_dir(const char *path)
+{
+  size_t n = strlen(path) + 1;
+  char *dir = malloc(n);
+  if (dir == NULL) {
+    return NULL;
+  }
+  memcpy(dir, path, n);
+  char *slash = strrchr(dir, '/');
+  if (slash != NULL) {
+    *slash = '\0';
+  } else {
+    dir[0] = '\0';
+  }
+  return dir;
+}

@@ -31,4 +31,8 @@ ascr_status core_json_load(const core_json_ctx *r, const char *text, size_t len,
 ascr_status core_file_read(const char *path, size_t max, const char *what, char **buf,
                            size_t *len, ascr_errbuf *err);
 
+/* The folder of a file path ("" for a bare name), for resolving the relative paths a file names;
+ * allocated (free()), NULL when out of memory. */
+char *core_path_dir(const char *path);
+
 #endif

@@ -271,14 +271,11 @@ ascr_status ascr_design_spec_read(const char *path, ascr_design_spec **out, ascr
   size_t n;
   ascr_status st = core_file_read(path, SPEC_MAX_BYTES, "design specification", &buf, &n, err);
   if (st != ASCR_OK) return st;
-  char *dir = dup_str(path);
+  char *dir = core_path_dir(path);
   if (dir == NULL) {
     free(buf);
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
   }
-  char *slash = strrchr(dir, '/');
-  if (slash != NULL) *slash = '\0';
-  else dir[0] = '\0';
   st = ascr_design_spec_parse(buf, n, path, dir, out, err);
   free(dir);
   free(buf);

@@ -343,16 +343,10 @@ ascr_status ascr_blade_read(const char *path, ascr_blade **out, ascr_errbuf *err
     return rs;
   }
   /* directory of the file, for relative section paths */
-  char *dir = dup_str(path);
+  char *dir = core_path_dir(path);
   if (dir == NULL) {
     free(buf);
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", path);
-  }
-  char *slash = strrchr(dir, '/');
-  if (slash != NULL) {
-    *slash = '\0';
-  } else {
-    dir[0] = '\0';
   }
   ascr_status st = ascr_blade_parse(buf, n, path, dir, out, err);
   free(dir);
