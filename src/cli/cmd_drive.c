@@ -55,7 +55,8 @@ static void drive_help(FILE *fp)
         "      --climb             the largest vertical climb rate at full throttle\n"
         "      --top-speed         the top speed in level flight, discs tilted forward (BEMT at\n"
         "                          incidence; takes some seconds)\n"
-        "                          (with either and no --throttle, no throttle points are run)\n"
+        "                          (with any of these three and no --throttle, no throttle\n"
+        "                          points are run)\n"
         CLI_ROTOR_OPTS_HELP
         "output:\n"
         "      --plot DIR          also draw thrust, rpm, current and power against throttle\n"
