@@ -66,6 +66,20 @@ ascr_status core_json_load(const core_json_ctx *r, const char *text, size_t len,
   return ASCR_OK;
 }
 
+ascr_status core_json_document(const core_json_ctx *r, const char *text, size_t len,
+                               ascr_status (*fill)(const core_json_ctx *r, json_t *root, void *ctx),
+                               void *ctx)
+{
+  json_t *root;
+  ascr_status st = core_json_load(r, text, len, &root);
+  if (st != ASCR_OK) {
+    return st;
+  }
+  st = fill(r, root, ctx);
+  json_decref(root);
+  return st;
+}
+
 ascr_status core_file_read(const char *path, size_t max, const char *what, char **buf,
                            size_t *len, ascr_errbuf *err)
 {

@@ -26,6 +26,12 @@ ascr_status core_json_number(const core_json_ctx *r, json_t *obj, const char *ke
  * and column. *root owned by the caller. */
 ascr_status core_json_load(const core_json_ctx *r, const char *text, size_t len, json_t **root);
 
+/* Parse text as a JSON document (core_json_load) and hand its root to fill(r, root, ctx), the
+ * reader of one file type; the document is released afterwards whatever fill returns. */
+ascr_status core_json_document(const core_json_ctx *r, const char *text, size_t len,
+                               ascr_status (*fill)(const core_json_ctx *r, json_t *root, void *ctx),
+                               void *ctx);
+
 /* Read a whole regular file of at most max bytes into *buf (NUL-terminated, caller frees);
  * what names the kind of file in messages. */
 ascr_status core_file_read(const char *path, size_t max, const char *what, char **buf,

@@ -238,22 +238,29 @@ static ascr_status parse_root(const core_json_ctx *r, json_t *root, const char *
   return layout(r, secs, base_dir, s, names);
 }
 
+typedef struct fill_ctx {
+  const char *base_dir;
+  ascr_design_spec *s;
+} fill_ctx;
+
+static ascr_status fill(const core_json_ctx *r, json_t *root, void *vc)
+{
+  fill_ctx *c = vc;
+  return parse_root(r, root, c->base_dir, c->s);
+}
+
 ascr_status ascr_design_spec_parse(const char *text, size_t len, const char *name,
                                    const char *base_dir, ascr_design_spec **out, ascr_errbuf *err)
 {
   if (out == NULL || (text == NULL && len > 0)) return core_fail(err, ASCR_EINVAL, "design: bad arguments");
   *out = NULL;
   core_json_ctx r = {name != NULL ? name : "(design)", err};
-  json_t *root;
-  ascr_status st = core_json_load(&r, text, len, &root);
-  if (st != ASCR_OK) return st;
   ascr_design_spec *s = calloc(1, sizeof *s);
   if (s == NULL) {
-    json_decref(root);
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", r.file);
   }
-  st = parse_root(&r, root, base_dir, s);
-  json_decref(root);
+  fill_ctx fc = {base_dir, s};
+  ascr_status st = core_json_document(&r, text, len, fill, &fc);
   if (st != ASCR_OK) {
     ascr_design_spec_free(s);
     return st;

@@ -240,6 +240,11 @@ ascr_status ascr_powertrain_validate(const ascr_powertrain *pt, ascr_errbuf *err
   return ASCR_OK;
 }
 
+static ascr_status fill(const core_json_ctx *r, json_t *root, void *pt)
+{
+  return parse_root(r, root, pt);
+}
+
 ascr_status ascr_powertrain_parse(const char *text, size_t len, const char *name,
                                   ascr_powertrain **out, ascr_errbuf *err)
 {
@@ -248,18 +253,11 @@ ascr_status ascr_powertrain_parse(const char *text, size_t len, const char *name
   }
   *out = NULL;
   core_json_ctx r = {name != NULL ? name : "(powertrain)", err};
-  json_t *root;
-  ascr_status st = core_json_load(&r, text, len, &root);
-  if (st != ASCR_OK) {
-    return st;
-  }
   ascr_powertrain *pt = calloc(1, sizeof *pt);
   if (pt == NULL) {
-    json_decref(root);
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", r.file);
   }
-  st = parse_root(&r, root, pt);
-  json_decref(root);
+  ascr_status st = core_json_document(&r, text, len, fill, pt);
   if (st != ASCR_OK) {
     ascr_powertrain_free(pt);
     return st;

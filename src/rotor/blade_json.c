@@ -302,6 +302,17 @@ static ascr_status parse_root(const rd *r, json_t *root, const char *base_dir, a
   return ASCR_OK;
 }
 
+typedef struct fill_ctx {
+  const char *base_dir;
+  ascr_blade *b;
+} fill_ctx;
+
+static ascr_status fill(const rd *r, json_t *root, void *vc)
+{
+  fill_ctx *c = vc;
+  return parse_root(r, root, c->base_dir, c->b);
+}
+
 ascr_status ascr_blade_parse(const char *text, size_t len, const char *name, const char *base_dir,
                              ascr_blade **out, ascr_errbuf *err)
 {
@@ -310,18 +321,12 @@ ascr_status ascr_blade_parse(const char *text, size_t len, const char *name, con
   }
   *out = NULL;
   rd r = {name != NULL ? name : "(blade)", err};
-  json_t *root;
-  ascr_status st0 = core_json_load(&r, text, len, &root);
-  if (st0 != ASCR_OK) {
-    return st0;
-  }
   ascr_blade *b = calloc(1, sizeof *b);
   if (b == NULL) {
-    json_decref(root);
     return core_fail(err, ASCR_ENOMEM, "%s: out of memory", r.file);
   }
-  ascr_status st = parse_root(&r, root, base_dir, b);
-  json_decref(root);
+  fill_ctx fc = {base_dir, b};
+  ascr_status st = core_json_document(&r, text, len, fill, &fc);
   if (st != ASCR_OK) {
     ascr_blade_free(b);
     return st;
