@@ -86,6 +86,92 @@ ASCR_EXPORT ascr_status ascr_mil_design(const ascr_mil_spec *spec,
 ASCR_EXPORT void ascr_mil_blade(const ascr_mil_spec *spec, const ascr_mil_result *res,
                                 ascr_blade_station *st, ascr_blade *b);
 
+/* ---- constrained multi-point design ------------------------------------------------- */
+
+/** Most operating points and control points of an optimisation. */
+#define ASCR_OPT_MAX_POINTS 8
+#define ASCR_OPT_MAX_CONTROL 8
+
+/** One operating point of a multi-point design: the rpm is trimmed (BEMT) until the blade
+ *  gives thrust_N at the axial airspeed; the point's shaft power, times its weight, enters
+ *  the objective. */
+typedef struct ascr_opt_point {
+  double speed_m_s;          /* axial airspeed, >= 0 */
+  double thrust_N;           /* > 0 */
+  double weight;             /* > 0 (e.g. the share of flight time at the point) */
+} ascr_opt_point;
+
+/** The optimisation problem (docs/theory/design.md, "Multi-point design"). */
+typedef struct ascr_opt_spec {
+  size_t n_points;                       /* 1 .. ASCR_OPT_MAX_POINTS */
+  ascr_opt_point points[ASCR_OPT_MAX_POINTS];
+  size_t n_control;                      /* control points of chord and of twist, evenly
+                                            spaced hub .. tip: 2 .. ASCR_OPT_MAX_CONTROL
+                                            (default 5) */
+  double chord_min_m, chord_max_m;       /* every chord stays inside (required, min > 0) */
+  double min_thickness_m;                /* chord x thickness ratio of its section at least
+                                            this (0: none; needs section_thickness) */
+  const double *section_thickness;       /* thickness/chord per section (NULL: none known) */
+  double max_tip_mach;                   /* helical tip Mach at every point at most this
+                                            (NaN or 0: no limit) */
+  double rpm_lo, rpm_hi;                 /* range of the rpm trims (> 0) */
+  int allow_extended;                    /* 0 (default): a point whose thrust rests on flagged
+                                            elements (extended or bridged polars, Re outside
+                                            the table) beyond ASCR_ROTOR_LOW_CONFIDENCE_SHARE
+                                            is penalised like a violated limit; 1: not */
+  int max_iterations;                    /* simplex iterations (default 3000) */
+  double tolerance;                      /* stop when the simplex's size (in the scaled
+                                            variables) falls below (default 1e-3) */
+} ascr_opt_spec;
+
+/** Defaults: 5 control points, 3000 iterations, tolerance 1e-3, no tip-Mach or thickness
+ *  limit; no points, chord bounds or rpm range. */
+ASCR_EXPORT ascr_opt_spec ascr_opt_spec_defaults(void);
+
+/** An operating point of the optimised blade. */
+typedef struct ascr_opt_point_result {
+  double rpm, thrust_N, power_W, tip_mach;
+  double efficiency, figure_of_merit;    /* NaN where not defined (see ascr_rotor_result) */
+  double tip_mach_margin;                /* max_tip_mach - tip_mach (NaN without a limit) */
+  double flagged_thrust_share;           /* as ascr_rotor_result */
+  int low_confidence;                    /* the analysis leans on extended polars */
+  int trimmed;                           /* the thrust was reached inside the rpm range */
+} ascr_opt_point_result;
+
+typedef struct ascr_opt_result {
+  size_t n;                              /* stations (the start blade's radii) */
+  ascr_blade_station st[ASCR_MIL_MAX_STATIONS];
+  size_t n_control;
+  double control_r_m[ASCR_OPT_MAX_CONTROL], control_chord_m[ASCR_OPT_MAX_CONTROL],
+      control_twist_deg[ASCR_OPT_MAX_CONTROL];
+  double objective_W, start_objective_W; /* sum of weight x power (the start's on the control
+                                            points, its chords inside the bounds) */
+  int start_feasible;                    /* the start keeps every limit (if not, the optimised
+                                            blade may need more power than it) */
+  ascr_opt_point_result points[ASCR_OPT_MAX_POINTS];
+  ascr_opt_point_result start_points[ASCR_OPT_MAX_POINTS];
+  double chord_margin_m;                 /* smallest distance of a chord to its bounds */
+  double thickness_margin_m;             /* smallest chord x t/c - min_thickness (NaN: none) */
+  int iterations, evaluations;
+  double simplex_size;                   /* at the end */
+  int converged;                         /* simplex size below the tolerance */
+  int feasible;                          /* every point trimmed, every limit kept */
+} ascr_opt_result;
+
+/** Optimise chord and twist of a start blade (its radii, sections and blade count are kept)
+ *  for the weighted shaft power of the operating points, with the limits of o: chord and twist
+ *  as monotone cubic (Steffen) interpolants of n_control values, chords bounded by a logistic
+ *  transform, the other limits (tip Mach, thickness, and unless allowed the share of thrust on
+ *  flagged polars) by exterior quadratic penalties that leave violations of order 1e-5 of the
+ *  limit (a blade is reported feasible within 1e-4); GSL's Nelder-Mead simplex
+ *  (nmsimplex2). The start blade must trim every point. tables as for the rotor models.
+ *  @return ASCR_OK (converged or not: out->converged, out->feasible); ASCR_EINVAL; ASCR_EDOM
+ *          (the start blade does not reach a point's thrust); ASCR_ENOMEM. */
+ASCR_EXPORT ascr_status ascr_design_optimize(const ascr_blade *start,
+                                             const ascr_polar_table *const *tables,
+                                             const ascr_rotor_params *p, const ascr_opt_spec *o,
+                                             ascr_opt_result *out, ascr_errbuf *err);
+
 /* ---- design specification files ------------------------------------------------------ */
 
 /** Most sections a design spans. */
@@ -99,6 +185,9 @@ typedef struct ascr_design_spec {
   ascr_blade *layout;          /* the sections (names, sources resolved) on a provisional layout
                                   whose chords (0.3 R inboard to the minimum at the tip) bound
                                   the Reynolds numbers the design can need: the tables' range */
+  int optimize;                /* the file asks for the multi-point design ("optimize") */
+  ascr_opt_spec opt;           /* its problem (section_thickness points into thickness) */
+  double thickness[ASCR_DESIGN_MAX_SECTIONS]; /* t/c of each span's section */
 } ascr_design_spec;
 
 /** Read a design specification (JSON). Section files are resolved against the file's folder;

@@ -142,12 +142,139 @@ static ascr_status layout(const core_json_ctx *r, json_t *secs, const char *base
   return stt;
 }
 
+/* [a, b] with a < b, both finite: a pair field */
+static ascr_status read_pair(const core_json_ctx *r, json_t *o, const char *key, const char *path,
+                             double *a, double *b)
+{
+  json_t *v = json_object_get(o, key);
+  if (v == NULL) return ASCR_OK;
+  if (!json_is_array(v) || json_array_size(v) != 2 || !json_is_number(json_array_get(v, 0)) ||
+      !json_is_number(json_array_get(v, 1)) ||
+      !(json_number_value(json_array_get(v, 1)) > json_number_value(json_array_get(v, 0)))) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: %s.%s: must be [low, high] with low < high",
+                     r->file, path, key);
+  }
+  *a = json_number_value(json_array_get(v, 0));
+  *b = json_number_value(json_array_get(v, 1));
+  return ASCR_OK;
+}
+
+/* "optimize": the multi-point design (docs/file-formats.md) */
+static ascr_status read_optimize(const core_json_ctx *r, json_t *root, ascr_design_spec *s)
+{
+  json_t *o = json_object_get(root, "optimize");
+  if (o == NULL || json_is_null(o)) return ASCR_OK;
+  static const char *const keys[] = {"points", "control_points", "chord_range_m",
+                                     "min_thickness_m", "max_tip_mach", "rpm_range",
+                                     "allow_extended_polars", "max_iterations", NULL};
+  static const char *const pkeys[] = {"speed_m_s", "thrust_N", "weight", NULL};
+  if (!json_is_object(o)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: optimize: must be an object", r->file);
+  }
+  ascr_status st = core_json_keys(r, o, "optimize", keys);
+  if (st != ASCR_OK) return st;
+  ascr_opt_spec *q = &s->opt;
+  *q = ascr_opt_spec_defaults();
+  const ascr_mil_spec *m = &s->mil;
+  json_t *pts = json_object_get(o, "points");
+  if (!json_is_array(pts) || json_array_size(pts) < 1 || json_array_size(pts) > ASCR_OPT_MAX_POINTS) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: optimize.points: must be a list of 1 .. %d points "
+                     "{speed_m_s, thrust_N, weight}", r->file, ASCR_OPT_MAX_POINTS);
+  }
+  q->n_points = json_array_size(pts);
+  for (size_t i = 0; i < q->n_points; i++) {
+    json_t *e = json_array_get(pts, i);
+    char path[48];
+    snprintf(path, sizeof path, "optimize.points[%zu]", i);
+    if (!json_is_object(e)) return core_fail(r->err, ASCR_EPARSE, "%s: %s: must be an object", r->file, path);
+    ascr_opt_point *pt = &q->points[i];
+    st = core_json_keys(r, e, path, pkeys);
+    if (st == ASCR_OK) st = core_json_number(r, e, "speed_m_s", path, 0, 0.0, &pt->speed_m_s);
+    if (st == ASCR_OK) st = core_json_number(r, e, "thrust_N", path, 1, 0.0, &pt->thrust_N);
+    if (st == ASCR_OK) st = core_json_number(r, e, "weight", path, 0, 1.0, &pt->weight);
+    if (st != ASCR_OK) return st;
+    if (!(pt->speed_m_s >= 0.0 && pt->speed_m_s <= 300.0) || !(pt->thrust_N > 0.0 && pt->thrust_N < 1e5) ||
+        !(pt->weight > 0.0 && pt->weight < 1e6)) {
+      return core_fail(r->err, ASCR_EINVAL, "%s: %s: speed_m_s 0 .. 300, thrust_N > 0 and weight > 0 "
+                       "required", r->file, path);
+    }
+  }
+  double ncp = 5.0, iters = (double)q->max_iterations, mach = NAN;
+  double cmin = m->min_chord_m > 0.0 ? m->min_chord_m : 0.02 * m->r_tip_m;
+  q->chord_min_m = cmin;
+  q->chord_max_m = 0.4 * m->r_tip_m;
+  q->rpm_lo = 0.2 * m->rpm;
+  q->rpm_hi = 5.0 * m->rpm;
+  st = core_json_number(r, o, "control_points", "optimize", 0, 5.0, &ncp);
+  if (st == ASCR_OK) st = core_json_number(r, o, "max_iterations", "optimize", 0, iters, &iters);
+  if (st == ASCR_OK) st = core_json_number(r, o, "min_thickness_m", "optimize", 0, 0.0, &q->min_thickness_m);
+  if (st == ASCR_OK && json_object_get(o, "max_tip_mach") != NULL &&
+      !json_is_null(json_object_get(o, "max_tip_mach"))) {
+    st = core_json_number(r, o, "max_tip_mach", "optimize", 1, 0.0, &mach);
+  }
+  if (st == ASCR_OK) st = read_pair(r, o, "chord_range_m", "optimize", &q->chord_min_m, &q->chord_max_m);
+  if (st == ASCR_OK) st = read_pair(r, o, "rpm_range", "optimize", &q->rpm_lo, &q->rpm_hi);
+  if (st != ASCR_OK) return st;
+  if (!(ncp >= 2.0 && ncp <= ASCR_OPT_MAX_CONTROL && ncp == floor(ncp))) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.control_points: %g must be a whole number "
+                     "2 .. %d", r->file, ncp, ASCR_OPT_MAX_CONTROL);
+  }
+  if (!(iters >= 1.0 && iters <= 1e6 && iters == floor(iters))) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.max_iterations: %g must be a whole number "
+                     "1 .. 1e6", r->file, iters);
+  }
+  if (!(q->chord_min_m > 0.0 && q->chord_max_m <= m->r_tip_m)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.chord_range_m: [%g, %g] must lie in "
+                     "(0, tip_radius_m]", r->file, q->chord_min_m, q->chord_max_m);
+  }
+  if (!(q->rpm_lo > 0.0 && q->rpm_hi <= 1e6)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.rpm_range: [%g, %g] must lie in (0, 1e6]",
+                     r->file, q->rpm_lo, q->rpm_hi);
+  }
+  if (!(q->min_thickness_m >= 0.0 && q->min_thickness_m < q->chord_max_m)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.min_thickness_m: %g must be 0 .. the largest "
+                     "chord", r->file, q->min_thickness_m);
+  }
+  if (!isnan(mach) && !(mach > 0.0 && mach < 3.0)) {
+    return core_fail(r->err, ASCR_EINVAL, "%s: optimize.max_tip_mach: %g must be 0 .. 3 (or null: "
+                     "no limit)", r->file, mach);
+  }
+  json_t *ext = json_object_get(o, "allow_extended_polars");
+  if (ext != NULL && !json_is_boolean(ext)) {
+    return core_fail(r->err, ASCR_EPARSE, "%s: optimize.allow_extended_polars: must be true or false",
+                     r->file);
+  }
+  q->allow_extended = ext != NULL && json_is_true(ext);
+  q->n_control = (size_t)ncp;
+  q->max_iterations = (int)iters;
+  q->max_tip_mach = mach;
+  s->optimize = 1;
+  return ASCR_OK;
+}
+
+/* t/c of every span's section, from its shape (for the thickness limit) */
+static ascr_status section_thickness(const core_json_ctx *r, ascr_design_spec *s)
+{
+  for (size_t i = 0; i < s->mil.n_sections; i++) {
+    ascr_geom_section *g = NULL;
+    ascr_geom_metrics gm;
+    ascr_status st = ascr_geom_section_open(s->layout->section_source[i], &g, r->err);
+    if (st == ASCR_OK) st = ascr_geom_section_metrics(g, &gm, r->err);
+    ascr_geom_section_free(g);
+    if (st != ASCR_OK) return st;
+    s->thickness[i] = gm.thickness;
+  }
+  s->opt.section_thickness = s->thickness;
+  return ASCR_OK;
+}
+
 static ascr_status parse_root(const core_json_ctx *r, json_t *root, const char *base_dir,
                               ascr_design_spec *s)
 {
   static const char *const keys[] = {"format", "name", "blades", "tip_radius_m", "hub_radius_m",
                                      "sections", "spans", "design_point", "stations",
-                                     "cl_design", "min_chord_m", "alpha_range_deg", NULL};
+                                     "cl_design", "min_chord_m", "alpha_range_deg", "optimize",
+                                     NULL};
   if (!json_is_object(root)) {
     return core_fail(r->err, ASCR_EPARSE, "%s: the top level must be an object", r->file);
   }
@@ -235,7 +362,10 @@ static ascr_status parse_root(const core_json_ctx *r, json_t *root, const char *
   st = read_spans(r, root, secs, s, names);
   if (st != ASCR_OK) return st;
   m->section_from_r_m = s->from_r;
-  return layout(r, secs, base_dir, s, names);
+  st = read_optimize(r, root, s);
+  if (st == ASCR_OK) st = layout(r, secs, base_dir, s, names);
+  if (st == ASCR_OK && s->optimize) st = section_thickness(r, s);
+  return st;
 }
 
 typedef struct fill_ctx {
