@@ -258,6 +258,33 @@ ASCR_EXPORT ascr_status ascr_rotor_incidence(const ascr_blade *b,
                                              size_t n_azimuth, ascr_rotor_incidence_result *res,
                                              ascr_errbuf *err);
 
+/** Most airspeeds a summary lists. */
+#define ASCR_SUMMARY_MAX_SPEEDS 8
+
+/** The key numbers of a set of operating points of one blade (a rotor map), for comparing
+ *  candidates side by side. */
+typedef struct ascr_rotor_summary {
+  double hover_thrust_N;       /* the thrust asked (NaN: none) */
+  double hover_rpm, hover_power_W; /* at that thrust among the static points; NaN outside them */
+  int hover_interpolated;      /* 1: between two static points, 0: a point at that thrust */
+  double fm_max, fm_max_rpm;   /* the best figure of merit of the static points (NaN: none) */
+  size_t n_speeds;             /* airspeeds > 0 among the points, ascending */
+  double speed_m_s[ASCR_SUMMARY_MAX_SPEEDS];
+  double eta_max[ASCR_SUMMARY_MAX_SPEEDS], eta_max_rpm[ASCR_SUMMARY_MAX_SPEEDS]; /* best
+                                  efficiency among the points at that speed, and its rpm */
+  size_t n_used;               /* converged points */
+} ascr_rotor_summary;
+
+/** Summarise n operating points of one blade (converged ones; rpm, speed_m_s, thrust_N,
+ *  power_W, CT, CP, efficiency read). Hover at hover_thrust_N (NaN: none) between the two
+ *  static points whose thrusts bracket it, with sqrt(T) and P^(1/3) linear in rpm (exact where
+ *  CT and CP are constant between them, T ~ n^2 and P ~ n^3); the figure of merit from the
+ *  coefficients, CT^1.5 / (CP sqrt(pi/2)) (= T^1.5 / (P sqrt(2 rho A))); best values among the
+ *  points given (not interpolated between rpm). @return ASCR_OK or ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_rotor_summarize(const ascr_rotor_result *pts, size_t n,
+                                             double hover_thrust_N, ascr_rotor_summary *out,
+                                             ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif

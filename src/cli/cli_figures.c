@@ -104,6 +104,89 @@ static size_t distinct(const fig_rotor_point *p, size_t np, int which, double *o
   return n;
 }
 
+/* the points of p at rpm (or, with rpm NaN, at speed 0) ordered by J (or by rpm) into x, y1..y3;
+ * returns the count */
+static size_t compare_series(const fig_rotor_point *p, size_t np, double rpm, double *x, double *y1,
+                             double *y2, double *y3)
+{
+  size_t m = 0;
+  for (size_t i = 0; i < np; i++) {
+    int in = isnan(rpm) ? p[i].speed == 0.0 : fabs(p[i].rpm - rpm) <= 1e-9 * rpm;
+    if (!in || !isfinite(p[i].thrust)) continue;
+    double key = isnan(rpm) ? p[i].rpm : p[i].J;
+    size_t j = m++;
+    for (; j > 0 && x[j - 1] > key; j--) {
+      x[j] = x[j - 1];
+      y1[j] = y1[j - 1];
+      y2[j] = y2[j - 1];
+      y3[j] = y3[j - 1];
+    }
+    x[j] = key;
+    y1[j] = isnan(rpm) ? p[i].thrust : p[i].CT;
+    y2[j] = isnan(rpm) ? p[i].power : p[i].CP;
+    y3[j] = p[i].eta;
+  }
+  return m;
+}
+
+int fig_rotor_compare(const char *dir, const char *const *names, const fig_rotor_point *const *p,
+                      const size_t *np, size_t nc)
+{
+  enum { MAXC = 8, MAXG = 64 };
+  if (nc > MAXC) nc = MAXC;
+  size_t tot = 0;
+  for (size_t k = 0; k < nc; k++) tot += np[k];
+  double *buf = calloc(8 * tot + 1, sizeof *buf);
+  if (buf == NULL) {
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  plot_series sr[5 * MAXC];
+  char lab[MAXC][64];
+  double *q = buf;
+  for (size_t k = 0; k < nc; k++) {
+    /* the rpm with the most points; among equals (an rpm x speed map), the middle one */
+    double rpms[MAXG], best = NAN;
+    size_t nr = distinct(p[k], np[k], 0, rpms, MAXG), most = 0, cnt[MAXG];
+    for (size_t g = 0; g < nr; g++) {
+      cnt[g] = 0;
+      for (size_t i = 0; i < np[k]; i++) cnt[g] += (size_t)(fabs(p[k][i].rpm - rpms[g]) <= 1e-9 * rpms[g]);
+      if (cnt[g] > most) most = cnt[g];
+    }
+    size_t ntie = 0, g0 = 0;
+    for (size_t g = 0; g < nr; g++) ntie += (size_t)(cnt[g] == most);
+    for (size_t g = 0, t = 0; g < nr; g++) {
+      if (cnt[g] != most) continue;
+      if (t++ == ntie / 2) g0 = g;
+    }
+    if (nr > 0) best = rpms[g0];
+    double *J = q, *CT = q + np[k], *CP = q + 2 * np[k], *ET = q + 3 * np[k];
+    double *R = q + 4 * np[k], *T = q + 5 * np[k], *P = q + 6 * np[k], *E0 = q + 7 * np[k];
+    q += 8 * np[k];
+    size_t m = isnan(best) ? 0 : compare_series(p[k], np[k], best, J, CT, CP, ET);
+    size_t m0 = compare_series(p[k], np[k], NAN, R, T, P, E0);
+    if (isnan(best)) snprintf(lab[k], sizeof lab[k], "%.40s", names[k]);
+    else snprintf(lab[k], sizeof lab[k], "%.40s, %.0f rpm", names[k], best);
+    size_t nfin = 0;
+    for (size_t i = 0; i < m; i++) nfin += (size_t)isfinite(ET[i]);
+    sr[k] = (plot_series){lab[k], m, J, CT, m < 2};
+    sr[MAXC + k] = (plot_series){NULL, m, J, CP, m < 2};
+    sr[2 * MAXC + k] = (plot_series){NULL, m, J, ET, nfin < 2};
+    sr[3 * MAXC + k] = (plot_series){NULL, m0, R, T, m0 < 2};
+    sr[4 * MAXC + k] = (plot_series){NULL, m0, R, P, m0 < 2};
+  }
+  plot_panel pan[5] = {{"thrust coefficient", "advance ratio J", "C#dT#u = T/(#gr n#u2#d D#u4#d)", sr, nc},
+                       {"power coefficient", "advance ratio J", "C#dP#u = P/(#gr n#u3#d D#u5#d)", sr + MAXC, nc},
+                       {"efficiency", "advance ratio J", "#gy = T V / P", sr + 2 * MAXC, nc},
+                       {"static thrust", "rotation rate (rpm)", "thrust (N)", sr + 3 * MAXC, nc},
+                       {"static shaft power", "rotation rate (rpm)", "power (W)", sr + 4 * MAXC, nc}};
+  char base[4200];
+  snprintf(base, sizeof base, "%s/compare-rotor", dir);
+  int rc = plot_figure(base, NULL, 2, 3, pan, 5);
+  free(buf);
+  return rc;
+}
+
 int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np)
 {
   enum { MAXG = 12 };

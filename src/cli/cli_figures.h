@@ -71,6 +71,12 @@ typedef struct fig_rotor_point {
  * points). */
 int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size_t np);
 
+/* Candidates compared: DIR/compare-rotor.svg and .png: CT, CP and efficiency against J (each
+ * candidate at the rpm it has most points at) and static thrust and shaft power against rpm,
+ * one line per candidate (names[k], p[k] with np[k] points). */
+int fig_rotor_compare(const char *dir, const char *const *names, const fig_rotor_point *const *p,
+                      const size_t *np, size_t nc);
+
 /* Throttle maps of a powertrain (ascr_drive_linearity_at, one per airspeed): thrust with its
  * best straight line over the usable band, rpm, pack current and electrical power against
  * throttle, one line per airspeed, unconverged points left out: DIR/drive.svg and .png. */

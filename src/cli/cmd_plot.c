@@ -6,6 +6,7 @@
 #include "cli_csv.h"
 #include "cli_figures.h"
 #include "plot_read.h"
+#include "plot_compare.h"
 #include "commands.h"
 
 #include <strings.h>
@@ -18,6 +19,7 @@
 static void plot_help(FILE *fp)
 {
   fputs("usage: airscrew plot RESULT.json|RESULT.csv --plot DIR [--model NAME] [--force]\n"
+        "       airscrew plot RESULT1 RESULT2 [...] --plot DIR [--hover-thrust N] [--force]\n"
         "\n"
         "Draw the figures of a result saved with --json or --csv by 'airscrew polar'\n"
         "(polars: DIR/polar; from JSON with several Re also the Reynolds-number study,\n"
@@ -27,7 +29,15 @@ static void plot_help(FILE *fp)
         "JSON, converged=false or empty in CSV) are left out. A rotor CSV with a model column\n"
         "(the demo's rotor-map.csv) is drawn for one model: --model NAME, default the first.\n"
         "--plot DIR is the figures folder as for flow, polar and rotor (--out DIR, its\n"
-        "earlier name, is still read).\n",
+        "earlier name, is still read).\n"
+        "\n"
+        "With two to eight results (all polars or all rotor maps) the candidates are compared:\n"
+        "one figure set with every candidate (DIR/compare-polar or DIR/compare-rotor) and a\n"
+        "table of their key numbers side by side on standard output: for rotors the best\n"
+        "static figure of merit and the best efficiency at each airspeed among the saved\n"
+        "points, and with --hover-thrust N the rpm and shaft power at that static thrust\n"
+        "(between the two saved rpm that bracket it); for polars each curve's smallest cd,\n"
+        "best L/D, cl_max, zero-lift angle and lift slope.\n",
         fp);
 }
 
@@ -200,10 +210,44 @@ static int csv_to_result(const char *file, const char *model, json_t **out)
   return 0;
 }
 
+/* read one result file (JSON, or CSV turned into the same form) into pd; root kept for pd's
+ * strings */
+static int plot_load(const char *file, const char *model, json_t **root, plot_data *pd)
+{
+  size_t flen = strlen(file);
+  int rc;
+  *root = NULL;
+  memset(pd, 0, sizeof *pd);
+  int is_csv = flen > 4 && strcasecmp(file + flen - 4, ".csv") == 0;
+  if (model != NULL && !is_csv) {
+    cli_error("plot: --model selects rows of a rotor CSV file with a model column");
+    return CLI_EXIT_USAGE;
+  }
+  if (is_csv) {
+    rc = csv_to_result(file, model, root);
+    if (rc) return rc;
+  } else {
+    char *text = NULL;
+    size_t tlen = 0;
+    rc = cli_read_file(file, PLOT_JSON_MAX, "result", &text, &tlen);
+    if (rc) return rc;
+    json_error_t je;
+    *root = json_loadb(text, tlen, JSON_REJECT_DUPLICATES, &je);
+    free(text);
+    if (*root == NULL) {
+      cli_error("%s:%d:%d: %s", file, je.line, je.column, je.text);
+      return CLI_EXIT_INPUT;
+    }
+  }
+  return plot_data_read(file, *root, pd);
+}
+
 int cmd_plot(int argc, char **argv)
 {
-  const char *file = NULL, *dir = NULL, *model = NULL;
+  const char *files[PLOT_MAX_CANDIDATES], *dir = NULL, *model = NULL;
+  size_t nf = 0;
   int force = 0;
+  double hover = NAN;
   for (int i = 1; i < argc; i++) {
     if (strcmp(argv[i], "--help") == 0 || strcmp(argv[i], "-h") == 0) {
       plot_help(stdout);
@@ -215,54 +259,56 @@ int cmd_plot(int argc, char **argv)
       force = 1;
     } else if (strcmp(argv[i], "--model") == 0 && i + 1 < argc) {
       model = argv[++i];
-    } else if (argv[i][0] != '-' && file == NULL) {
-      file = argv[i];
+    } else if (strcmp(argv[i], "--hover-thrust") == 0 && i + 1 < argc) {
+      if (cli_parse_number(argv[++i], &hover) != 0 || !(hover > 0.0 && hover < 1e6)) {
+        cli_error("plot: --hover-thrust: '%s' is not a thrust in newtons (0 .. 1e6)", argv[i]);
+        return CLI_EXIT_USAGE;
+      }
+    } else if (argv[i][0] != '-') {
+      if (nf == PLOT_MAX_CANDIDATES) {
+        cli_error("plot: at most %d results are compared at once", PLOT_MAX_CANDIDATES);
+        return CLI_EXIT_USAGE;
+      }
+      files[nf++] = argv[i];
     } else {
       cli_error("plot: unexpected '%s' (see airscrew plot --help)", argv[i]);
       return CLI_EXIT_USAGE;
     }
   }
-  if (file == NULL || dir == NULL) {
+  if (nf == 0 || dir == NULL) {
     cli_error("plot: give RESULT.json and --plot DIR (see airscrew plot --help)");
     return CLI_EXIT_USAGE;
   }
-  if (cli_check_options_only) return CLI_EXIT_OK;
-  size_t flen = strlen(file);
-  json_t *root = NULL;
-  int rc;
-  int is_csv = flen > 4 && strcasecmp(file + flen - 4, ".csv") == 0;
-  if (model != NULL && !is_csv) {
-    cli_error("plot: --model selects rows of a rotor CSV file with a model column");
+  if (nf == 1 && !isnan(hover)) {
+    cli_error("plot: --hover-thrust compares two or more rotor results");
     return CLI_EXIT_USAGE;
   }
-  if (is_csv) {
-    rc = csv_to_result(file, model, &root);
-    if (rc) return rc;
-  } else {
-    char *text = NULL;
-    size_t tlen = 0;
-    rc = cli_read_file(file, PLOT_JSON_MAX, "result", &text, &tlen);
-    if (rc) return rc;
-    json_error_t je;
-    root = json_loadb(text, tlen, JSON_REJECT_DUPLICATES, &je);
-    free(text);
-    if (root == NULL) {
-      cli_error("%s:%d:%d: %s", file, je.line, je.column, je.text);
-      return CLI_EXIT_INPUT;
-    }
+  if (nf > 1 && model != NULL) {
+    cli_error("plot: --model draws one rotor CSV file; compare candidates saved one model a file");
+    return CLI_EXIT_USAGE;
   }
-  plot_data pd;
-  rc = plot_data_read(file, root, &pd);
-  if (rc == 0 && pd.kind == PLOT_POLARS) {
-    rc = fig_prepare_dir(dir, (const char *const[]){"polar", pd.n_re > 0 ? "polar-re" : NULL, NULL}, force);
-    if (rc == 0) rc = fig_polars(dir, pd.title, pd.pol, pd.n_pol);
-    if (rc == 0 && pd.n_re > 0) rc = fig_re_study(dir, pd.title, pd.bubble_cl, pd.re, pd.n_re);
+  if (cli_check_options_only) return CLI_EXIT_OK;
+  json_t *roots[PLOT_MAX_CANDIDATES];
+  plot_data pds[PLOT_MAX_CANDIDATES];
+  size_t nl = 0;
+  int rc = 0;
+  for (; nl < nf && rc == 0; nl++) rc = plot_load(files[nl], model, &roots[nl], &pds[nl]);
+  if (rc == 0 && nf > 1) {
+    rc = plot_compare(dir, force, hover, files, pds, nf);
+  } else if (rc == 0 && pds[0].kind == PLOT_POLARS) {
+    plot_data *pd = &pds[0];
+    rc = fig_prepare_dir(dir, (const char *const[]){"polar", pd->n_re > 0 ? "polar-re" : NULL, NULL}, force);
+    if (rc == 0) rc = fig_polars(dir, pd->title, pd->pol, pd->n_pol);
+    if (rc == 0 && pd->n_re > 0) rc = fig_re_study(dir, pd->title, pd->bubble_cl, pd->re, pd->n_re);
+    if (rc == 0) printf("figures written to %s/\n", dir);
   } else if (rc == 0) {
     rc = fig_prepare_dir(dir, (const char *const[]){"rotor", "rotor-spanwise", NULL}, force);
-    if (rc == 0) rc = fig_rotor(dir, pd.title, pd.rot, pd.n_rot);
+    if (rc == 0) rc = fig_rotor(dir, pds[0].title, pds[0].rot, pds[0].n_rot);
+    if (rc == 0) printf("figures written to %s/\n", dir);
   }
-  plot_data_free(&pd);
-  json_decref(root);
-  if (rc == 0) printf("figures written to %s/\n", dir);
+  for (size_t k = 0; k < nl; k++) {
+    plot_data_free(&pds[k]);
+    json_decref(roots[k]);
+  }
   return rc;
 }
