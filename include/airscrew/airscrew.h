@@ -19,5 +19,6 @@
 #include "airscrew/ascr_blade_tables.h"
 #include "airscrew/ascr_powertrain.h"
 #include "airscrew/ascr_design.h"
+#include "airscrew/ascr_structure.h"
 
 #endif /* AIRSCREW_H */
