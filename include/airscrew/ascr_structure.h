@@ -20,6 +20,7 @@
 #include <stddef.h>
 #include "airscrew/ascr_errno.h"
 #include "airscrew/ascr_geom.h"
+#include "airscrew/ascr_rotor.h"
 
 #ifdef __cplusplus
 extern "C" {
@@ -47,6 +48,78 @@ ASCR_EXPORT ascr_status ascr_section_props_polygon(const double *x, const double
  *  @return as ascr_section_props_polygon. */
 ASCR_EXPORT ascr_status ascr_section_props_of(const ascr_geom_section *s, double chord_m,
                                               ascr_section_props *out, ascr_errbuf *err);
+
+/* ---- materials ------------------------------------------------------------------------ */
+
+/** One material property with where it comes from. */
+typedef struct ascr_material_value {
+  double value;               /* SI units; NaN: not known */
+  char source[160];           /* e.g. "datasheet class, typical" */
+} ascr_material_value;
+
+/** A blade material (file schema: docs/file-formats.md, "Material file"). */
+typedef struct ascr_material {
+  char name[160];
+  ascr_material_value density_kg_m3;
+  ascr_material_value elastic_modulus_pa;
+  ascr_material_value shear_modulus_pa;   /* given, or E / (2 (1 + nu)) (isotropic) */
+  ascr_material_value poisson_ratio;      /* given, or 0.35 (common practice for polymers) */
+  ascr_material_value tensile_strength_pa;
+  ascr_material_value fatigue_limit_pa;   /* NaN where the file gives none */
+} ascr_material;
+
+/** Read a material file (JSON, "airscrew-material-1"); messages name the file and the field.
+ *  @return ASCR_OK, ASCR_EIO, ASCR_EPARSE, ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_material_read(const char *path, ascr_material *out, ascr_errbuf *err);
+/** As ascr_material_read from a buffer; name labels messages. */
+ASCR_EXPORT ascr_status ascr_material_parse(const char *text, size_t len, const char *name,
+                                            ascr_material *out, ascr_errbuf *err);
+
+/* ---- the blade under load ------------------------------------------------------------- */
+
+/** Most stations of a structural analysis. */
+#define ASCR_STRUCTURE_MAX_STATIONS 401
+
+/** One station of the blade (SI units). Rotor frame: flap = bending out of the plane of
+ *  rotation (by thrust), lag = bending in it (by the torque's in-plane forces). */
+typedef struct ascr_structure_station {
+  double r_m, chord_m, twist_deg;
+  ascr_section_props props;        /* in the section's axes (sections blended as the rotor does) */
+  double mass_per_length_kg_m;     /* rho A */
+  double ei_flap_nm2, ei_lag_nm2;  /* E I about the in-plane tangential axis and the rotor axis:
+                                      the section's tensor turned by the twist */
+  double gj_nm2;                   /* G J */
+  double centrifugal_force_N;      /* carried at r: int_r^R rho A Omega^2 r' dr' */
+  double moment_flap_Nm, moment_lag_Nm; /* from the air loads outboard (one blade) */
+  double stress_pa;                /* centrifugal tension plus the largest bending stress over the
+                                      section's contour (its sign not distinguished) */
+} ascr_structure_station;
+
+typedef struct ascr_structure_summary {
+  double mass_kg, volume_m3;       /* one blade, root station to tip */
+  double cg_r_m;                   /* radius of its centre of mass */
+  double root_centrifugal_N;       /* centrifugal force at the root station */
+  double max_stress_pa, max_stress_r_m;
+  double safety_factor;            /* tensile strength / max_stress */
+  double fatigue_factor;           /* fatigue limit / max_stress (NaN: no fatigue limit given) */
+  double tip_deflection_m;         /* flap, clamped at the root station, static and without
+                                      centrifugal stiffening (an upper bound) */
+} ascr_structure_summary;
+
+/** The blade b (sections[i]: the contour of section i) of material m at rpm under the air
+ *  loads el (n_el rotor elements of one point, dT/dr and dQ/dr of all blades; NULL: none) on
+ *  n stations evenly spaced from the first blade station to the tip (3 .. ASCR_STRUCTURE_MAX_
+ *  STATIONS; st[n] by the caller). Centrifugal force by the trapezoidal rule; bending moments
+ *  of the loads outboard, M(r) = int_r^R q(r') (r' - r) dr' with the elements' loads constant
+ *  over each element; stresses by the flexure formula for unsymmetric sections (Gere &
+ *  Timoshenko, Mechanics of Materials, ch. 6); the tip deflection by integrating M / EI twice
+ *  from the clamped root (Euler-Bernoulli). @return ASCR_OK, ASCR_EINVAL, ASCR_EGEOM. */
+ASCR_EXPORT ascr_status ascr_blade_structure(const ascr_blade *b,
+                                             const ascr_geom_section *const *sections,
+                                             const ascr_material *m, double rpm,
+                                             const ascr_rotor_element *el, size_t n_el, size_t n,
+                                             ascr_structure_station *st,
+                                             ascr_structure_summary *sum, ascr_errbuf *err);
 
 #ifdef __cplusplus
 }
