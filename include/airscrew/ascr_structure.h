@@ -121,6 +121,39 @@ ASCR_EXPORT ascr_status ascr_blade_structure(const ascr_blade *b,
                                              ascr_structure_station *st,
                                              ascr_structure_summary *sum, ascr_errbuf *err);
 
+/* ---- rotating modes ------------------------------------------------------------------- */
+
+/** Modes reported per family. */
+#define ASCR_MODES_MAX 4
+
+typedef struct ascr_modes_params {
+  int hinged_root;            /* 0 (default): clamped at the root station; 1: a flapping hinge
+                                 there (w = 0 only; the checks against the rotating string) */
+  size_t n_modes;             /* per family, 1 .. ASCR_MODES_MAX (default 3) */
+} ascr_modes_params;
+
+ASCR_EXPORT ascr_modes_params ascr_modes_params_defaults(void);
+
+/** Natural frequencies at one rpm, lowest first (Hz); NaN where a mode is unstable (a lag
+ *  "frequency" squared below zero) or missing. */
+typedef struct ascr_blade_modes {
+  double rpm;
+  double flap_hz[ASCR_MODES_MAX], lag_hz[ASCR_MODES_MAX], torsion_hz[ASCR_MODES_MAX];
+  size_t n_modes;
+} ascr_blade_modes;
+
+/** Modes of the rotating blade from its stations (ascr_blade_structure: r, mass per length,
+ *  EI_flap, EI_lag, GJ and the sections' I_xx, I_yy and twist; n >= 3 stations, the first the
+ *  root): uncoupled flap and lag bending by Euler-Bernoulli finite elements (Hermite cubics,
+ *  consistent mass) with the centrifugal tension's geometric stiffness, lag also with the
+ *  in-plane -Omega^2 m term, and torsion by linear elements with the propeller-moment term
+ *  Omega^2 rho (I_yy - I_xx) cos 2 theta; each a symmetric-definite eigenproblem (LAPACKE
+ *  dsygv). The centrifugal tension is recomputed at this rpm from the mass per length.
+ *  @return ASCR_OK, ASCR_EINVAL, ASCR_ENOMEM, ASCR_ESING (the eigen solver failed). */
+ASCR_EXPORT ascr_status ascr_blade_modes_at(const ascr_structure_station *st, size_t n, double rpm,
+                                            const ascr_modes_params *p, ascr_blade_modes *out,
+                                            ascr_errbuf *err);
+
 #ifdef __cplusplus
 }
 #endif
