@@ -154,6 +154,20 @@ ASCR_EXPORT ascr_status ascr_blade_modes_at(const ascr_structure_station *st, si
                                             const ascr_modes_params *p, ascr_blade_modes *out,
                                             ascr_errbuf *err);
 
+/** Where a mode's frequency meets an engine order: f_mode(rpm) = order x rpm / 60. */
+typedef struct ascr_campbell_crossing {
+  int family;                 /* 0 flap, 1 lag, 2 torsion */
+  size_t mode;                /* 0: the lowest of its family */
+  int order;                  /* 1 .. max_order (1P, 2P, ...) */
+  double rpm, hz;             /* linear between the two neighbouring rpm of the map */
+} ascr_campbell_crossing;
+
+/** The crossings of the modes m[0 .. n-1] (ascending rpm) with the orders 1 .. max_order (a
+ *  sign change of f - order rpm/60 between neighbouring rpm; a mode exactly on a line at a
+ *  computed rpm counts once). Up to max_out written to out; returns how many there are. */
+ASCR_EXPORT size_t ascr_campbell_crossings(const ascr_blade_modes *m, size_t n, int max_order,
+                                           ascr_campbell_crossing *out, size_t max_out);
+
 #ifdef __cplusplus
 }
 #endif

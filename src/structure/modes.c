@@ -159,3 +159,39 @@ done:
   free(f);
   return s;
 }
+
+static double family_hz(const ascr_blade_modes *m, int fam, size_t j)
+{
+  return fam == 0 ? m->flap_hz[j] : fam == 1 ? m->lag_hz[j] : m->torsion_hz[j];
+}
+
+size_t ascr_campbell_crossings(const ascr_blade_modes *m, size_t n, int max_order,
+                               ascr_campbell_crossing *out, size_t max_out)
+{
+  size_t cnt = 0;
+  if (m == NULL || n < 1) return 0;
+  for (int fam = 0; fam < 3; fam++) {
+    for (size_t j = 0; j < m[0].n_modes && j < ASCR_MODES_MAX; j++) {
+      for (int k = 1; k <= max_order; k++) {
+        for (size_t i = 0; i < n; i++) {
+          double g1 = family_hz(&m[i], fam, j) - k * m[i].rpm / 60.0;
+          double rpm = NAN;
+          if (g1 == 0.0) {
+            rpm = m[i].rpm; /* on the line at a computed rpm */
+          } else if (i > 0) {
+            double g0 = family_hz(&m[i - 1], fam, j) - k * m[i - 1].rpm / 60.0;
+            if (g0 != 0.0 && isfinite(g0) && isfinite(g1) && (g0 < 0.0) != (g1 < 0.0)) {
+              rpm = m[i - 1].rpm + (m[i].rpm - m[i - 1].rpm) * g0 / (g0 - g1);
+            }
+          }
+          if (isnan(rpm)) continue;
+          if (cnt < max_out && out != NULL) {
+            out[cnt] = (ascr_campbell_crossing){fam, j, k, rpm, k * rpm / 60.0};
+          }
+          cnt++;
+        }
+      }
+    }
+  }
+  return cnt;
+}

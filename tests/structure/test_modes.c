@@ -114,12 +114,40 @@ static void test_torsion(void **state)
   for (int k = 0; k < 3; k++) assert_true(m1.flap_hz[k] > m0.flap_hz[k]);
 }
 
+/* Crossings: a flap mode at 100 Hz + 0.01 Hz/rpm meets 1P where 100 + 0.01 n = n/60, at
+ * n = 15,000 rpm, 2P at 4,615.4 rpm and 3P at 2,500 rpm; exact on a line sampled every 1,000
+ * rpm (the interpolation is linear). The other families stay above 3P or are NaN (not
+ * counted). */
+static void test_crossings(void **state)
+{
+  (void)state;
+  ascr_blade_modes m[21];
+  memset(m, 0, sizeof m);
+  for (int i = 0; i < 21; i++) {
+    m[i].rpm = 1000.0 * i;
+    m[i].n_modes = 1;
+    m[i].flap_hz[0] = 100.0 + 0.01 * m[i].rpm;
+    m[i].lag_hz[0] = 5000.0;
+    m[i].torsion_hz[0] = NAN;
+  }
+  ascr_campbell_crossing c[8];
+  size_t n = ascr_campbell_crossings(m, 21, 3, c, 8);
+  assert_int_equal(n, 3);
+  for (int k = 0; k < 3; k++) {
+    assert_int_equal(c[k].family, 0);
+    assert_int_equal(c[k].order, k + 1);
+    ascr_assert_close(c[k].rpm, 100.0 / ((k + 1) / 60.0 - 0.01), 1e-12, 0.0, "crossing rpm");
+    ascr_assert_close(c[k].hz, (k + 1) * c[k].rpm / 60.0, 1e-15, 0.0, "crossing frequency");
+  }
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_cantilever),
       cmocka_unit_test(test_rotating_string),
       cmocka_unit_test(test_torsion),
+      cmocka_unit_test(test_crossings),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
