@@ -526,3 +526,58 @@ int fig_drive(const char *dir, const ascr_drive_linearity *lin, size_t ns)
   snprintf(base, sizeof base, "%s/drive", dir);
   return plot_figure(base, NULL, 2, 2, pan, 4) ? CLI_EXIT_OUTPUT : 0;
 }
+
+int fig_campbell(const char *dir, const char *blade, const ascr_blade_modes *m, size_t n,
+                 int max_order)
+{
+  enum { MAXO = 24 };
+  if (max_order > MAXO) max_order = MAXO;
+  size_t nm = n > 0 ? m[0].n_modes : 0;
+  double *buf = calloc((3 * ASCR_MODES_MAX + 1) * n + 4 * MAXO + 1, sizeof *buf);
+  if (buf == NULL) {
+    cli_error("out of memory");
+    return CLI_EXIT_INTERNAL;
+  }
+  plot_series sr[3 * ASCR_MODES_MAX + MAXO];
+  static const char *const fam[3] = {"flap", "lag", "torsion"};
+  char lab[3 * ASCR_MODES_MAX + MAXO][32];
+  size_t ns = 0;
+  double *x = buf, *q = buf + n;
+  for (size_t i = 0; i < n; i++) x[i] = m[i].rpm;
+  /* modes far above the highest engine order are left out (they would set the scale) */
+  double fmax_shown = 1.5 * max_order * (n > 0 ? m[n - 1].rpm : 0.0) / 60.0;
+  for (int f = 0; f < 3; f++) {
+    for (size_t j = 0; j < nm; j++) {
+      double lo = HUGE_VAL;
+      for (size_t i = 0; i < n; i++) {
+        q[i] = f == 0 ? m[i].flap_hz[j] : f == 1 ? m[i].lag_hz[j] : m[i].torsion_hz[j];
+        if (isfinite(q[i])) lo = fmin(lo, q[i]);
+      }
+      if (!(lo <= fmax_shown)) continue;
+      snprintf(lab[ns], sizeof lab[ns], "%s %zu", fam[f], j + 1);
+      sr[ns] = (plot_series){lab[ns], n, x, q, n < 2};
+      ns++;
+      q += n;
+    }
+  }
+  /* engine orders: two points each, from 0 to the highest rpm */
+  double *ox = q, *oy = q + 2 * MAXO;
+  double top = n > 0 ? m[n - 1].rpm : 0.0;
+  for (int k = 1; k <= max_order; k++) {
+    ox[2 * (k - 1)] = 0.0;
+    ox[2 * (k - 1) + 1] = top;
+    oy[2 * (k - 1)] = 0.0;
+    oy[2 * (k - 1) + 1] = k * top / 60.0;
+    snprintf(lab[ns], sizeof lab[ns], "%dP", k);
+    sr[ns] = (plot_series){k == 1 || k == max_order ? lab[ns] : NULL, 2, ox + 2 * (k - 1),
+                           oy + 2 * (k - 1), 0};
+    ns++;
+  }
+  char t0[200], base[4200];
+  snprintf(t0, sizeof t0, "Campbell diagram, %.60s", blade);
+  plot_panel pan[1] = {{t0, "rotation rate (rpm)", "frequency (Hz)", sr, ns}};
+  snprintf(base, sizeof base, "%s/structure", dir);
+  int rc = plot_figure(base, NULL, 1, 1, pan, 1);
+  free(buf);
+  return rc;
+}

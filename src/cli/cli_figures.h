@@ -77,6 +77,14 @@ int fig_rotor(const char *dir, const char *blade, const fig_rotor_point *p, size
 int fig_rotor_compare(const char *dir, const char *const *names, const fig_rotor_point *const *p,
                       const size_t *np, size_t nc);
 
+/* The Campbell diagram of a blade: flap, lag and torsion frequencies against rpm (n entries of
+ * m, ascending rpm; modes entirely above 1.5 times the highest order's top frequency left out)
+ * with the engine orders 1P .. max_order P as straight lines:
+ * DIR/structure.svg and .png. */
+struct ascr_blade_modes;
+int fig_campbell(const char *dir, const char *blade, const struct ascr_blade_modes *m, size_t n,
+                 int max_order);
+
 /* Throttle maps of a powertrain (ascr_drive_linearity_at, one per airspeed): thrust with its
  * best straight line over the usable band, rpm, pack current and electrical power against
  * throttle, one line per airspeed, unconverged points left out: DIR/drive.svg and .png. */

@@ -46,7 +46,7 @@ while IFS= read -r line; do
   want=$(printf '%s' "$line" | cut -d'|' -f1 | tr -d ' ')
   frag=$(printf '%s' "$line" | cut -d'|' -f2 | sed 's/^ *//;s/ *$//')
   args=$(printf '%s' "$line" | cut -d'|' -f3- | sed 's/^ *//')
-  args=$(printf '%s' "$args" | sed "s#@DATA@#$src/tests/data#g;s#@TMP@#$tmp#g")
+  args=$(printf '%s' "$args" | sed "s#@DATA@#$src/tests/data#g;s#@SRC@#$src#g;s#@TMP@#$tmp#g")
   # shellcheck disable=SC2086
   "$exe" $args > "$tmp/out" 2> "$tmp/err"
   got=$?

@@ -522,6 +522,59 @@ static void test_cli_design_json_contract(void **state)
   rmdir(tmpl);
 }
 
+/* airscrew structure BLADE MATERIAL --rpm VALUES --json: the contract of issue 16 (mass_kg,
+ * volume_m3, stations with r_m, area_m2, EI_flap_Nm2, EI_lag_Nm2, mass_per_length_kg_m,
+ * stress_Pa; max_stress_Pa, safety_factor; modes per rpm with flap_hz, lag_hz, torsion_hz lists,
+ * lowest first), and its internal consistency: the mass is the integral of the mass per length
+ * (trapezoidal, as computed), density times volume, the safety factor the strength over the
+ * largest stress; 1e-9 (the JSON keeps 10 significant digits). */
+static void test_cli_structure_json_contract(void **state)
+{
+  (void)state;
+  int code = -1;
+  json_t *j = run_json("structure " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json "
+                       ASCR_SOURCE_DIR "/docs/examples/materials/polycarbonate.json --rpm 4000:8000:2000 "
+                       "--stations 21 --polar-table main=" ASCR_SOURCE_DIR "/tests/data/naca4412-table.json --json",
+                       &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  double mass = num(j, "mass_kg"), vol = num(j, "volume_m3");
+  ascr_assert_close(mass, 1200.0 * vol, 1e-9, 0.0, "mass = density x volume (uniform material)");
+  json_t *sa = json_object_get(j, "stations");
+  assert_int_equal(json_array_size(sa), 21);
+  double m_int = 0.0, smax = 0.0;
+  for (size_t i = 0; i < 21; i++) {
+    json_t *q = json_array_get(sa, i);
+    (void)num(q, "area_m2");
+    assert_true(num(q, "EI_flap_Nm2") > 0.0 && num(q, "EI_lag_Nm2") > 0.0);
+    smax = fmax(smax, num(q, "stress_Pa"));
+    if (i > 0) {
+      json_t *p = json_array_get(sa, i - 1);
+      m_int += 0.5 * (num(q, "r_m") - num(p, "r_m")) *
+               (num(q, "mass_per_length_kg_m") + num(p, "mass_per_length_kg_m"));
+    }
+  }
+  ascr_assert_close(mass, m_int, 1e-9, 0.0, "mass = integral of the mass per length");
+  ascr_assert_close(num(j, "max_stress_Pa"), smax, 1e-9, 0.0, "largest station stress");
+  ascr_assert_close(num(j, "safety_factor"), 62e6 / smax, 1e-9, 0.0, "strength / largest stress");
+  json_t *ma = json_object_get(j, "modes");
+  assert_int_equal(json_array_size(ma), 3);
+  static const char *const fam[3] = {"flap_hz", "lag_hz", "torsion_hz"};
+  for (size_t k = 0; k < 3; k++) {
+    json_t *m = json_array_get(ma, k);
+    ascr_assert_close(num(m, "rpm"), 4000.0 + 2000.0 * k, 0.0, 0.0, "modes rpm");
+    for (int f = 0; f < 3; f++) {
+      json_t *l = json_object_get(m, fam[f]);
+      assert_true(json_array_size(l) >= 2);
+      for (size_t q = 1; q < json_array_size(l); q++) {
+        assert_true(json_number_value(json_array_get(l, q)) >= json_number_value(json_array_get(l, q - 1)));
+      }
+    }
+  }
+  assert_true(json_is_array(json_object_get(j, "crossings")));
+  json_decref(j);
+}
+
 static void test_cli_output_is_deterministic(void **state)
 {
   (void)state;
@@ -557,6 +610,7 @@ int main(void)
     cmocka_unit_test(test_cli_rotor_json_contract),
     cmocka_unit_test(test_cli_drive_json_contract),
     cmocka_unit_test(test_cli_design_json_contract),
+    cmocka_unit_test(test_cli_structure_json_contract),
     cmocka_unit_test(test_cli_output_is_deterministic),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
