@@ -20,5 +20,6 @@
 #include "airscrew/ascr_powertrain.h"
 #include "airscrew/ascr_design.h"
 #include "airscrew/ascr_structure.h"
+#include "airscrew/ascr_shape.h"
 
 #endif /* AIRSCREW_H */

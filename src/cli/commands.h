@@ -12,6 +12,7 @@ int cmd_polar(int argc, char **argv);
 int cmd_rotor(int argc, char **argv);
 int cmd_drive(int argc, char **argv);
 int cmd_structure(int argc, char **argv);
+int cmd_export(int argc, char **argv);
 int cmd_design(int argc, char **argv);
 int cmd_cache(int argc, char **argv);
 int cmd_plot(int argc, char **argv);

@@ -22,6 +22,7 @@ static void main_help(FILE *fp)
         "            thrust against throttle, the throttle for a thrust\n"
         "  design    the minimum-induced-loss blade for a design point, as a blade file\n"
         "  structure a blade's mass, stresses and rotating modes (Campbell diagram)\n"
+        "  export    the printable shape of a blade file as STL\n"
         "  cache     show or clear the cache of computed section polars\n"
         "  plot      draw the figures of a saved polar or rotor result (JSON)\n"
         "  demo      built-in demonstration on sample sections\n"
@@ -69,12 +70,13 @@ int cli_main(int argc, char **argv)
   if (strcmp(cmd, "drive") == 0) return cmd_drive(argc - 1, argv + 1);
   if (strcmp(cmd, "design") == 0) return cmd_design(argc - 1, argv + 1);
   if (strcmp(cmd, "structure") == 0) return cmd_structure(argc - 1, argv + 1);
+  if (strcmp(cmd, "export") == 0) return cmd_export(argc - 1, argv + 1);
   if (strcmp(cmd, "cache") == 0) return cmd_cache(argc - 1, argv + 1);
   if (strcmp(cmd, "plot") == 0) return cmd_plot(argc - 1, argv + 1);
   if (cmd[0] == '-') {
     cli_error("unknown option '%s' (see airscrew --help)", cmd);
   } else {
-    cli_error("unknown command '%s' (commands: section, flow, polar, rotor, drive, design, structure, cache, plot, demo; see airscrew --help)", cmd);
+    cli_error("unknown command '%s' (commands: section, flow, polar, rotor, drive, design, structure, export, cache, plot, demo; see airscrew --help)", cmd);
   }
   return CLI_EXIT_USAGE;
 }

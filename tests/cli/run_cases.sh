@@ -93,6 +93,15 @@ if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$
 if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
   echo "FAIL: replaced file lost its mode 640 or was not replaced"; fail=$((fail + 1))
 fi
+# export wrote a binary STL of 84 + 50 n bytes and one coordinate file per blade station
+if [ -f "$tmp/prop.stl" ]; then
+  n=$(od -An -tu4 -j80 -N4 "$tmp/prop.stl" | tr -d ' ')
+  [ "$(stat -c %s "$tmp/prop.stl")" = $((84 + 50 * n)) ] || { echo "FAIL: STL size does not match its count"; fail=$((fail + 1)); }
+else
+  echo "FAIL: export wrote no STL"; fail=$((fail + 1))
+fi
+[ -s "$tmp/stations/station-00.dat" ] || { echo "FAIL: export --sections wrote no station file"; fail=$((fail + 1)); }
+[ -e "$tmp/x.stl" ] || [ -e "$tmp/x2.stl" ] && { echo "FAIL: a refused export left a file"; fail=$((fail + 1)); }
 # runs refused for an output in a missing folder left nothing (whole or nothing, issue 17)
 for f in wn-figs wn-t.json wn-figs2 wn-figs3 nodir; do
   if [ -e "$tmp/$f" ]; then echo "FAIL: a refused run left $f"; fail=$((fail + 1)); fi
