@@ -67,9 +67,13 @@ ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, dou
                                          ascr_polar_summary *sum, ascr_polar_progress_fn progress,
                                          void *progress_ctx, ascr_errbuf *err);
 
-/** Solve one angle robustly: a fresh start first; if that fails, a continuation from the
- *  zero-lift angle to alpha_deg in steps of at most 1 deg (with the sweep's refinement).
- *  Returns as ascr_visc_solver_solve() for the final point. */
+/** Solve one angle as a sweep would reach it: a fresh start at the inviscid zero-lift angle,
+ *  then continuation to alpha_deg in equal steps of at most 1 deg (with the sweep's
+ *  refinement), where that ends before alpha_deg in steps of at most 0.5 deg, and where that
+ *  ends too a fresh start at alpha_deg.
+ *  The result depends only on the section, Re and angle, and is the state a polar sweep
+ *  reports there (a fresh start alone can land on another converged state: a 6 %-camber plate
+ *  at Re 1e4 and -0.5 deg). @return ASCR_OK; ASCR_EMAXITER if neither converged; ASCR_EINVAL. */
 ASCR_EXPORT ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg,
                                                ascr_visc_result *r, ascr_errbuf *err);
 

@@ -21,6 +21,8 @@ static void flow_help(FILE *fp)
         "\n"
         "Analyse one section at one angle of attack.\n"
         "SECTION is a coordinate file or a generator spec (see airscrew section --help).\n"
+        "A viscous point is reached as a polar sweep reaches it: from a fresh start at the\n"
+        "zero-lift angle, continued to the angle asked (so it agrees with 'polar').\n"
         "\n"
         "options:\n"
         "  -a, --alpha DEG       angle of attack, degrees (-90 .. 90; viscous -60 .. 60)\n"

@@ -178,8 +178,9 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * 6 = the march start's trailing edge and the predictor after a plain retry (which points
  * converge); 7 = the shape floor at the first stations and the line search's own contexts
  * (which points converge); 8 = the shape floor at the first stations with their stagnation-flow
- * ue, and the continuation's step control (which branch a sweep follows). */
-#define CURVE_NUMERICS_REVISION 8
+ * ue, and the continuation's step control (which branch a sweep follows); 9 = a sweep's first
+ * point reached from the zero-lift angle as a single point is (which branch a sweep follows). */
+#define CURVE_NUMERICS_REVISION 9
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)
