@@ -12,6 +12,7 @@
 #include "commands.h"
 #include "demo_drive.h"
 #include "demo_design.h"
+#include "demo_structure.h"
 
 #include <dirent.h>
 #include <errno.h>
@@ -262,6 +263,22 @@ int demo_prop(int argc, char **argv)
     return rc;
   }
 
+  /* ---- the blade as a part: stresses, modes, the printable propeller ---- */
+  fprintf(stderr, "  structure: stresses, rotating modes, STL...\n");
+  demo_structure_out ds;
+  memset(&ds, 0, sizeof ds);
+  if (hov_ok[0]) {
+    rc = demo_structure_section(b, tv, &rp, hov[0].rpm, hel[0], dd.full_throttle_rpm, outdir, &ds);
+    if (rc) {
+      demo_design_out_free(&dz);
+      demo_drive_out_free(&dd);
+      demo_structure_out_free(&ds);
+      cli_tables_free(&tabs);
+      ascr_blade_free(b);
+      return rc;
+    }
+  }
+
   /* ---- files ---- */
   rc = write_text(outdir, "blade.json", demo_blade, sizeof demo_blade - 1);
   mbuf mb;
@@ -492,7 +509,8 @@ int demo_prop(int argc, char **argv)
         fprintf(f, "<tr><td>%s</td><td colspan=\"8\">not converged</td></tr>\n", m ? "vortex" : "BEMT");
       }
     }
-    fprintf(f, "</table>\n%s%s", dd.html != NULL ? dd.html : "", dz.html != NULL ? dz.html : "");
+    fprintf(f, "</table>\n%s%s%s", dd.html != NULL ? dd.html : "", dz.html != NULL ? dz.html : "",
+            ds.html != NULL ? ds.html : "");
     fprintf(f, "<h2>Convergence</h2>\n<p>Rotor map: BEMT %zu of %d points converged, vortex %zu of %d "
                "(unconverged points are left blank, never plotted as results).</p>\n<table><tr><th>section</th>"
                "<th>Re</th><th>converged polar points</th></tr>\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
@@ -510,6 +528,7 @@ int demo_prop(int argc, char **argv)
                                           {"hover-spanwise.svg", "Spanwise loading and angle of attack in hover, both inflow models."},
                                           {"design.svg", "Chord and twist of the hand-drawn blade and of the minimum-induced-loss design."},
                                           {"drive.svg", "The prop on its powertrain (nominal pack): thrust, rpm, pack current and power against throttle, static and at 8 m/s."},
+                                          {"structure.svg", "Campbell diagram: flap, lag and torsion frequencies of the rotating blade and the engine orders."},
                                           {"polars-blade.svg", "Computed polars of the blade section."},
                                           {"polars-root.svg", "Computed polars of the root section."}};
     for (size_t q = 0; q < sizeof figs / sizeof figs[0]; q++) {
@@ -527,7 +546,7 @@ int demo_prop(int argc, char **argv)
       free(svg);
     }
     fprintf(f, "<h2>Files</h2>\n<p>blade.json, polars.csv, rotor-map.csv, hover.json, powertrain.json, "
-               "drive-map.csv, design-blade.json, and every plot as "
+               "drive-map.csv, design-blade.json, material.json, prop.stl (the printable propeller), and every plot as "
                "SVG and PNG, in this folder. Methods and their limits: airscrew's docs/theory/.</p>\n"
                "</body></html>\n");
     rc = mwrite(&mb, outdir, "report.html");
@@ -545,6 +564,7 @@ int demo_prop(int argc, char **argv)
     printf("  rotor map: BEMT %zu/%d, vortex %zu/%d points converged\n", nconv[0], NRPM * NSPD, nconv[1], NRPM * NSPD);
     if (dd.summary != NULL) printf("%s\n", dd.summary);
     if (dz.summary != NULL) printf("%s\n", dz.summary);
+    if (ds.summary != NULL) printf("  %s\n", ds.summary);
     printf("outputs in %s/:\n", outdir);
     DIR *d = opendir(outdir);
     struct dirent *e;
@@ -560,6 +580,7 @@ int demo_prop(int argc, char **argv)
   }
   demo_design_out_free(&dz);
   demo_drive_out_free(&dd);
+  demo_structure_out_free(&ds);
   cli_tables_free(&tabs);
   ascr_blade_free(b);
   return rc;

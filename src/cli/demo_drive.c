@@ -68,6 +68,7 @@ int demo_drive_section(const ascr_blade *b, const ascr_rotor_params *rp, const c
   d.state = ASCR_BATTERY_NOMINAL;
   cok = ascr_drive_max_climb(&d, &vclimb, &climb_pt, &err) == ASCR_OK && climb_pt.converged;
   fok = ascr_drive_point_at(&d, 1.0, 0.0, &full, &err) == ASCR_OK && full.converged;
+  o->full_throttle_rpm = fok ? full.rotor.rpm : NAN;
   static ascr_drive_linearity lin[NMAP];
   int lok = 1;
   for (int k = 0; k < NMAP && lok; k++) lok = ascr_drive_linearity_at(&d, map_speed[k], &lin[k], &err) == ASCR_OK;

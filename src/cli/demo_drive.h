@@ -10,6 +10,7 @@
 typedef struct demo_drive_out {
   char *html;     /* the report's section (owned) */
   char *summary;  /* one line for standard output (owned) */
+  double full_throttle_rpm; /* static, full throttle, nominal pack (NaN: not converged) */
 } demo_drive_out;
 
 /* Compute the section for blade b with air rp and table options to, write powertrain.json,

@@ -17,7 +17,8 @@ fi
 fail=0
 for f in blade.json polars.csv rotor-map.csv hover.json report.html rotor-map.svg rotor-map.png \
          hover-spanwise.svg hover-spanwise.png polars-blade.svg polars-blade.png powertrain.json \
-         drive-map.csv drive.svg drive.png design-blade.json design.svg design.png; do
+         drive-map.csv drive.svg drive.png design-blade.json design.svg design.png \
+         material.json structure.svg structure.png prop.stl; do
   if [ ! -s "$tmp/demo/$f" ]; then echo "FAIL: $f missing or empty"; fail=1; fi
 done
 grep -q "outputs in" "$tmp/out" || { echo "FAIL: no output listing"; fail=1; }
@@ -25,6 +26,12 @@ grep -q "guarded thrust stand" "$tmp/demo/report.html" || { echo "FAIL: report l
 grep -q "<h2>Powertrain</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the powertrain section"; fail=1; }
 grep -q "powertrain: hover at" "$tmp/out" || { echo "FAIL: no powertrain summary"; fail=1; }
 grep -q "<h2>Designed blade</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the designed blade"; fail=1; }
+grep -q "<h2>Structure</h2>" "$tmp/demo/report.html" || { echo "FAIL: report lacks the structure section"; fail=1; }
+# the structure command on the demo's blade and material gives the report's mass (3 digits)
+m_rep=$(grep -o "[0-9.]*&nbsp;g a blade" "$tmp/demo/report.html" | head -1 | sed 's/&nbsp;.*//')
+m_cmd=$("$exe" structure "$tmp/demo/blade.json" "$tmp/demo/material.json" --rpm 13000 2>/dev/null |
+        sed -n 's/^mass *\([0-9.]*\) g.*/\1/p')
+[ -n "$m_rep" ] && [ "$m_rep" = "$m_cmd" ] || { echo "FAIL: structure mass $m_cmd differs from the report's $m_rep"; fail=1; }
 # the designed blade file is a blade file the rotor command reads
 "$exe" rotor "$tmp/demo/design-blade.json" --rpm 13600 > /dev/null 2>&1 ||
   { echo "FAIL: rotor cannot use design-blade.json"; fail=1; }
