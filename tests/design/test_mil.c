@@ -8,6 +8,7 @@
 #include "airscrew/ascr_design.h"
 #include "airscrew/ascr_rotor.h"
 #include "airscrew/ascr_table.h"
+#include "naca4412_table.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -27,18 +28,6 @@ static ascr_mil_spec five_inch(double speed, double thrust)
   s.thrust_N = thrust;
   s.n_stations = 41;
   return s;
-}
-
-static ascr_polar_table *naca4412_table(void)
-{
-  ascr_curve_data *curves = NULL;
-  size_t n = 0;
-  ascr_polar_table *t = NULL;
-  assert_int_equal(ascr_table_file_read(ASCR_TESTDATA_DIR "/naca4412-table.json", NULL, &curves, &n, NULL), ASCR_OK);
-  assert_int_equal(ascr_polar_table_from_curves(curves, n, NULL, &t, NULL), ASCR_OK);
-  for (size_t i = 0; i < n; i++) ascr_curve_data_clear(&curves[i]);
-  free(curves);
-  return t;
 }
 
 /* The design analysed by the BEMT reproduces the design thrust within 1 % and its efficiency
