@@ -194,6 +194,7 @@ int cmd_structure(int argc, char **argv)
     json_object_set_new(o, "safety_factor", json_real(sum.safety_factor));
     json_object_set_new(o, "fatigue_factor", cli_json_num(isfinite(sum.fatigue_factor), sum.fatigue_factor));
     json_object_set_new(o, "tip_deflection_m", json_real(sum.tip_deflection_m));
+    json_object_set_new(o, "tip_pitch_change_deg", json_real(sum.tip_pitch_change_deg));
     for (size_t i = 0; i < nst; i++) {
       const ascr_structure_station *q = &st[i];
       json_t *so = json_object();
@@ -207,6 +208,7 @@ int cmd_structure(int argc, char **argv)
       json_object_set_new(so, "centrifugal_N", json_real(q->centrifugal_force_N));
       json_object_set_new(so, "moment_flap_Nm", json_real(q->moment_flap_Nm));
       json_object_set_new(so, "moment_lag_Nm", json_real(q->moment_lag_Nm));
+      json_object_set_new(so, "moment_twist_Nm", json_real(q->moment_twist_Nm));
       json_object_set_new(so, "stress_Pa", json_real(q->stress_pa));
       json_array_append_new(sa, so);
     }
@@ -252,6 +254,8 @@ int cmd_structure(int argc, char **argv)
     if (isfinite(sum.fatigue_factor)) fprintf(fp, ", %.2f against the fatigue limit", sum.fatigue_factor);
     fprintf(fp, "\nflap tip deflection %.3f mm (static, without centrifugal stiffening)\n",
             1e3 * sum.tip_deflection_m);
+    fprintf(fp, "tip pitch change %+.3f deg under the centrifugal twisting moment (the air's pitching "
+            "moment not included)\n", sum.tip_pitch_change_deg);
     fprintf(fp, "\n%8s  %-26s %-26s %-26s\n", "rpm", "flap Hz", "lag Hz", "torsion Hz");
     for (size_t k = 0; k < nrpm; k++) {
       char b[3][64];

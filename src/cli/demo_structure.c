@@ -116,14 +116,16 @@ int demo_structure_section(const ascr_blade *b, const ascr_polar_table *const *t
           "material.json; <code>airscrew structure</code>): %.3f&nbsp;g a blade, centre of mass at "
           "r&nbsp;=&nbsp;%.1f&nbsp;mm. At hover (%.0f&nbsp;rpm) the largest stress is "
           "%.1f&nbsp;MPa at r&nbsp;=&nbsp;%.1f&nbsp;mm (safety factor %.2f against %.0f&nbsp;MPa), "
-          "tip deflection %.2f&nbsp;mm",
+          "tip deflection %.2f&nbsp;mm, and the centrifugal twisting moment turns the tip "
+          "%+.1f&deg; (towards flat pitch; the air's pitching moment not included)",
           1e3 * sumh.mass_kg, 1e3 * sumh.cg_r_m, hover_rpm, 1e-6 * sumh.max_stress_pa,
           1e3 * sumh.max_stress_r_m, sumh.safety_factor, 1e-6 * mat.tensile_strength_pa.value,
-          1e3 * sumh.tip_deflection_m);
+          1e3 * sumh.tip_deflection_m, sumh.tip_pitch_change_deg);
       if (fok) {
         w += (size_t)snprintf(o->html + w, cap - w, "; at full throttle (%.0f&nbsp;rpm) %.1f&nbsp;MPa "
-                              "(safety factor %.2f), tip deflection %.2f&nbsp;mm", full_rpm,
-                              1e-6 * sumf.max_stress_pa, sumf.safety_factor, 1e3 * sumf.tip_deflection_m);
+                              "(safety factor %.2f), tip deflection %.2f&nbsp;mm, tip pitch %+.1f&deg;",
+                              full_rpm, 1e-6 * sumf.max_stress_pa, sumf.safety_factor,
+                              1e3 * sumf.tip_deflection_m, sumf.tip_pitch_change_deg);
       }
       w += (size_t)snprintf(o->html + w, cap - w,
           ". The stress sits at the root station, where the example blade is a thin plate; a real "

@@ -27,6 +27,13 @@ static ascr_status props_at(const ascr_geom_section *const *sec, size_t s0, size
   return ASCR_OK;
 }
 
+/* centrifugal twisting moment per length at a station (positive nose-up) */
+static double twist_load(const ascr_structure_station *o, double rho, double om)
+{
+  double th = o->twist_deg * DEG;
+  return -rho * om * om * (o->props.i_yy - o->props.i_xx) * sin(th) * cos(th);
+}
+
 /* the largest |bending stress| over the contour of section s at chord c for the moment (mx, my)
  * about the section's centroidal axes (flexure formula for unsymmetric sections) */
 static double bending_max(const ascr_geom_section *s, double c, const ascr_section_props *p,
@@ -142,5 +149,23 @@ ascr_status ascr_blade_structure(const ascr_blade *b, const ascr_geom_section *c
     kprev = k;
   }
   sum->tip_deflection_m = defl;
+  /* the centrifugal twisting moment (the "propeller moment": the centrifugal forces on a section
+   * turned by theta pull it towards the plane of rotation; per length
+   * -rho Omega^2 (I_yy - I_xx) sin theta cos theta, Bielawa 1992 ch. 5, from memory), carried
+   * inwards from the tip, and the elastic twist theta_e' = M / GJ from the clamped root */
+  double tprev = 0.0;
+  st[n - 1].moment_twist_Nm = 0.0;
+  for (size_t i = n - 1; i-- > 0;) {
+    double qa = twist_load(&st[i], rho, om), qb = twist_load(&st[i + 1], rho, om);
+    st[i].moment_twist_Nm = st[i + 1].moment_twist_Nm + 0.5 * h * (qa + qb);
+  }
+  double tw = 0.0;
+  tprev = st[0].moment_twist_Nm / st[0].gj_nm2;
+  for (size_t i = 1; i < n; i++) {
+    double k = st[i].moment_twist_Nm / st[i].gj_nm2;
+    tw += 0.5 * h * (tprev + k);
+    tprev = k;
+  }
+  sum->tip_pitch_change_deg = tw / DEG;
   return ASCR_OK;
 }

@@ -145,12 +145,43 @@ static void test_twist_turns_the_section(void **state)
   ascr_geom_section_free(g);
 }
 
+/* Uniform blade twisted by 30 deg: the centrifugal twisting moment per length
+ * t = -rho Omega^2 (I_yy - I_xx) sin 30 cos 30 is constant, the moment carried at r is t (R - r)
+ * (exact by the trapezoidal rule) and the tip's elastic twist t L^2 / (2 GJ) (the trapezoidal
+ * integral of a linear function: exact), towards flat pitch. */
+static void test_centrifugal_twisting_moment(void **state)
+{
+  (void)state;
+  static ascr_structure_station st[NST];
+  ascr_blade b;
+  ascr_blade_station bs[2];
+  uniform(&b, bs, 30.0);
+  ascr_geom_section *g = NULL;
+  ascr_errbuf err;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
+  const ascr_geom_section *secs[1] = {g};
+  ascr_material m = material();
+  ascr_structure_summary s;
+  double rpm = 20000.0, om = rpm * PI / 30.0;
+  assert_int_equal(ascr_blade_structure(&b, secs, &m, rpm, NULL, 0, NST, st, &s, &err), ASCR_OK);
+  const ascr_section_props *p = &st[0].props;
+  double t = -1200.0 * om * om * (p->i_yy - p->i_xx) * sin(PI / 6.0) * cos(PI / 6.0);
+  for (size_t i = 0; i < NST; i += 100) {
+    ascr_assert_close(st[i].moment_twist_Nm, t * (0.1 - st[i].r_m), 1e-12, 1e-15, "twisting moment");
+  }
+  double th = t * 0.09 * 0.09 / (2.0 * st[0].gj_nm2) * 180.0 / PI;
+  ascr_assert_close(s.tip_pitch_change_deg, th, 1e-9, 0.0, "tip pitch change");
+  assert_true(s.tip_pitch_change_deg < 0.0);
+  ascr_geom_section_free(g);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_uniform_rotating_bar),
       cmocka_unit_test(test_loaded_cantilever),
       cmocka_unit_test(test_twist_turns_the_section),
+      cmocka_unit_test(test_centrifugal_twisting_moment),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
