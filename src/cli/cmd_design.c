@@ -240,15 +240,20 @@ int cmd_design(int argc, char **argv)
              opt.simplex_size);
   }
   const ascr_rotor_result *a = spec->optimize ? &opt_analysis : &res.analysis;
+  if (!a->converged) {
+    /* the optimised blade (its own points were trimmed and converged) at the spec's design rpm */
+    cli_warn("design: the optimised blade's BEMT analysis did not converge at the design point "
+             "(%g rpm, %g m/s): its numbers there are left out", m->rpm, m->speed_m_s);
+  }
   FILE *fp = out.fp;
   if (json) {
     json_t *o = json_object(), *dp = json_object(), *mil = json_object(), *sa = json_array();
     json_object_set_new(dp, "rpm", json_real(m->rpm));
     json_object_set_new(dp, "speed_m_s", json_real(m->speed_m_s));
-    json_object_set_new(dp, "thrust_N", json_real(a->thrust_N));
-    json_object_set_new(dp, "power_W", json_real(a->power_W));
-    json_object_set_new(dp, "efficiency", cli_json_num(1, a->efficiency));
-    json_object_set_new(dp, "figure_of_merit", cli_json_num(1, a->figure_of_merit));
+    json_object_set_new(dp, "thrust_N", cli_json_num(a->converged, a->thrust_N));
+    json_object_set_new(dp, "power_W", cli_json_num(a->converged, a->power_W));
+    json_object_set_new(dp, "efficiency", cli_json_num(a->converged, a->efficiency));
+    json_object_set_new(dp, "figure_of_merit", cli_json_num(a->converged, a->figure_of_merit));
     json_object_set_new(dp, "confidence", json_string(a->low_confidence ? "low" : "normal"));
     json_object_set_new(o, "design_point", dp);
     json_object_set_new(o, "blade_file", json_string(outpath));
@@ -300,9 +305,15 @@ int cmd_design(int argc, char **argv)
               res.analysis.power_W);
       design_opt_text(fp, spec, &opt);
     }
-    fprintf(fp, "BEMT analysis:    %.4f N, %.3f W, ", a->thrust_N, a->power_W);
-    if (isfinite(a->efficiency)) fprintf(fp, "efficiency %.4f", a->efficiency);
-    else fprintf(fp, "figure of merit %.4f", a->figure_of_merit);
+    if (!a->converged) fprintf(fp, "BEMT analysis:    not converged at the design point");
+    else fprintf(fp, "BEMT analysis:    %.4f N, %.3f W, ", a->thrust_N, a->power_W);
+    if (!a->converged) {
+      /* nothing more to say of it */
+    } else if (isfinite(a->efficiency)) {
+      fprintf(fp, "efficiency %.4f", a->efficiency);
+    } else {
+      fprintf(fp, "figure of merit %.4f", a->figure_of_merit);
+    }
     fprintf(fp, "%s%s\nblade file:       %s\n\n", a->low_confidence ? " (low confidence)" : "",
             spec->optimize ? " (the optimised blade at the design point)" : "", outpath);
     fputs("caution: a new blade is an estimate until tested: use a guarded thrust stand; a spinning "
