@@ -40,6 +40,23 @@ static void uniform(ascr_blade *b, ascr_blade_station st[2], double tw)
   st[1] = (ascr_blade_station){0.1, 0.01, tw, 0};
 }
 
+/* the uniform blade twisted by tw, NACA 0012, of material(), at rpm under the loads el (n_el; NULL:
+ * none) on n stations */
+static void analyse(double tw, double rpm, const ascr_rotor_element *el, size_t n_el, size_t n,
+                    ascr_structure_station *st, ascr_structure_summary *s)
+{
+  ascr_blade b;
+  ascr_blade_station bs[2];
+  uniform(&b, bs, tw);
+  ascr_geom_section *g = NULL;
+  ascr_errbuf err;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
+  const ascr_geom_section *secs[1] = {g};
+  ascr_material m = material();
+  assert_int_equal(ascr_blade_structure(&b, secs, &m, rpm, el, n_el, n, st, s, &err), ASCR_OK);
+  ascr_geom_section_free(g);
+}
+
 /* Uniform rotating bar: the centrifugal stress at r is rho Omega^2 (R^2 - r^2) / 2 (integrate
  * rho A Omega^2 r' from r to R; e.g. Den Hartog, Strength of Materials, 1949, rotating bars): the
  * trapezoidal rule is exact on the linear integrand (1e-12). Mass rho A L, centre of mass at
@@ -48,17 +65,9 @@ static void test_uniform_rotating_bar(void **state)
 {
   (void)state;
   static ascr_structure_station st[NST];
-  ascr_blade b;
-  ascr_blade_station bs[2];
-  uniform(&b, bs, 0.0);
-  ascr_geom_section *g = NULL;
-  ascr_errbuf err;
-  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
-  const ascr_geom_section *secs[1] = {g};
-  ascr_material m = material();
   ascr_structure_summary s;
   double rpm = 20000.0, om = rpm * PI / 30.0;
-  assert_int_equal(ascr_blade_structure(&b, secs, &m, rpm, NULL, 0, NST, st, &s, &err), ASCR_OK);
+  analyse(0.0, rpm, NULL, 0, NST, st, &s);
   double A = st[0].props.area;
   for (size_t i = 0; i < NST; i += 50) {
     double r = st[i].r_m;
@@ -71,7 +80,6 @@ static void test_uniform_rotating_bar(void **state)
   ascr_assert_close(s.safety_factor, 62e6 / s.max_stress_pa, 1e-15, 0.0, "safety factor");
   assert_true(isnan(s.fatigue_factor));
   ascr_assert_close(s.tip_deflection_m, 0.0, 0.0, 0.0, "no air load, no deflection");
-  ascr_geom_section_free(g);
 }
 
 /* Uniformly loaded cantilever (q per length, one blade; Euler-Bernoulli, e.g. Gere & Timoshenko,
@@ -83,14 +91,6 @@ static void test_loaded_cantilever(void **state)
 {
   (void)state;
   static ascr_structure_station st[NST];
-  ascr_blade b;
-  ascr_blade_station bs[2];
-  uniform(&b, bs, 0.0);
-  ascr_geom_section *g = NULL;
-  ascr_errbuf err;
-  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
-  const ascr_geom_section *secs[1] = {g};
-  ascr_material m = material();
   enum { NE = 30 };
   ascr_rotor_element el[NE];
   memset(el, 0, sizeof el);
@@ -102,7 +102,7 @@ static void test_loaded_cantilever(void **state)
     el[i].converged = 1;
   }
   ascr_structure_summary s;
-  assert_int_equal(ascr_blade_structure(&b, secs, &m, 0.0, el, NE, NST, st, &s, &err), ASCR_OK);
+  analyse(0.0, 0.0, el, NE, NST, st, &s);
   for (size_t i = 0; i < NST; i += 40) {
     double r = st[i].r_m;
     ascr_assert_close(st[i].moment_flap_Nm, q * (0.1 - r) * (0.1 - r) / 2.0, 1e-12, 1e-15,
@@ -114,7 +114,6 @@ static void test_loaded_cantilever(void **state)
   double m0 = q * 0.09 * 0.09 / 2.0;
   ascr_assert_close(st[0].stress_pa, m0 * 0.06 * 0.01 / st[0].props.i_xx, 2e-3, 0.0,
                     "root bending stress");
-  ascr_geom_section_free(g);
 }
 
 /* The twist turns the section's tensor: at 90 deg the flap stiffness is E I_yy and the lag
@@ -123,18 +122,10 @@ static void test_twist_turns_the_section(void **state)
 {
   (void)state;
   static ascr_structure_station st[NST];
-  ascr_blade b;
-  ascr_blade_station bs[2];
-  ascr_geom_section *g = NULL;
-  ascr_errbuf err;
-  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
-  const ascr_geom_section *secs[1] = {g};
-  ascr_material m = material();
   ascr_structure_summary s;
   const double tws[2] = {90.0, 30.0};
   for (int k = 0; k < 2; k++) {
-    uniform(&b, bs, tws[k]);
-    assert_int_equal(ascr_blade_structure(&b, secs, &m, 0.0, NULL, 0, 11, st, &s, &err), ASCR_OK);
+    analyse(tws[k], 0.0, NULL, 0, 11, st, &s);
     double c = cos(tws[k] * PI / 180.0), sn = sin(tws[k] * PI / 180.0);
     const ascr_section_props *p = &st[3].props;
     ascr_assert_close(st[3].ei_flap_nm2, 2.35e9 * (c * c * p->i_xx + sn * sn * p->i_yy), 1e-9, 0.0,
@@ -142,7 +133,6 @@ static void test_twist_turns_the_section(void **state)
     ascr_assert_close(st[3].ei_lag_nm2, 2.35e9 * (sn * sn * p->i_xx + c * c * p->i_yy), 1e-9, 0.0,
                       "lag stiffness turned");
   }
-  ascr_geom_section_free(g);
 }
 
 /* Uniform blade twisted by 30 deg: the centrifugal twisting moment per length
@@ -153,17 +143,9 @@ static void test_centrifugal_twisting_moment(void **state)
 {
   (void)state;
   static ascr_structure_station st[NST];
-  ascr_blade b;
-  ascr_blade_station bs[2];
-  uniform(&b, bs, 30.0);
-  ascr_geom_section *g = NULL;
-  ascr_errbuf err;
-  assert_int_equal(ascr_geom_section_from_spec("naca0012", &g, &err), ASCR_OK);
-  const ascr_geom_section *secs[1] = {g};
-  ascr_material m = material();
   ascr_structure_summary s;
   double rpm = 20000.0, om = rpm * PI / 30.0;
-  assert_int_equal(ascr_blade_structure(&b, secs, &m, rpm, NULL, 0, NST, st, &s, &err), ASCR_OK);
+  analyse(30.0, rpm, NULL, 0, NST, st, &s);
   const ascr_section_props *p = &st[0].props;
   double t = -1200.0 * om * om * (p->i_yy - p->i_xx) * sin(PI / 6.0) * cos(PI / 6.0);
   for (size_t i = 0; i < NST; i += 100) {
@@ -172,7 +154,6 @@ static void test_centrifugal_twisting_moment(void **state)
   double th = t * 0.09 * 0.09 / (2.0 * st[0].gj_nm2) * 180.0 / PI;
   ascr_assert_close(s.tip_pitch_change_deg, th, 1e-9, 0.0, "tip pitch change");
   assert_true(s.tip_pitch_change_deg < 0.0);
-  ascr_geom_section_free(g);
 }
 
 int main(void)
