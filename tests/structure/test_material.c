@@ -7,6 +7,7 @@
 
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 static void test_examples_read(void **state)
@@ -27,6 +28,61 @@ static void test_examples_read(void **state)
                       m.elastic_modulus_pa.value / (2.0 * (1.0 + m.poisson_ratio.value)), 1e-15, 0.0,
                       "G from E and nu");
   }
+}
+
+/* Every example value whose source names a class of reference/printed_blade_materials_typical.csv
+ * (typical values by material class from datasheets and compilations; the file's header gives the
+ * provenance of each row) is that row's value: the modulus in GPa, the tensile strength in MPa and
+ * the density in kg/m^3 (of a range, the lower end). Exact: a transcription. */
+static double reference_value(const char *cls, int column)
+{
+  char path[512], line[512];
+  snprintf(path, sizeof path, "%s/printed_blade_materials_typical.csv", ASCR_REFERENCE_DIR);
+  FILE *fp = fopen(path, "r");
+  assert_non_null(fp);
+  double v = NAN;
+  while (fgets(line, sizeof line, fp)) {
+    if (line[0] == '#') continue;
+    char *field[8] = {0};
+    int n = 0;
+    for (char *p = line, *tok; n < 8 && (tok = strsep(&p, ",")) != NULL;) field[n++] = tok;
+    if (n > column && strcmp(field[0], cls) == 0) v = strtod(field[column], NULL);
+  }
+  fclose(fp);
+  return v;
+}
+
+static int check_cited(const ascr_material_value *mv, int column, double scale)
+{
+  const char *q = strstr(mv->source, "class '");
+  if (q == NULL || strstr(mv->source, "printed_blade_materials_typical.csv") == NULL) return 0;
+  char cls[128];
+  const char *e = strchr(q + 7, '\'');
+  assert_non_null(e);
+  snprintf(cls, sizeof cls, "%.*s", (int)(e - q - 7), q + 7);
+  double v = reference_value(cls, column);
+  if (isnan(v)) fail_msg("class '%s' has no value in column %d of the reference", cls, column);
+  ascr_assert_close(mv->value, v * scale, 1e-12, 0.0, cls);
+  return 1;
+}
+
+static void test_examples_cite_the_reference(void **state)
+{
+  (void)state;
+  const char *files[4] = {"sla-resin-general.json", "sla-resin-tough.json", "polycarbonate.json",
+                          "nylon-glass-filled.json"};
+  int cited = 0;
+  for (int i = 0; i < 4; i++) {
+    char path[512];
+    snprintf(path, sizeof path, "%s/docs/examples/materials/%s", ASCR_SOURCE_DIR, files[i]);
+    ascr_material m;
+    ascr_errbuf err;
+    assert_int_equal(ascr_material_read(path, &m, &err), ASCR_OK);
+    cited += check_cited(&m.elastic_modulus_pa, 2, 1e9);
+    cited += check_cited(&m.tensile_strength_pa, 3, 1e6);
+    cited += check_cited(&m.density_kg_m3, 5, 1.0);
+  }
+  assert_int_equal(cited, 9); /* the values the examples take from the reference */
 }
 
 static void test_refusals(void **state)
@@ -64,6 +120,7 @@ int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_examples_read),
+      cmocka_unit_test(test_examples_cite_the_reference),
       cmocka_unit_test(test_refusals),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
