@@ -114,6 +114,9 @@ typedef struct ascr_rotor_element {
   double alpha_deg;        /* angle of attack */
   double re, mach;         /* local chord Reynolds and Mach numbers */
   double cl, cd;
+  double cm;               /* section pitching moment about the quarter chord (nose-up +) */
+  double dM_dr_Nm_m;       /* the air's pitching moment per unit radius on one blade about the
+                              quarter chord, 1/2 rho W^2 c^2 cm (nose-up +) */
   double v_axial_m_s;      /* induced axial velocity at the blade (W sin phi - V) */
   double v_swirl_m_s;      /* induced swirl velocity at the blade (Omega r - W cos phi) */
   double loss;             /* Prandtl tip x hub factor (1 in the vortex model) */

@@ -91,9 +91,11 @@ typedef struct ascr_structure_station {
   double gj_nm2;                   /* G J */
   double centrifugal_force_N;      /* carried at r: int_r^R rho A Omega^2 r' dr' */
   double moment_flap_Nm, moment_lag_Nm; /* from the air loads outboard (one blade) */
-  double moment_twist_Nm;          /* the centrifugal twisting moment carried at r (positive
-                                      nose-up), int_r^R -rho Omega^2 (I_yy - I_xx) sin th cos th dr'
-                                      (the air's pitching moment not included) */
+  double moment_twist_Nm;          /* the twisting moment carried at r (positive nose-up): the
+                                      centrifugal int_r^R -rho Omega^2 (I_yy - I_xx) sin th cos th
+                                      dr' plus the air's (moment_twist_air_Nm) */
+  double moment_twist_air_Nm;      /* the air's share: int_r^R dM/dr dr' of the elements'
+                                      pitching moments about the quarter chord (the twist axis) */
   double stress_pa;                /* centrifugal tension plus the largest bending stress over the
                                       section's contour (its sign not distinguished) */
 } ascr_structure_station;
@@ -107,8 +109,9 @@ typedef struct ascr_structure_summary {
   double fatigue_factor;           /* fatigue limit / max_stress (NaN: no fatigue limit given) */
   double tip_deflection_m;         /* flap, clamped at the root station, static and without
                                       centrifugal stiffening (an upper bound) */
-  double tip_pitch_change_deg;     /* the elastic twist at the tip under the centrifugal twisting
-                                      moment, int M_twist / GJ dr (negative: towards flat pitch) */
+  double tip_pitch_change_deg;     /* the elastic twist at the tip under the twisting moment,
+                                      int M_twist / GJ dr (negative: towards flat pitch) */
+  double tip_pitch_change_air_deg; /* the part of it due to the air's pitching moment */
 } ascr_structure_summary;
 
 /** The blade b (sections[i]: the contour of section i) of material m at rpm under the air
@@ -119,7 +122,8 @@ typedef struct ascr_structure_summary {
  *  over each element; stresses by the flexure formula for unsymmetric sections (Gere &
  *  Timoshenko, Mechanics of Materials, ch. 6); the tip deflection by integrating M / EI twice
  *  from the clamped root (Euler-Bernoulli); the tip's pitch change by integrating the
- *  centrifugal twisting moment over GJ. @return ASCR_OK, ASCR_EINVAL, ASCR_EGEOM. */
+ *  centrifugal twisting moment and the air's pitching moment (the elements' dM_dr_Nm_m about
+ *  the quarter chord, taken as the twist axis) over GJ. @return ASCR_OK, ASCR_EINVAL, ASCR_EGEOM. */
 ASCR_EXPORT ascr_status ascr_blade_structure(const ascr_blade *b,
                                              const ascr_geom_section *const *sections,
                                              const ascr_material *m, double rpm,

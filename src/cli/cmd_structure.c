@@ -195,6 +195,7 @@ int cmd_structure(int argc, char **argv)
     json_object_set_new(o, "fatigue_factor", cli_json_num(isfinite(sum.fatigue_factor), sum.fatigue_factor));
     json_object_set_new(o, "tip_deflection_m", json_real(sum.tip_deflection_m));
     json_object_set_new(o, "tip_pitch_change_deg", json_real(sum.tip_pitch_change_deg));
+    json_object_set_new(o, "tip_pitch_change_air_deg", json_real(sum.tip_pitch_change_air_deg));
     for (size_t i = 0; i < nst; i++) {
       const ascr_structure_station *q = &st[i];
       json_t *so = json_object();
@@ -254,8 +255,9 @@ int cmd_structure(int argc, char **argv)
     if (isfinite(sum.fatigue_factor)) fprintf(fp, ", %.2f against the fatigue limit", sum.fatigue_factor);
     fprintf(fp, "\nflap tip deflection %.3f mm (static, without centrifugal stiffening)\n",
             1e3 * sum.tip_deflection_m);
-    fprintf(fp, "tip pitch change %+.3f deg under the centrifugal twisting moment (the air's pitching "
-            "moment not included)\n", sum.tip_pitch_change_deg);
+    fprintf(fp, "tip pitch change %+.3f deg under the twisting moment (%+.3f deg of it from the "
+            "air's pitching moment, the rest centrifugal)\n", sum.tip_pitch_change_deg,
+            sum.tip_pitch_change_air_deg);
     fprintf(fp, "\n%8s  %-26s %-26s %-26s\n", "rpm", "flap Hz", "lag Hz", "torsion Hz");
     for (size_t k = 0; k < nrpm; k++) {
       char b[3][64];

@@ -116,11 +116,11 @@ int demo_structure_section(const ascr_blade *b, const ascr_polar_table *const *t
           "material.json; <code>airscrew structure</code>): %.3f&nbsp;g a blade, centre of mass at "
           "r&nbsp;=&nbsp;%.1f&nbsp;mm. At hover (%.0f&nbsp;rpm) the largest stress is "
           "%.1f&nbsp;MPa at r&nbsp;=&nbsp;%.1f&nbsp;mm (safety factor %.2f against %.0f&nbsp;MPa), "
-          "tip deflection %.2f&nbsp;mm, and the centrifugal twisting moment turns the tip "
-          "%+.1f&deg; (towards flat pitch; the air's pitching moment not included)",
+          "tip deflection %.2f&nbsp;mm, and the twisting moments turn the tip "
+          "%+.1f&deg; (%+.1f&deg; of it the air's pitching moment, the rest centrifugal)",
           1e3 * sumh.mass_kg, 1e3 * sumh.cg_r_m, hover_rpm, 1e-6 * sumh.max_stress_pa,
           1e3 * sumh.max_stress_r_m, sumh.safety_factor, 1e-6 * mat.tensile_strength_pa.value,
-          1e3 * sumh.tip_deflection_m, sumh.tip_pitch_change_deg);
+          1e3 * sumh.tip_deflection_m, sumh.tip_pitch_change_deg, sumh.tip_pitch_change_air_deg);
       if (fok) {
         w += (size_t)snprintf(o->html + w, cap - w, "; at full throttle (%.0f&nbsp;rpm) %.1f&nbsp;MPa "
                               "(safety factor %.2f), tip deflection %.2f&nbsp;mm, tip pitch %+.1f&deg;",

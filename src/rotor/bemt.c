@@ -289,6 +289,8 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
       o->mach = ok ? wrel / p.sound_speed_m_s : NAN;
       o->cl = ok ? e.smp.cl : NAN;
       o->cd = ok ? e.smp.cd : NAN;
+      o->cm = ok ? rotor_sample_cm(tables, e.s0, e.s1, e.w, e.theta - phi, o->re, o->mach) : NAN;
+      o->dM_dr_Nm_m = ok ? 0.5 * p.density_kg_m3 * wrel * wrel * e.chord * e.chord * o->cm : NAN;
       o->v_axial_m_s = ok ? wrel * sp - e.vx : NAN;
       o->v_swirl_m_s = ok ? e.vy - wrel * cp : NAN;
       o->loss = ok ? e.loss : NAN;

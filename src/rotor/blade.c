@@ -114,6 +114,19 @@ double rotor_edge(double r0, double r1, size_t i, size_t n)
   return r0 + (r1 - r0) * sin(0.5 * 3.14159265358979323846 * (double)i / (double)n);
 }
 
+double rotor_sample_cm(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
+                       double alpha, double re, double mach)
+{
+  ascr_table_sample q;
+  polar_table_lookup(tables[s0], alpha, re, mach, 1, &q);
+  double cm = q.cm;
+  if (s1 != s0 && w > 0.0) {
+    polar_table_lookup(tables[s1], alpha, re, mach, 1, &q);
+    cm = (1.0 - w) * cm + w * q.cm;
+  }
+  return cm;
+}
+
 void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
                   double alpha, double re, double mach, ascr_table_sample *out)
 {

@@ -17,6 +17,10 @@ void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_
  * of either (blade.c). */
 void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
                   double alpha, double re, double mach, ascr_table_sample *out);
+/* The blended pitching-moment coefficient there (the look-ups above skip cm for speed; this
+ * one is for the reported elements) (blade.c). */
+double rotor_sample_cm(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
+                       double alpha, double re, double mach);
 
 /* Prandtl's tip-and-hub loss factor of blade b at radius r for inflow angle sin_phi (the
  * parameters' switches applied; floored at 1e-8): F = 2/pi acos(exp(-f)),

@@ -614,6 +614,9 @@ ascr_status rotor_vortex_from(const ascr_blade *b, const ascr_polar_table *const
       o->mach = conv ? w / p.sound_speed_m_s : NAN;
       o->cl = conv ? 2.0 * s.gam[i] / (w * s.chord[i]) : NAN;
       o->cd = conv ? q.cd : NAN;
+      o->cm = conv ? rotor_sample_cm(s.tables, s.s0[i], s.s1[i], s.w[i], s.theta[i] - ph, o->re, o->mach)
+                   : NAN;
+      o->dM_dr_Nm_m = conv ? 0.5 * rho * w * w * s.chord[i] * s.chord[i] * o->cm : NAN;
       o->v_axial_m_s = conv ? s.ua[i] : NAN;
       o->v_swirl_m_s = conv ? s.ut[i] : NAN;
       o->loss = 1.0;

@@ -67,6 +67,19 @@ static double moment_of(const ascr_rotor_element *el, size_t n_el, int flap, dou
   return m;
 }
 
+/* int_r^R of the elements' pitching moment per length (one blade; constant over each element) */
+static double air_twist_moment(const ascr_rotor_element *el, size_t n_el, double r)
+{
+  double m = 0.0;
+  for (size_t i = 0; i < n_el; i++) {
+    if (!el[i].converged || !isfinite(el[i].dM_dr_Nm_m)) continue;
+    double a = el[i].r_m - 0.5 * el[i].dr_m, b = el[i].r_m + 0.5 * el[i].dr_m;
+    if (b <= r) continue;
+    m += el[i].dM_dr_Nm_m * (b - fmax(a, r));
+  }
+  return m;
+}
+
 ascr_status ascr_blade_structure(const ascr_blade *b, const ascr_geom_section *const *sec,
                                  const ascr_material *mat, double rpm,
                                  const ascr_rotor_element *el, size_t n_el, size_t n,
@@ -152,20 +165,31 @@ ascr_status ascr_blade_structure(const ascr_blade *b, const ascr_geom_section *c
   /* the centrifugal twisting moment (the "propeller moment": the centrifugal forces on a section
    * turned by theta pull it towards the plane of rotation; per length
    * -rho Omega^2 (I_yy - I_xx) sin theta cos theta, Bielawa 1992 ch. 5, from memory), carried
-   * inwards from the tip, and the elastic twist theta_e' = M / GJ from the clamped root */
+   * inwards from the tip, with the air's pitching moment below; the elastic twist theta_e' =
+   * M / GJ from the clamped root */
   double tprev = 0.0;
   st[n - 1].moment_twist_Nm = 0.0;
   for (size_t i = n - 1; i-- > 0;) {
     double qa = twist_load(&st[i], rho, om), qb = twist_load(&st[i + 1], rho, om);
     st[i].moment_twist_Nm = st[i + 1].moment_twist_Nm + 0.5 * h * (qa + qb);
   }
-  double tw = 0.0;
+  /* the air's pitching moment about the quarter chord, taken as the twist axis (the lift acts
+   * there: no arm), carried inwards from the tip; its share of the twist integrated apart */
+  double tw = 0.0, tw_air = 0.0, aprev = 0.0;
+  for (size_t i = 0; i < n; i++) {
+    st[i].moment_twist_air_Nm = el != NULL ? air_twist_moment(el, n_el, st[i].r_m) : 0.0;
+    st[i].moment_twist_Nm += st[i].moment_twist_air_Nm;
+  }
   tprev = st[0].moment_twist_Nm / st[0].gj_nm2;
+  aprev = st[0].moment_twist_air_Nm / st[0].gj_nm2;
   for (size_t i = 1; i < n; i++) {
-    double k = st[i].moment_twist_Nm / st[i].gj_nm2;
+    double k = st[i].moment_twist_Nm / st[i].gj_nm2, ka = st[i].moment_twist_air_Nm / st[i].gj_nm2;
     tw += 0.5 * h * (tprev + k);
+    tw_air += 0.5 * h * (aprev + ka);
     tprev = k;
+    aprev = ka;
   }
   sum->tip_pitch_change_deg = tw / DEG;
+  sum->tip_pitch_change_air_deg = tw_air / DEG;
   return ASCR_OK;
 }

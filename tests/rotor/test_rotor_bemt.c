@@ -233,6 +233,33 @@ static void test_scale_invariance(void **state)
   ascr_polar_table_free(tab);
 }
 
+/* Each element's pitching moment per length is 1/2 rho W^2 c^2 cm (the definition of cm about
+ * the quarter chord), W from its own velocities, (V + v_axial)^2 + (Omega r - v_swirl)^2; the
+ * table's cm is -0.05 at every Re (1e-9: the velocities are rounded through phi). */
+static void test_element_pitching_moment(void **state)
+{
+  (void)state;
+  ascr_polar_table *tab = re_dependent_table();
+  const ascr_polar_table *tabs[1] = {tab};
+  test_blade a;
+  small_prop(&a, 1.0);
+  ascr_rotor_params p = ascr_rotor_params_defaults();
+  enum { NE = 40 };
+  p.n_elements = NE;
+  ascr_rotor_element el[NE];
+  ascr_rotor_result r;
+  double rpm = 12000.0, v = 8.0, om = rpm * PI / 30.0;
+  assert_int_equal(ascr_rotor_bemt(&a.b, tabs, &p, rpm, v, &r, el, NULL), ASCR_OK);
+  assert_true(r.converged);
+  for (int i = 0; i < NE; i++) {
+    double va = v + el[i].v_axial_m_s, vt = om * el[i].r_m - el[i].v_swirl_m_s;
+    double m = 0.5 * p.density_kg_m3 * (va * va + vt * vt) * el[i].chord_m * el[i].chord_m * -0.05;
+    ascr_assert_close(el[i].cm, -0.05, 1e-12, 0.0, "element cm");
+    ascr_assert_close(el[i].dM_dr_Nm_m, m, 1e-9, 0.0, "element pitching moment");
+  }
+  ascr_polar_table_free(tab);
+}
+
 /* Thrust grows as rpm^2 when the section coefficients do not depend on Re or Mach (the
  * linear model) in hover (blade-element scaling, common practice). */
 static void test_thrust_rpm_squared(void **state)
@@ -428,6 +455,7 @@ int main(void)
       cmocka_unit_test(test_thrust_rpm_squared), cmocka_unit_test(test_windmill),
       cmocka_unit_test(test_bad_input),          cmocka_unit_test(test_isa),
       cmocka_unit_test(test_confidence),        cmocka_unit_test(test_band),
+      cmocka_unit_test(test_element_pitching_moment),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }

@@ -156,6 +156,36 @@ static void test_centrifugal_twisting_moment(void **state)
   assert_true(s.tip_pitch_change_deg < 0.0);
 }
 
+/* Uniform untwisted blade under a uniform air pitching moment m0 per length (elements covering
+ * the span, one blade): the moment carried at r is m0 (R - r) (a sum of exact element pieces)
+ * and the tip twists by m0 L^2 / (2 GJ) (trapezoidal rule on a linear function: exact), all of
+ * it the air's; nose-down moment, towards flat pitch. Spinning, but without twist the
+ * centrifugal twisting moment is zero. */
+static void test_air_pitching_moment(void **state)
+{
+  (void)state;
+  enum { NE = 30 };
+  ascr_rotor_element el[NE];
+  memset(el, 0, sizeof el);
+  double m0 = -2e-4; /* N m per m */
+  for (int i = 0; i < NE; i++) {
+    el[i].dr_m = 0.09 / NE;
+    el[i].r_m = 0.01 + (i + 0.5) * el[i].dr_m;
+    el[i].dM_dr_Nm_m = m0;
+    el[i].converged = 1;
+  }
+  static ascr_structure_station st[NST];
+  ascr_structure_summary s;
+  analyse(0.0, 20000.0, el, NE, NST, st, &s);
+  for (size_t i = 0; i < NST; i += 100) {
+    ascr_assert_close(st[i].moment_twist_Nm, m0 * (0.1 - st[i].r_m), 1e-12, 1e-15, "air moment");
+    ascr_assert_close(st[i].moment_twist_air_Nm, st[i].moment_twist_Nm, 1e-15, 0.0, "all of it air");
+  }
+  double th = m0 * 0.09 * 0.09 / (2.0 * st[0].gj_nm2) * 180.0 / PI;
+  ascr_assert_close(s.tip_pitch_change_deg, th, 1e-9, 0.0, "tip pitch change");
+  ascr_assert_close(s.tip_pitch_change_air_deg, th, 1e-9, 0.0, "air's share");
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -163,6 +193,7 @@ int main(void)
       cmocka_unit_test(test_loaded_cantilever),
       cmocka_unit_test(test_twist_turns_the_section),
       cmocka_unit_test(test_centrifugal_twisting_moment),
+      cmocka_unit_test(test_air_pitching_moment),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
