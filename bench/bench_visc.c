@@ -3,7 +3,11 @@
  * (-2 to 10 deg by 0.5 deg, continuation), reporting the median wall time per converged point,
  * the mean and median Newton iterations per point, and the time of one dense LU (LAPACKE dgesv) of the
  * coupled system's order measured in the same run, so that the cost per point can be read in
- * LU-equivalents. A cold start (one point from a fresh march) is timed too.
+ * LU-equivalents. A cold start (one point from a fresh march) is timed too. The sweep is
+ * repeated three times and each point's time is its median over the repeats; the LU is timed
+ * before and after (median of 14), so that a drift of the machine's speed does not enter the
+ * ratio. Both the median point and the mean over the sweep (total time / points: what a polar
+ * costs) are given in LU-equivalents, with the slowest point's iterations.
  * Issue goal: <= 3 LU-equivalents per swept point, <= 10 for a cold start (issue 11).
  * Figures only.
  */
@@ -20,11 +24,10 @@
 
 void openblas_set_num_threads(int num_threads);
 
-static double lu_time(int n)
+static void lu_times(int n, double *t)
 {
   double *a = malloc((size_t)n * (size_t)n * sizeof *a), *b = malloc((size_t)n * sizeof *b);
   lapack_int *ip = malloc((size_t)n * sizeof *ip);
-  double t[7];
   for (int rep = 0; rep < 7; rep++) {
     srand(12345);
     for (int i = 0; i < n * n; i++) a[i] = (double)rand() / RAND_MAX + (i % (n + 1) == 0 ? n : 0);
@@ -33,11 +36,9 @@ static double lu_time(int n)
     LAPACKE_dgesv(LAPACK_COL_MAJOR, n, 1, a, n, ip, b, n);
     t[rep] = bench_now() - t0;
   }
-  qsort(t, 7, sizeof *t, bench_cmp);
   free(a);
   free(b);
   free(ip);
-  return t[3];
 }
 
 int main(void)
@@ -52,47 +53,70 @@ int main(void)
   ascr_panel_solver_set(w, s, NULL);
   ascr_visc_solver *v = ascr_visc_solver_alloc(n, nw);
   int order = (int)(3 * (n + nw));
-  double tlu = lu_time(order);
+  enum { REPS = 3 };
+  double tl[14];
+  lu_times(order, tl);
+  const double res[2] = {1e5, 1e6};
+  size_t np = ascr_polar_grid_size(-2.0, 10.0, 0.5);
+  double *tp = malloc(REPS * 2 * np * sizeof *tp), *ip = malloc(2 * np * sizeof *ip);
+  double tcold[2][REPS];
+  size_t conv[2] = {0, 0};
+  long its[2] = {0, 0};
+  for (int rep = 0; rep < REPS; rep++) {
+    for (int k = 0; k < 2; k++) {
+      ascr_visc_params p = ascr_visc_params_defaults();
+      p.re = res[k];
+      ascr_visc_solver_set(v, w, &p, NULL);
+      /* cold start at 2 deg */
+      ascr_visc_result r;
+      double t0 = bench_now();
+      ascr_visc_solver_solve(v, 2.0 * 3.14159265358979323846 / 180.0, 0, &r, NULL);
+      tcold[k][rep] = bench_now() - t0;
+      /* the sweep, point by point with continuation (as ascr_polar_sweep steps) */
+      int warm = 0;
+      for (size_t i = 0; i < np; i++) {
+        double a = (-2.0 + 0.5 * (double)i) * 3.14159265358979323846 / 180.0;
+        t0 = bench_now();
+        ascr_status st = ascr_visc_solver_solve(v, a, warm, &r, NULL);
+        tp[(k * np + i) * REPS + rep] = bench_now() - t0;
+        if (rep == 0) {
+          its[k] += r.iterations;
+          ip[k * np + i] = (double)r.iterations;
+          if (st == ASCR_OK) conv[k]++;
+        }
+        warm = st == ASCR_OK;
+      }
+    }
+  }
+  lu_times(order, tl + 7);
+  qsort(tl, 14, sizeof *tl, bench_cmp);
+  double tlu = 0.5 * (tl[6] + tl[7]);
   printf("viscous stage, NACA 2412, %zu panels, %zu wake nodes: Newton system of order %d\n",
          n - 1, nw, order);
-  printf("one dense LU (dgesv) of that order: %.2f ms (median of 7)\n\n", 1e3 * tlu);
-  printf("%8s %10s %12s %8s %6s %10s %12s\n", "Re", "converged", "ms/point", "its mean", "median",
-         "LU-eq", "cold ms");
-  const double res[2] = {1e5, 1e6};
+  printf("one dense LU (dgesv) of that order: %.2f ms (median of 14, before and after)\n", 1e3 * tlu);
+  printf("sweep -2..10 deg by 0.5 deg, %d repeats (each point: its median)\n\n", REPS);
+  printf("%8s %10s %9s %9s %6s %6s %8s %9s %9s %8s\n", "Re", "converged", "median ms", "mean ms",
+         "its", "mean", "its max", "LU-eq md", "LU-eq mn", "cold LU");
   for (int k = 0; k < 2; k++) {
-    ascr_visc_params p = ascr_visc_params_defaults();
-    p.re = res[k];
-    ascr_visc_solver_set(v, w, &p, NULL);
-    /* cold start at 2 deg */
-    ascr_visc_result r;
-    double t0 = bench_now();
-    ascr_visc_solver_solve(v, 2.0 * 3.14159265358979323846 / 180.0, 0, &r, NULL);
-    double tcold = bench_now() - t0;
-    /* sweep: per-point time from the progress callback is not available, so time each point
-     * by sweeping in single steps with continuation */
-    size_t np = ascr_polar_grid_size(-2.0, 10.0, 0.5);
-    double *tp = malloc(np * sizeof *tp), *ip = malloc(np * sizeof *ip);
-    long its = 0;
-    size_t conv = 0;
-    int warm = 0;
+    double *pt = malloc(np * sizeof *pt), total = 0.0;
     for (size_t i = 0; i < np; i++) {
-      double a = (-2.0 + 0.5 * (double)i) * 3.14159265358979323846 / 180.0;
-      t0 = bench_now();
-      ascr_status st = ascr_visc_solver_solve(v, a, warm, &r, NULL);
-      tp[i] = bench_now() - t0;
-      its += r.iterations;
-      ip[i] = (double)r.iterations;
-      if (st == ASCR_OK) conv++;
-      warm = st == ASCR_OK;
+      double *t3 = tp + (k * np + i) * REPS;
+      qsort(t3, REPS, sizeof *t3, bench_cmp);
+      pt[i] = t3[REPS / 2];
+      total += pt[i];
     }
-    qsort(tp, np, sizeof *tp, bench_cmp);
-    qsort(ip, np, sizeof *ip, bench_cmp);
-    double med = tp[np / 2];
-    printf("%8.0e %6zu/%-3zu %12.2f %8.1f %6.0f %10.1f %12.1f\n", res[k], conv, np, 1e3 * med,
-           (double)its / (double)np, ip[np / 2], med / tlu, 1e3 * tcold);
-    free(tp);
-    free(ip);
+    qsort(pt, np, sizeof *pt, bench_cmp);
+    double *ik = ip + k * np;
+    qsort(ik, np, sizeof *ik, bench_cmp);
+    qsort(tcold[k], REPS, sizeof tcold[k][0], bench_cmp);
+    double med = pt[np / 2], mean = total / (double)np;
+    printf("%8.0e %6zu/%-3zu %9.2f %9.2f %6.0f %6.1f %8.0f %9.2f %9.2f %8.1f\n", res[k], conv[k], np,
+           1e3 * med, 1e3 * mean, ik[np / 2], (double)its[k] / (double)np, ik[np - 1], med / tlu,
+           mean / tlu, tcold[k][REPS / 2] / tlu);
+    free(pt);
   }
+  free(tp);
+  free(ip);
   ascr_visc_solver_free(v);
   ascr_panel_solver_free(w);
   ascr_geom_section_free(s);
