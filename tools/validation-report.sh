@@ -12,10 +12,15 @@ rm -f "$out/data/"*.csv
 AIRSCREW_VALIDATION_OUT=$(cd "$out/data" && pwd); export AIRSCREW_VALIDATION_OUT
 OPENBLAS_NUM_THREADS=1; export OPENBLAS_NUM_THREADS
 status=0
-for t in test_visc_validation test_rotor_bemt test_rotor_validation; do
+# the validation tests (NAME:ARGUMENT runs the program NAME with that argument; its log is NAME_ARGUMENT)
+tests="test_visc_validation test_rotor_bemt test_rotor_validation test_visc_uiuc:sd7003
+       test_visc_uiuc:sd8000 test_visc_uiuc:clarky"
+for spec in $tests; do
+  prog=${spec%%:*}; arg=${spec#*:}; [ "$arg" = "$spec" ] && arg=
+  t=$prog${arg:+_$arg}
   if [ -n "$given" ]; then
     echo "[  PASSED  ] (run by CTest; its log holds the output)" > "$out/data/$t.log"
-  elif ! "$build/tests/$t" > "$out/data/$t.log" 2>&1; then
+  elif ! "$build/tests/$prog" $arg > "$out/data/$t.log" 2>&1; then
     echo "validation-report: $t FAILED (see $out/data/$t.log)" >&2
     status=1
   fi
@@ -37,7 +42,9 @@ md="$out/validation.md"
   echo "($(git -C "$(dirname "$0")/.." describe --always --dirty 2>/dev/null || echo 'unknown revision'))."
   echo "Each table compares airscrew with a published source named above it; the tolerances are"
   echo "those the tests enforce (the reasons are written beside each test). Test status:"
-  for t in test_visc_validation test_rotor_bemt test_rotor_validation; do
+  for spec in $tests; do
+    prog=${spec%%:*}; arg=${spec#*:}; [ "$arg" = "$spec" ] && arg=
+    t=$prog${arg:+_$arg}
     if grep -q "PASSED" "$out/data/$t.log"; then echo "- $t: passed"; else echo "- $t: FAILED"; fi
   done
   echo

@@ -10,7 +10,7 @@ sh "$1/tools/validation-report.sh" "$2" "$tmp/report" ${3:-} || { echo "FAIL: re
 md="$tmp/report/validation.md"
 fail=0
 for t in closed_form_hover da4002_9in_5000rpm naca0012_re6e6_smooth naca0012_re6e6_tripped \
-         naca0012_lift_slope sd7003_re1e5; do
+         naca0012_lift_slope sd7003_re1e5 uiuc_sd7003 uiuc_sd8000 uiuc_clarky; do
   grep -q "^## $t\$" "$md" || { echo "FAIL: table $t missing"; fail=1; }
 done
 # every comparison with a curve has its figure, linked from the page

@@ -1,0 +1,41 @@
+/* tests/support/uiuc_compare.h
+ * Section polars against the UIUC low-speed airfoil tests (Selig et al.; reference/sd7003_*,
+ * sd8000_*, clarky_*: coordinates, drag runs and lift runs, each file with its source header):
+ * one computation shared by the validation test (tests/visc/test_visc_uiuc.c) and the study
+ * that prints it (bench/study_visc_validation.c). Per Reynolds number of the drag file:
+ *   - drag: mean, largest and signed mean (bias, + = computed high) relative cd error at the
+ *     measured cl over the measured low-drag range (points whose cd is at most 1.5 times the
+ *     run's smallest cd: our definition of "attached"), cd of the computed polar interpolated
+ *     at that cl on its branch below the largest cl;
+ *   - lift: mean, largest and signed mean cl error at the measured angle, -2 to 6 deg, from the
+ *     lift run of the nearest Re (within 5 %; the up-going branch of the loop only);
+ *   - lift slope: least-squares dcl/dalpha over the measured angles from -2 to 5 deg of that
+ *     run, measured and computed at the same angles, with the measured fit's standard error;
+ *   - cl_max: measured (up-going branch) against the sweep's largest converged cl;
+ *   - converged points of the sweep.
+ * Polars: 160 panels, N_crit 9, -4 to 16 deg by 0.5 deg, at the run's average Re.
+ */
+#ifndef UIUC_COMPARE_H
+#define UIUC_COMPARE_H
+
+#include <stddef.h>
+
+typedef struct uiuc_result {
+  double re;                      /* the drag run's average Re */
+  double re_lift;                 /* the lift run used (NaN: none within 5 %) */
+  size_t n_points, n_converged;   /* of the sweep */
+  double cd_mean, cd_max, cd_bias; /* relative; NaN where cd_n = 0 */
+  size_t cd_n;
+  double cl_mean, cl_max_err, cl_bias; /* absolute; NaN where cl_n = 0 */
+  size_t cl_n;
+  double slope_calc, slope_meas, slope_meas_se; /* per deg; NaN where fewer than 4 angles */
+  double clmax_calc, clmax_meas;
+} uiuc_result;
+
+/* Run every Reynolds number of section name ("sd7003", "sd8000", "clarky") from folder dir;
+ * at most cap results into out, their count in *n. re_only > 0: only the drag run of that
+ * average Re. 0 on success, 1 if a file cannot be read (message on stderr). */
+int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
+                     size_t cap, size_t *n);
+
+#endif
