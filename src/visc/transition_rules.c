@@ -113,19 +113,24 @@ int visc_update_transition(ascr_visc_solver *v, const vctx cxs[3], double hyst)
  * iteration; the rule has no memory, no band and no budget, so a converged state is one in
  * which every laminar station has N < N_crit, lies upstream of the trip, and the transition
  * interval's crossing point (residual.c) lies inside it:
- *  - upstream: the first laminar station with N >= N_crit, or at or past the trip, becomes
- *    turbulent with the stations behind it; sqrt(Ctau) starts from the transition relation
- *    (bl_ctau_initial) at its state;
+ *  - upstream: where a laminar station has N >= N_crit, the interval moves towards the first
+ *    such station, at most TR_MOVE_STATIONS stations at once (a trip: there at once); the
+ *    stations passed become turbulent, sqrt(Ctau) from the transition relation
+ *    (bl_ctau_initial) at their state;
  *  - downstream: where N at the interval's end, by the laminar amplification equation, stays
  *    below N_crit and no trip lies in the interval, its end station becomes laminar with that N
  *    (theta and m kept). One station per iteration: the Newton step that follows settles the
  *    layer before the next interval is judged.
  * Returns 1 if an interval moved. */
 /* Path controls of the exact rule (they decide how fast the iteration gets there, not where it
- * ends): a downstream move passes at most TR_MOVE_STATIONS stations at once, and the intervals
- * are judged once the largest relative update is below TR_EXACT_SETTLED. Measured on the thin
- * plate at Re 2e5, 2 deg: 1 station / 0.05 crept for 100 iterations without arriving; 2 / 0.15,
- * 4 / 0.15 and 3 / 0.3 converged to the same state in 113, 97 and 85 iterations. */
+ * ends): a move passes at most TR_MOVE_STATIONS stations at once, and the intervals are judged
+ * once the largest relative update is below TR_EXACT_SETTLED. Measured on the thin plate at Re
+ * 2e5, 2 deg: 1 station / 0.05 crept for 100 iterations without arriving; 2 / 0.15, 4 / 0.15
+ * and 3 / 0.3 converged to the same state in 113, 97 and 85 iterations (downstream moves).
+ * Upstream moves went to the first station past N_crit at once until 2026-12-04: on a state
+ * not yet settled that overshot (NACA 2412, Re 1e5, -1 deg: 0.913 -> 0.832 c, converged at
+ * 0.901 after 190 iterations); limited alike, bench_visc's mean iterations 27.2 -> 21.0 (Re
+ * 1e5) and 8.8 -> 8.2 (1e6), docs/theory/viscous.md. */
 #define TR_MOVE_STATIONS 3 /* TR_EXACT_SETTLED is the driver's (driver.c) */
 int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3])
 {
@@ -140,7 +145,8 @@ int visc_transition_exact(ascr_visc_solver *v, const vctx cxs[3])
     for (size_t k = k0 + 1; k < kt; k++) {
       int trip = cx->xi_trip >= 0.0 && v->xi[k] >= cx->xi_trip;
       if (v->cc[k] >= cx->ncrit || trip) {
-        kt = visc_transition_place(v, cx, side, k, 0);
+        size_t kn = trip || k + TR_MOVE_STATIONS >= kt ? k : kt - TR_MOVE_STATIONS;
+        kt = visc_transition_place(v, cx, side, kn, 0);
         moved = 1;
         break;
       }
