@@ -41,6 +41,11 @@ typedef struct ascr_shape_params {
                             root station's half chord... see ascr_shape_params_defaults) */
   double hub_height_m;   /* its height along the axis (0: the root chord's axial extent x 1.2) */
   size_t hub_segments;   /* facets around the hub (default 48) */
+  double root_thickening; /* the blended root (propeller only): between the root station and
+                            the hub the root section thickens smoothly about its mean line to
+                            this factor at the hub surface, and keeps it inside the hub
+                            (default 2, a choice of ours; 1: the root section carried in
+                            unchanged; 1 .. 5) */
 } ascr_shape_params;
 
 /** Defaults as documented (hub radius and height 0: chosen from the blade). */

@@ -20,7 +20,7 @@ static void export_help(FILE *fp)
         "\n"
         "The blade's shape lofted through its stations' sections (chord, twist about the pitch\n"
         "axis, sense of rotation, sections blended as the rotor blends them) as a closed, binary\n"
-        "STL in millimetres: the whole propeller (every blade, its root carried into a cylindrical\n"
+        "STL in millimetres: the whole propeller (every blade, its root blended into a cylindrical\n"
         "hub; the shells overlap there, as slicers expect) or with --blade-only one blade from its\n"
         "root station to its tip. Every shell is checked closed and consistently oriented before\n"
         "it is written; the volume and the mass for a density are reported.\n"
@@ -29,6 +29,8 @@ static void export_help(FILE *fp)
         "      --blade-only        one blade instead of the propeller\n"
         "      --hub-radius MM     hub cylinder radius (default the blade's hub radius)\n"
         "      --hub-height MM     hub height along the axis (default 1.2 x the root's depth)\n"
+        "      --root-thickening F the root section thickens smoothly from the root station to\n"
+        "                          F times at the hub surface (1 .. 5, default 2; 1: none)\n"
         "      --pitch-axis F      chord fraction the twist turns about (default 0.25)\n"
         "      --chord-points N    points on each surface of a section (default 41)\n"
         "      --span-rings N      sections lofted from root to tip (default 61)\n"
@@ -91,11 +93,12 @@ int cmd_export(int argc, char **argv)
     {"pitch-axis", required_argument, NULL, 'x'},   {"chord-points", required_argument, NULL, 'k'},
     {"span-rings", required_argument, NULL, 'n'},   {"density", required_argument, NULL, 'd'},
     {"sections", required_argument, NULL, 'S'},     {"force", no_argument, NULL, 'F'},
+    {"root-thickening", required_argument, NULL, 't'},
     {"help", no_argument, NULL, 'h'},               {NULL, 0, NULL, 0}};
   ascr_shape_params p = ascr_shape_params_defaults();
   const char *stl = NULL, *secdir = NULL;
   double density = NAN, hr = 0.0, hh = 0.0;
-  int force = 0, c;
+  int force = 0, rt_given = 0, c;
   opterr = 0;
   cli_getopt_reset();
   while ((c = getopt_long(argc, argv, ":h", opts, NULL)) != -1) {
@@ -109,6 +112,10 @@ int cmd_export(int argc, char **argv)
     case 'n': if (cli_parse_size("--span-rings", optarg, 2, 5000, &p.n_span)) return CLI_EXIT_USAGE; break;
     case 'd': if (cli_parse_double("--density", optarg, 100.0, 25000.0, &density)) return CLI_EXIT_USAGE; break;
     case 'S': secdir = optarg; break;
+    case 't':
+      if (cli_parse_double("--root-thickening", optarg, 1.0, 5.0, &p.root_thickening)) return CLI_EXIT_USAGE;
+      rt_given = 1;
+      break;
     case 'F': force = 1; break;
     case 'h': export_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("export: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -123,8 +130,9 @@ int cmd_export(int argc, char **argv)
     cli_error("export: --stl FILE.stl is required");
     return CLI_EXIT_USAGE;
   }
-  if (p.blade_only && (hr > 0.0 || hh > 0.0)) {
-    cli_error("export: --hub-radius and --hub-height shape the hub, which --blade-only leaves out");
+  if (p.blade_only && (hr > 0.0 || hh > 0.0 || rt_given)) {
+    cli_error("export: --hub-radius, --hub-height and --root-thickening shape the hub and the root, "
+              "which --blade-only leaves out");
     return CLI_EXIT_USAGE;
   }
   p.hub_radius_m = 1e-3 * hr;

@@ -11,6 +11,7 @@
 #include <string.h>
 
 #define DEG (ASCR_PI / 180.0)
+#define ROOT_RINGS 8 /* rings of the blended root between the hub surface and the root station */
 
 ascr_shape_params ascr_shape_params_defaults(void)
 {
@@ -20,6 +21,7 @@ ascr_shape_params ascr_shape_params_defaults(void)
   p.n_span = 61;
   p.pitch_axis = 0.25;
   p.hub_segments = 48;
+  p.root_thickening = 2.0;
   return p;
 }
 
@@ -113,6 +115,18 @@ typedef struct st_ring {
   int closed;
 } st_ring;
 
+/* Thickness factor of the blended root at radius r (rh the hub radius, r0 the root station):
+ * 1 from the root station out, rising to k at the hub surface as 3 s^2 - 2 s^3 of s = (r0 - r) /
+ * (r0 - rh) (level at both ends: the blade's surface goes on smoothly from the root station),
+ * k inside the hub. */
+static double root_factor(const ascr_shape_params *p, double r, double r0, double rh)
+{
+  if (p->blade_only || r >= r0 || !(p->root_thickening > 1.0)) return 1.0;
+  double s = rh < r0 ? (r0 - r) / (r0 - rh) : 1.0;
+  if (s > 1.0) s = 1.0;
+  return 1.0 + (p->root_thickening - 1.0) * s * s * (3.0 - 2.0 * s);
+}
+
 static ascr_status ring_at(const ascr_blade *bl, const ascr_geom_section *const *secs,
                            const ascr_shape_params *p, double r, double *xi, double *yu, double *yl,
                            double *yu1, double *yl1, st_ring *out, ascr_errbuf *err)
@@ -134,6 +148,17 @@ static ascr_status ring_at(const ascr_blade *bl, const ascr_geom_section *const 
     for (size_t k = 0; k < K; k++) {
       yu[k] = (1.0 - w) * yu[k] + w * yu1[k];
       yl[k] = (1.0 - w) * yl[k] + w * yl1[k];
+    }
+  }
+  /* the blended root: the thickness about the mean line scaled (a closed trailing edge stays
+   * closed) */
+  double rh = p->hub_radius_m > 0.0 ? p->hub_radius_m : bl->r_hub_m > 0.0 ? bl->r_hub_m : 0.8 * bl->stations[0].r_m;
+  double kf = root_factor(p, r, bl->stations[0].r_m, rh);
+  if (kf != 1.0) {
+    for (size_t k = 0; k < K; k++) {
+      double yc = 0.5 * (yu[k] + yl[k]), ht = 0.5 * (yu[k] - yl[k]);
+      yu[k] = yc + kf * ht;
+      yl[k] = yc - kf * ht;
     }
   }
   out->closed = fabs(yu[K - 1] - yl[K - 1]) < 1e-9;
@@ -276,9 +301,10 @@ ascr_status ascr_blade_mesh(const ascr_blade *bl, const ascr_geom_section *const
   ascr_shape_params p = pin != NULL ? *pin : ascr_shape_params_defaults();
   if (bl == NULL || secs == NULL || out == NULL || p.n_chord < 5 || p.n_chord > 2000 ||
       p.n_span < 2 || p.n_span > 5000 || !(p.pitch_axis >= 0.0 && p.pitch_axis <= 1.0) ||
-      p.hub_segments < 8 || p.hub_segments > 4096 || !(p.hub_radius_m >= 0.0) || !(p.hub_height_m >= 0.0)) {
+      p.hub_segments < 8 || p.hub_segments > 4096 || !(p.hub_radius_m >= 0.0) || !(p.hub_height_m >= 0.0) ||
+      !(p.root_thickening >= 1.0 && p.root_thickening <= 5.0)) {
     return core_fail(err, ASCR_EINVAL, "shape: bad arguments (5 .. 2000 chord points, 2 .. 5000 "
-                     "rings, pitch axis 0 .. 1, 8 .. 4096 hub facets)");
+                     "rings, pitch axis 0 .. 1, 8 .. 4096 hub facets, root thickening 1 .. 5)");
   }
   ascr_status st = ascr_blade_validate(bl, err);
   if (st != ASCR_OK) return st;
@@ -288,7 +314,7 @@ ascr_status ascr_blade_mesh(const ascr_blade *bl, const ascr_geom_section *const
   memset(out, 0, sizeof *out);
   mesh_build b = {out, 0, 0, 0};
   size_t K = p.n_chord;
-  double *buf = calloc(5 * K + p.n_span + 8, sizeof *buf);
+  double *buf = calloc(5 * K + p.n_span + 8 + ROOT_RINGS, sizeof *buf);
   if (buf == NULL) return core_fail(err, ASCR_ENOMEM, "shape: out of memory");
   double *xi = buf, *yu = xi + K, *yl = yu + K, *yu1 = yl + K, *yl1 = yu1 + K, *rr = yl1 + K;
   double r0 = bl->stations[0].r_m, r1 = bl->r_tip_m;
@@ -296,10 +322,13 @@ ascr_status ascr_blade_mesh(const ascr_blade *bl, const ascr_geom_section *const
   double rh = p.hub_radius_m > 0.0 ? p.hub_radius_m : bl->r_hub_m > 0.0 ? bl->r_hub_m : 0.8 * r0;
   size_t nr = 0;
   if (!p.blade_only) {
-    /* the root section carried into the hub (to half its radius) so that the shells overlap */
+    /* the root section carried into the hub (to half its radius) so that the shells overlap,
+     * blended from the root station to the hub surface (root_factor) over ROOT_RINGS rings */
     double rin = fmin(0.5 * rh, 0.9 * r0);
     rr[nr++] = rin;
-    if (rh < r0 && rh > rin) rr[nr++] = rh;
+    if (rh < r0 && rh > rin) {
+      for (size_t j = 0; j < ROOT_RINGS; j++) rr[nr++] = rh + (r0 - rh) * (double)j / (double)ROOT_RINGS;
+    }
   }
   for (size_t j = 0; j < p.n_span; j++) rr[nr++] = r0 + (r1 - r0) * (double)j / (double)(p.n_span - 1);
   int nb = p.blade_only ? 1 : bl->n_blades;

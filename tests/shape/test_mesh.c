@@ -123,11 +123,51 @@ static void test_propeller_and_stl(void **state)
   teardown_blade(&f);
 }
 
+/* The blended root: between the root station (7 mm) and the hub surface (6 mm) the root section
+ * thickens about its mean line as 1 + (k - 1)(3 s^2 - 2 s^3), s the distance from the root
+ * station over the gap: the upper-to-lower distance at each chord fraction (turned by the twist,
+ * which keeps distances) is k times the root station's at the hub surface, (1 + k)/2 times it
+ * half way, and the mesh stays closed; k = 1 leaves the root section as it is. Exact (1e-9). */
+static void test_blended_root(void **state)
+{
+  (void)state;
+  for (int pass = 0; pass < 2; pass++) {
+    fixture f;
+    setup_blade(&f, 1);
+    ascr_shape_params p = ascr_shape_params_defaults();
+    double k = pass == 0 ? 2.5 : 1.0;
+    p.root_thickening = k;
+    ascr_mesh m;
+    ascr_errbuf err;
+    assert_int_equal(ascr_blade_mesh(&f.b, (const ascr_geom_section *const *)f.sec, &p, &m, &err), ASCR_OK);
+    assert_int_equal(ascr_mesh_defects(&m), 0);
+    size_t K = p.n_chord, R = 2 * K - 1; /* open trailing edge at the root (NACA 4412) */
+    /* rings of the first blade: 0 inside the hub, 1 .. 8 from the hub surface, 9 the root station */
+    ascr_assert_close(m.v[3 * (1 * R)], 0.006, 1e-12, 0.0, "ring 1 at the hub surface");
+    ascr_assert_close(m.v[3 * (5 * R)], 0.0065, 1e-12, 0.0, "ring 5 half way");
+    ascr_assert_close(m.v[3 * (9 * R)], 0.007, 1e-12, 0.0, "ring 9 at the root station");
+    for (size_t q = 1; q + 1 < K; q++) {
+      /* ring position K-1-q: upper surface point q; K-1+q: lower */
+      double d[3];
+      const size_t rings[3] = {1, 5, 9};
+      for (int i = 0; i < 3; i++) {
+        const double *u = m.v + 3 * (rings[i] * R + K - 1 - q), *l = m.v + 3 * (rings[i] * R + K - 1 + q);
+        d[i] = hypot(u[1] - l[1], u[2] - l[2]);
+      }
+      ascr_assert_close(d[0], k * d[2], 1e-9, 0.0, "thickness at the hub surface");
+      ascr_assert_close(d[1], 0.5 * (1.0 + k) * d[2], 1e-9, 0.0, "thickness half way");
+    }
+    ascr_mesh_free(&m);
+    teardown_blade(&f);
+  }
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_one_blade_closed_and_true_to_volume),
       cmocka_unit_test(test_propeller_and_stl),
+      cmocka_unit_test(test_blended_root),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
