@@ -170,6 +170,24 @@ static ascr_status solve_continued(ascr_visc_solver *v, double alpha_rad, ascr_v
   *ended = 0;
   visc_snapshot(v, 4);
   ascr_status st = solve_warm(v, alpha_rad, r, err);
+  if ((st == ASCR_EMAXITER || st == ASCR_ESING) && fabs(alpha_rad - a1) >= 2.0 * JUMP_MIN_STEP) {
+    /* a failed step is tried once more in two halves before the caller starts afresh */
+    ascr_visc_result rh, r2;
+    int its = r->iterations;
+    visc_restore(v, 4);
+    ascr_status sm = solve_warm(v, 0.5 * (a1 + alpha_rad), &rh, NULL);
+    its += rh.iterations;
+    if (sm == ASCR_OK) {
+      sm = solve_warm(v, alpha_rad, &r2, NULL);
+      its += r2.iterations;
+    }
+    if (sm == ASCR_OK) {
+      *r = r2;
+      st = ASCR_OK;
+    }
+    r->iterations = its;
+    if (st != ASCR_OK) return st;
+  }
   if (st != ASCR_OK || !jumped(a1, cl1, a0, cl0, alpha_rad, r)) return st;
   ascr_visc_result rd = *r, rm, r2;
   visc_snapshot(v, 5); /* the direct step's state */
