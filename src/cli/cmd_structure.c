@@ -258,6 +258,10 @@ int cmd_structure(int argc, char **argv)
     fprintf(fp, "tip pitch change %+.3f deg under the twisting moment (%+.3f deg of it from the "
             "air's pitching moment, the rest centrifugal)\n", sum.tip_pitch_change_deg,
             sum.tip_pitch_change_air_deg);
+    if (fabs(sum.tip_pitch_change_deg) > 5.0) {
+      fprintf(fp, "  caution: beyond a few degrees this static, linear estimate no longer holds (the\n"
+                  "  twist changes the loads that cause it): the blade is too soft in torsion here\n");
+    }
     fprintf(fp, "\n%8s  %-26s %-26s %-26s\n", "rpm", "flap Hz", "lag Hz", "torsion Hz");
     for (size_t k = 0; k < nrpm; k++) {
       char b[3][64];

@@ -21,8 +21,10 @@ static const char demo_material[] =
   "  \"format\": \"airscrew-material-1\",\n"
   "  \"name\": \"tough SLA resin, post-cured (class; airscrew demo)\",\n"
   "  \"density_kg_m3\": {\"value\": 1150, \"source\": \"datasheet class, typical (from memory)\"},\n"
-  "  \"elastic_modulus_Pa\": {\"value\": 1.7e9, \"source\": \"datasheet class, typical (from memory)\"},\n"
-  "  \"tensile_strength_Pa\": {\"value\": 4.8e7, \"source\": \"datasheet class, typical (from memory)\"},\n"
+  "  \"elastic_modulus_Pa\": {\"value\": 1260000000.0, \"source\": \"datasheet, class 'tough (ABS-like) "
+  "photopolymer resin post-cured' (reference/printed_blade_materials_typical.csv)\"},\n"
+  "  \"tensile_strength_Pa\": {\"value\": 31800000.0, \"source\": \"datasheet, class 'tough (ABS-like) "
+  "photopolymer resin post-cured' (reference/printed_blade_materials_typical.csv)\"},\n"
   "  \"fatigue_limit_Pa\": {\"value\": null, \"source\": \"not known for the class\"}\n"
   "}\n";
 
@@ -129,8 +131,14 @@ int demo_structure_section(const ascr_blade *b, const ascr_polar_table *const *t
       }
       w += (size_t)snprintf(o->html + w, cap - w,
           ". The stress sits at the root station, where the example blade is a thin plate; a real "
-          "hub is thicker. First flap frequency %.0f&nbsp;Hz at hover against a blade-passing "
-          "frequency of %.0f&nbsp;Hz", fh, bph);
+          "hub is thicker%s. First flap frequency %.0f&nbsp;Hz at hover against a blade-passing "
+          "frequency of %.0f&nbsp;Hz",
+          fabs(sumh.tip_pitch_change_deg) > 5.0
+              ? ". Twists of more than a few degrees are beyond this static, linear estimate (the "
+                "twist changes the loads that cause it): as drawn, the blade is too soft in torsion "
+                "for this resin"
+              : "",
+          fh, bph);
       if (fok) w += (size_t)snprintf(o->html + w, cap - w, ", %.0f&nbsp;Hz at full throttle against %.0f&nbsp;Hz", ff, bpf);
       w += (size_t)snprintf(o->html + w, cap - w, " (the Campbell diagram below: structure.svg).</p>\n");
       if (ncr > 0) {

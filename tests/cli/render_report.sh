@@ -32,6 +32,14 @@ m_rep=$(grep -o "[0-9.]*&nbsp;g a blade" "$tmp/demo/report.html" | head -1 | sed
 m_cmd=$("$exe" structure "$tmp/demo/blade.json" "$tmp/demo/material.json" --rpm 13000 2>/dev/null |
         sed -n 's/^mass *\([0-9.]*\) g.*/\1/p')
 [ -n "$m_rep" ] && [ "$m_rep" = "$m_cmd" ] || { echo "FAIL: structure mass $m_cmd differs from the report's $m_rep"; fail=1; }
+# the demo's material is the example file's tough resin (the same values; ASCR_SOURCE_DIR set by
+# CTest)
+if [ -n "${ASCR_SOURCE_DIR:-}" ]; then
+  vals() { tr -d ' \n' < "$1" | grep -o '"[A-Za-z_0-9]*":{"value":[^,}]*' | sed 's/{"value"://'; }
+  if [ "$(vals "$tmp/demo/material.json")" != "$(vals "$ASCR_SOURCE_DIR/docs/examples/materials/sla-resin-tough.json")" ]; then
+    echo "FAIL: the demo's material differs from docs/examples/materials/sla-resin-tough.json"; fail=1
+  fi
+fi
 # the designed blade file is a blade file the rotor command reads
 "$exe" rotor "$tmp/demo/design-blade.json" --rpm 13600 > /dev/null 2>&1 ||
   { echo "FAIL: rotor cannot use design-blade.json"; fail=1; }
