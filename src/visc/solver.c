@@ -158,6 +158,22 @@ static int jumped(double a1, double cl1, double a0, double cl0, double alpha_rad
   return fabs(r->cl - (cl1 + f * (cl1 - cl0))) > JUMP_DCL;
 }
 
+/* The step from a1 to alpha_rad again in two halves, from the state it started from (slot 4);
+ * the iterations added to *its, the second half's result in r2. */
+static ascr_status solve_halves(ascr_visc_solver *v, double a1, double alpha_rad,
+                                ascr_visc_result *r2, int *its)
+{
+  ascr_visc_result rm;
+  visc_restore(v, 4);
+  ascr_status sm = solve_warm(v, 0.5 * (a1 + alpha_rad), &rm, NULL);
+  *its += rm.iterations;
+  if (sm == ASCR_OK) {
+    sm = solve_warm(v, alpha_rad, r2, NULL);
+    *its += r2->iterations;
+  }
+  return sm;
+}
+
 /* A warm solve with the step control above. *ended is set where the step left the secant's line
  * and its halves did not both converge: the branch ended between the two angles, and the state
  * returned (kept in slot 5) is wherever the direct step landed. */
@@ -172,16 +188,9 @@ static ascr_status solve_continued(ascr_visc_solver *v, double alpha_rad, ascr_v
   ascr_status st = solve_warm(v, alpha_rad, r, err);
   if ((st == ASCR_EMAXITER || st == ASCR_ESING) && fabs(alpha_rad - a1) >= 2.0 * JUMP_MIN_STEP) {
     /* a failed step is tried once more in two halves before the caller starts afresh */
-    ascr_visc_result rh, r2;
+    ascr_visc_result r2;
     int its = r->iterations;
-    visc_restore(v, 4);
-    ascr_status sm = solve_warm(v, 0.5 * (a1 + alpha_rad), &rh, NULL);
-    its += rh.iterations;
-    if (sm == ASCR_OK) {
-      sm = solve_warm(v, alpha_rad, &r2, NULL);
-      its += r2.iterations;
-    }
-    if (sm == ASCR_OK) {
+    if (solve_halves(v, a1, alpha_rad, &r2, &its) == ASCR_OK) {
       *r = r2;
       st = ASCR_OK;
     }
@@ -189,17 +198,10 @@ static ascr_status solve_continued(ascr_visc_solver *v, double alpha_rad, ascr_v
     if (st != ASCR_OK) return st;
   }
   if (st != ASCR_OK || !jumped(a1, cl1, a0, cl0, alpha_rad, r)) return st;
-  ascr_visc_result rd = *r, rm, r2;
+  ascr_visc_result rd = *r, r2;
   visc_snapshot(v, 5); /* the direct step's state */
-  visc_restore(v, 4);
   int its = rd.iterations;
-  ascr_status sm = solve_warm(v, 0.5 * (a1 + alpha_rad), &rm, NULL);
-  its += rm.iterations;
-  if (sm == ASCR_OK) {
-    sm = solve_warm(v, alpha_rad, &r2, NULL);
-    its += r2.iterations;
-  }
-  if (sm == ASCR_OK) {
+  if (solve_halves(v, a1, alpha_rad, &r2, &its) == ASCR_OK) {
     *r = r2;
   } else {
     visc_restore(v, 5);

@@ -10,17 +10,23 @@
 #include <stdlib.h>
 #include <string.h>
 
+/* example material file i of the four in docs/examples/materials/ */
+static void read_example(int i, ascr_material *m)
+{
+  static const char *const files[4] = {"sla-resin-general.json", "sla-resin-tough.json",
+                                       "polycarbonate.json", "nylon-glass-filled.json"};
+  char path[512];
+  snprintf(path, sizeof path, "%s/docs/examples/materials/%s", ASCR_SOURCE_DIR, files[i]);
+  ascr_errbuf err;
+  assert_int_equal(ascr_material_read(path, m, &err), ASCR_OK);
+}
+
 static void test_examples_read(void **state)
 {
   (void)state;
-  const char *files[4] = {"sla-resin-general.json", "sla-resin-tough.json", "polycarbonate.json",
-                          "nylon-glass-filled.json"};
   for (int i = 0; i < 4; i++) {
-    char path[512];
-    snprintf(path, sizeof path, "%s/docs/examples/materials/%s", ASCR_SOURCE_DIR, files[i]);
     ascr_material m;
-    ascr_errbuf err;
-    assert_int_equal(ascr_material_read(path, &m, &err), ASCR_OK);
+    read_example(i, &m);
     assert_true(m.density_kg_m3.value > 900.0 && m.elastic_modulus_pa.value > 1e9);
     assert_true(strlen(m.elastic_modulus_pa.source) > 0);
     /* isotropic shear modulus where the file gives none: G = E / (2 (1 + nu)) */
@@ -69,15 +75,10 @@ static int check_cited(const ascr_material_value *mv, int column, double scale)
 static void test_examples_cite_the_reference(void **state)
 {
   (void)state;
-  const char *files[4] = {"sla-resin-general.json", "sla-resin-tough.json", "polycarbonate.json",
-                          "nylon-glass-filled.json"};
   int cited = 0;
   for (int i = 0; i < 4; i++) {
-    char path[512];
-    snprintf(path, sizeof path, "%s/docs/examples/materials/%s", ASCR_SOURCE_DIR, files[i]);
     ascr_material m;
-    ascr_errbuf err;
-    assert_int_equal(ascr_material_read(path, &m, &err), ASCR_OK);
+    read_example(i, &m);
     cited += check_cited(&m.elastic_modulus_pa, 2, 1e9);
     cited += check_cited(&m.tensile_strength_pa, 3, 1e6);
     cited += check_cited(&m.density_kg_m3, 5, 1.0);
