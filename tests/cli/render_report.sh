@@ -64,6 +64,17 @@ grep -o ' id="[^"]*"' "$tmp/demo/report.html" | sed 's/ id="\(.*\)"/\1/' | sort 
 grep -o 'href="#[^"]*"' "$tmp/demo/report.html" | sed 's/href="#\(.*\)"/\1/' | sort -u > "$tmp/refs"
 n_dangling=$(comm -13 "$tmp/ids" "$tmp/refs" | wc -l)
 [ "$n_dangling" = 0 ] || { echo "FAIL: $n_dangling references to missing ids in report.html"; fail=1; }
+# each figure drawn with its own glyphs, as the browser resolves them (the first element with an
+# id wins): every reference of an inline figure resolves into that figure, and every figure
+# draws text (figure_refs.awk); the check fails on a copy whose second figure's glyph ids are
+# renamed to the first's (the defect issue 17 found)
+here=$(dirname "$0")
+awk -f "$here/figure_refs.awk" "$tmp/demo/report.html" > "$tmp/refs.log" ||
+  { echo "FAIL: figures resolve glyphs outside themselves:"; cat "$tmp/refs.log"; fail=1; }
+sed 's/f1-glyph/f0-glyph/g' "$tmp/demo/report.html" > "$tmp/collide.html"
+if awk -f "$here/figure_refs.awk" "$tmp/collide.html" > /dev/null; then
+  echo "FAIL: the figure check does not see colliding glyph ids"; fail=1
+fi
 # a second run into the same folder is refused without --force and leaves it as it was
 before=$(cksum < "$tmp/demo/report.html")
 if "$exe" demo --out "$tmp/demo" > /dev/null 2>&1; then echo "FAIL: demo overwrote its folder"; fail=1; fi
