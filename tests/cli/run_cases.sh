@@ -90,6 +90,18 @@ if [ $? != 0 ] || grep -q 'error:' "$tmp/ro.err" || [ "$(grep -c 'not writable' 
   echo "FAIL: unwritable cache folder: $(cat "$tmp/ro.err")"; fail=$((fail + 1))
 fi
 if [ ! -c /dev/null ]; then echo "FAIL: /dev/null is no longer a device"; fail=$((fail + 1)); fi
+# output names of 245-255 characters (issue 17: the temporary name outgrew the 255-character
+# limit): written, and the folder holds no temporary afterwards
+mkdir -p "$tmp/longnames"
+for len in 245 250 255; do
+  name=$(printf "%${len}s" | tr ' ' n)
+  if ! "$exe" section naca0012 --points -o "$tmp/longnames/$name" > /dev/null 2>&1 || [ ! -s "$tmp/longnames/$name" ]; then
+    echo "FAIL: an output name of $len characters was not written"; fail=$((fail + 1))
+  fi
+done
+if [ "$(ls -A "$tmp/longnames" | wc -l)" != 3 ]; then
+  echo "FAIL: long names left: $(ls -A "$tmp/longnames" | wc -l) files"; fail=$((fail + 1))
+fi
 if [ "$(stat -c %a "$tmp/mode640.dat")" != 640 ] || grep -q '^old$' "$tmp/mode640.dat"; then
   echo "FAIL: replaced file lost its mode 640 or was not replaced"; fail=$((fail + 1))
 fi
