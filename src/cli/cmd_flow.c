@@ -398,9 +398,9 @@ static int flow_viscous(FILE *fp, const char *arg, double alpha_deg, const ascr_
     fprintf(fp, "%6s %9s %9s %8s %10s %10s %7s %9s %7s %9s %s\n", "side", "s", "x/c", "ue/V",
             "delta*/c", "theta/c", "H", "cf", "N", "Ctau^1/2", "state");
     for (size_t k = 0; k < ns; k++) {
-      char na[16], ca[16];
-      snprintf(na, sizeof na, turb[k] ? "" : "%.3f", am[k]);
-      snprintf(ca, sizeof ca, turb[k] ? "%.4f" : "", am[k]);
+      char na[16] = "", ca[16] = ""; /* N where laminar, sqrt(Ctau) where turbulent */
+      if (turb[k]) snprintf(ca, sizeof ca, "%.4f", am[k]);
+      else snprintf(na, sizeof na, "%.3f", am[k]);
       fprintf(fp, "%6s %9.5f %9.5f %8.4f %10.3e %10.3e %7.3f %9.5f %7s %9s %s\n",
               side[k] == 0 ? "upper" : side[k] == 1 ? "lower" : "wake", ss[k], x[k], ue[k], ds[k],
               th[k], h[k], cf[k], na, ca, turb[k] ? "turbulent" : "laminar");
