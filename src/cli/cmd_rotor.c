@@ -474,7 +474,9 @@ int cmd_rotor(int argc, char **argv)
         json_object_set_new(eo, "mach", cli_json_num(eok, e->mach));
         json_object_set_new(eo, "cl", cli_json_num(eok, e->cl));
         json_object_set_new(eo, "cd", cli_json_num(eok, e->cd));
+        json_object_set_new(eo, "cm", cli_json_num(eok, e->cm));
         json_object_set_new(eo, "dT_dr_N_per_m", cli_json_num(eok, e->dT_dr_N_m));
+        json_object_set_new(eo, "dM_dr_Nm_per_m", cli_json_num(eok, e->dM_dr_Nm_m));
         json_object_set_new(eo, "dQ_dr_Nm_per_m", cli_json_num(eok, e->dQ_dr_Nm_m));
         json_object_set_new(eo, "stalled", json_boolean(e->stalled));
         json_object_set_new(eo, "beyond_polar", json_boolean(e->region == ASCR_TABLE_EXTENDED));

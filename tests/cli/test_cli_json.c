@@ -379,8 +379,9 @@ static void test_cli_rotor_json_contract(void **state)
     double sum = 0.0;
     for (size_t i = 0; i < ns; i++) {
       json_t *e = json_array_get(st, i);
-      const char *keys[] = {"r_m", "alpha_deg", "re", "mach", "cl", "cd", "dT_dr_N_per_m", "dQ_dr_Nm_per_m"};
-      for (size_t m = 0; m < 8; m++) (void)num(e, keys[m]);
+      const char *keys[] = {"r_m", "alpha_deg", "re", "mach", "cl", "cd", "cm", "dT_dr_N_per_m",
+                            "dQ_dr_Nm_per_m", "dM_dr_Nm_per_m"};
+      for (size_t m = 0; m < 10; m++) (void)num(e, keys[m]);
       assert_true(json_is_boolean(json_object_get(e, "stalled")));
       double r = num(e, "r_m");
       double rl = i > 0 ? 0.5 * (r + num(json_array_get(st, i - 1), "r_m")) : 0.2 * d / 2.0;
