@@ -19,6 +19,7 @@ typedef struct table {
   size_t nrow;
   size_t col;
   int header_done;
+  int overflow; /* more rows than MAXROWS: the file is refused, not cut */
 } table;
 
 static void on_field(void *s, size_t len, void *ctx)
@@ -43,11 +44,12 @@ static void on_row(int c, void *ctx)
   table *t = ctx;
   if (!t->header_done) t->header_done = 1;
   else if (t->nrow < MAXROWS) t->nrow++;
+  else t->overflow = 1;
   t->col = 0;
 }
 
 /* Read a reference CSV: '#' lines skipped, the header row skipped, numeric fields kept
- * (non-numeric as NaN). 0 on success. */
+ * (non-numeric as NaN). 0 on success; 1 if it cannot be read or holds more than MAXROWS rows. */
 static int read_table(const char *path, table *t)
 {
   memset(t, 0, sizeof *t);
@@ -66,7 +68,7 @@ static int read_table(const char *path, table *t)
   csv_fini(&p, on_field, on_row, t);
   csv_free(&p);
   fclose(fp);
-  return 0;
+  return t->overflow;
 }
 
 typedef struct polar {
