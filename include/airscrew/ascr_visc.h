@@ -77,10 +77,12 @@ typedef struct ascr_visc_result {
  *  itself continued from another angle at the same Reynolds number, the start is the secant
  *  extrapolation through the two (transition points included), and the plain previous solution
  *  if that fails; a step whose cl leaves the secant's line by more than 0.03 is repeated in two
- *  halves, so that the continuation keeps to its branch where another lies beside it. Otherwise, or if the continuation fails, the layer is initialised by marches
- *  on the inviscid velocity (and, failing those, continued down from a higher Reynolds
- *  number). The start decides the path, not the result: a converged state is one the
- *  equations and the transition rule accept at this condition.
+ *  halves, so that the continuation keeps to its branch where another lies beside it.
+ *  Otherwise, or if the continuation fails, the layer is initialised by marches on the inviscid
+ *  velocity, then the same with a provisional trip on the suction side (solved again without
+ *  it), and, failing those, continued down from a higher Reynolds number. The start decides the
+ *  path, not the result: a converged state is one the equations and the transition rule accept
+ *  at this condition.
  *  @return ASCR_OK if converged; ASCR_EMAXITER if not (r is still filled, r->converged = 0:
  *          the numbers are the last iterate and must not be used as a result); ASCR_EINVAL;
  *          ASCR_ESING (singular Newton system). */
