@@ -179,8 +179,11 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * converge); 7 = the shape floor at the first stations and the line search's own contexts
  * (which points converge); 8 = the shape floor at the first stations with their stagnation-flow
  * ue, and the continuation's step control (which branch a sweep follows); 9 = a sweep's first
- * point reached from the zero-lift angle as a single point is (which branch a sweep follows). */
-#define CURVE_NUMERICS_REVISION 9
+ * point reached from the zero-lift angle as a single point is (which branch a sweep follows);
+ * 10 = upstream transition moves limited, a failed continuation step retried in halves
+ * (2026-12-04, thirteenth session; the revision was not raised then) and the fresh start
+ * through a provisional trip (which points converge, which branch a sweep follows). */
+#define CURVE_NUMERICS_REVISION 10
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)
