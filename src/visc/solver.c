@@ -26,9 +26,9 @@
  * leaves the secant's line is repeated in two halves, solve_continued), the march
  * (ASCR_VISC_START_MARCH), the coupled march (ASCR_VISC_START_COUPLED_MARCH), both marches
  * with a provisional trip on the suction side solved again without it (start_with_trip), and
- * both marches at a higher Reynolds number continued down (start_from_higher_re). Whichever start leads to
- * it, a result is a state the equations and the exact transition rule accept at the requested
- * condition.
+ * both marches at a higher Reynolds number continued down (start_from_higher_re). Whichever
+ * start leads to it, a result is a state the equations and the exact transition rule accept at
+ * the requested condition.
  */
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
@@ -56,7 +56,21 @@ static ascr_status solve_once(ascr_visc_solver *v, double alpha_rad, int warm, i
   return st != ASCR_OK ? st : visc_run_message(v, err);
 }
 
-/* Third fresh start, for the thick layers of low Reynolds numbers
+/* Both marched fresh starts in turn (march, then coupled march) until one converges; their
+ * iterations added to *its. */
+static ascr_status both_marches(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r,
+                                int *its)
+{
+  ascr_status st = ASCR_EMAXITER;
+  for (int kind = ASCR_VISC_START_MARCH; kind <= ASCR_VISC_START_COUPLED_MARCH && st != ASCR_OK;
+       kind++) {
+    st = solve_once(v, alpha_rad, 0, kind, r, NULL);
+    *its += r->iterations;
+  }
+  return st;
+}
+
+/* Last fresh start, for the thick layers of low Reynolds numbers
  * and for conditions a continuation in alpha cannot reach: there the displacement of a
  * marched start (separated regions above all) changes the edge velocities of the first
  * coupled iteration by more than the Newton step can follow (the thin plates at Re 5,000: the
@@ -79,11 +93,7 @@ static ascr_status start_from_higher_re(ascr_visc_solver *v, double alpha_rad,
   double lcur = NAN;
   for (double f = 2.0; f <= RE_CONT_MAX_FACTOR && v->p.re * f <= 1e8; f *= 2.0) {
     v->p.re = re * f;
-    for (int kind = ASCR_VISC_START_MARCH; kind <= ASCR_VISC_START_COUPLED_MARCH && st != ASCR_OK;
-         kind++) { /* both fresh starts */
-      st = solve_once(v, alpha_rad, 0, kind, r, NULL);
-      its += r->iterations;
-    }
+    st = both_marches(v, alpha_rad, r, &its);
     v->p.re = re;
     if (st == ASCR_OK) {
       lcur = log(re * f);
@@ -216,9 +226,8 @@ static ascr_status solve_continued(ascr_visc_solver *v, double alpha_rad, ascr_v
 /* A fresh start through a provisional trip (past stall above all, where the marched starts
  * fail: NACA 0012 at Re 1e6, 16 deg, from every start and at every Re from 2.5e5 to 4e6). The
  * suction side's layer (the upper surface at alpha >= 0, the lower below) is tripped at
- * x/c = START_TRIP_X for the start, which settles the
- * leading-edge region at once; the state is then solved again, warm, with the section's own
- * trips. Where natural transition lies ahead of the provisional trip (the case it is meant
+ * x/c = START_TRIP_X for the start, which settles the leading-edge region at once; the state is
+ * then solved again, warm, with the section's own trips. Where natural transition lies ahead of the provisional trip (the case it is meant
  * for) the trip binds nothing and the second solve confirms the state in an iteration or two;
  * elsewhere it continues from the tripped state. Either way the result is judged at the
  * requested condition alone: a path, like the other starts. START_TRIP_X is a path control.
@@ -233,12 +242,7 @@ static ascr_status start_with_trip(ascr_visc_solver *v, double alpha_rad, ascr_v
   const double own = *trip;
   int its = 0;
   *trip = START_TRIP_X;
-  ascr_status st = ASCR_EMAXITER;
-  for (int kind = ASCR_VISC_START_MARCH; kind <= ASCR_VISC_START_COUPLED_MARCH && st != ASCR_OK;
-       kind++) {
-    st = solve_once(v, alpha_rad, 0, kind, r, NULL);
-    its += r->iterations;
-  }
+  ascr_status st = both_marches(v, alpha_rad, r, &its);
   *trip = own;
   if (st == ASCR_OK) {
     v->pred_off = 1;
@@ -252,7 +256,8 @@ static ascr_status start_with_trip(ascr_visc_solver *v, double alpha_rad, ascr_v
 }
 
 /* The fresh starts in turn: the march, the direct march with its coupling passes
- * (initial_state), the start continued down from a higher Reynolds number. */
+ * (initial_state), both through a provisional trip (start_with_trip), the start continued down
+ * from a higher Reynolds number. */
 static ascr_status solve_fresh(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r,
                                ascr_errbuf *err)
 {
