@@ -37,9 +37,13 @@ typedef struct ascr_bl_params {
   double ncrit;       /* critical amplification exponent for transition (default 9) */
   double s_trip;      /* forced transition at this s, chord units; negative for none */
   ascr_bl_start start;
+  double turb_rth_min;   /* least Re_theta at which the turbulent fits are evaluated (default
+                          * 320: Preston's minimum for a turbulent layer, J. Fluid Mech. 3, 1958) */
+  double turb_rth_width; /* width of the smooth maximum that holds it (default 60; 0: a plain
+                          * maximum) */
 } ascr_bl_params;
 
-/** Defaults: Re 1e6, Mach 0, N_crit 9, no trip, similarity start. */
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trip, similarity start, turbulent Re_theta floor 320 (width 60). */
 ASCR_EXPORT ascr_bl_params ascr_bl_params_defaults(void);
 
 /** State at one station. */

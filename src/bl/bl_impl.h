@@ -31,9 +31,28 @@ double bl_hk(double h, double me);
 /* Laminar closures at Hk, Re_theta (Falkner-Skan fits, Drela & Giles 1987). */
 void bl_closure_laminar(double h, double rth, double me, bl_closure *c);
 
-/* Turbulent closures at H, Re_theta, Ctau (Drela & Giles 1987; Swafford 1983 for Cf).
+/* Least momentum-thickness Reynolds number of a turbulent layer: Preston (J. Fluid Mech. 3,
+ * 1958; about 320, value from memory of the paper) found no turbulent boundary layer below it.
+ * The turbulent fits are evaluated at Re_theta held above it by a smooth maximum of width
+ * BL_TURB_RTH_WIDTH: min + (d + sqrt(d^2 + width^2))/2, d = Re_theta - min, which passes
+ * Re_theta well above the floor (within 1 % from min + 3 width), gives min + width/2 at the
+ * floor, and has a continuous derivative for the Newton iteration (width 0: a plain maximum).
+ * The width is a numerical smoothing, not a physical constant; measured on the robustness grid
+ * (2026-12-04): 60 holds 1101 of 1125 points, a plain maximum 1098, 120 1094
+ * (docs/theory/viscous.md). The coupled solver may start from a lower floor and continue to
+ * this one (visc/solver.c). */
+#define BL_TURB_RTH_MIN 320.0
+#define BL_TURB_RTH_WIDTH 60.0
+
+typedef struct bl_rth_floor {
+  double min, width;
+} bl_rth_floor;
+
+/* Turbulent closures at H, Re_theta, Ctau (Drela & Giles 1987; Swafford 1983 for Cf), with
+ * Re_theta held above the floor fl (normally BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH).
  * wake = 1 sets Cf = 0 and doubles the outer-layer dissipation scale as for a free shear layer. */
-void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_closure *c);
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_rth_floor fl,
+                          bl_closure *c);
 
 /* Lag equation of the turbulent layer (Green, Weeks & Brooman 1977, ARC R&M 3791, in the form of
  * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta with

@@ -27,13 +27,18 @@
 
 #include <math.h>
 
-void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_closure *c)
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_rth_floor fl,
+                          bl_closure *c)
 {
   double hk = bl_hk(h, me);
   /* floor of the fits: a wake tends to H = 1 far downstream, a wall layer never goes below 1.05 */
   double hk_min = wake ? 1.00005 : 1.05;
   if (hk < hk_min) hk = hk_min;
-  if (rth < 200.0) rth = 200.0; /* the fits are not meant below this; see march.c */
+  {
+    /* Re_theta held above the floor (bl_impl.h: Preston 1958) */
+    double d = rth - fl.min;
+    rth = fl.min + 0.5 * (d + sqrt(d * d + fl.width * fl.width));
+  }
   double h0 = rth > 400.0 ? 3.0 + 400.0 / rth : 4.0;
   double lr = log(rth);
   double hs;

@@ -46,6 +46,8 @@ ascr_bl_params ascr_bl_params_defaults(void)
   p.ncrit = 9.0;
   p.s_trip = -1.0;
   p.start = ASCR_BL_START_SIMILAR;
+  p.turb_rth_min = BL_TURB_RTH_MIN;
+  p.turb_rth_width = BL_TURB_RTH_WIDTH;
   return p;
 }
 
@@ -64,12 +66,12 @@ typedef struct st_eval {
   double amp;     /* dN/dxi (laminar) */
 } st_eval;
 
-static void evaluate(const st_state *s, double re, double mach, st_eval *e)
+static void evaluate(const st_state *s, double re, double mach, bl_rth_floor rmin, st_eval *e)
 {
   e->me = mach * s->ue;
   e->rth = re * s->ue * s->theta;
   if (s->turb) {
-    bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, &e->c);
+    bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, rmin, &e->c);
     double hk = e->c.hk;
     e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, 0);
     e->amp = 0.0;
@@ -84,10 +86,10 @@ static void evaluate(const st_state *s, double re, double mach, st_eval *e)
 
 /* Interval residuals for station b given station a. */
 static void residuals(const st_state *a, const st_eval *ea, const st_state *b, double re,
-                      double mach, double *r)
+                      double mach, bl_rth_floor rmin, double *r)
 {
   st_eval eb;
-  evaluate(b, re, mach, &eb);
+  evaluate(b, re, mach, rmin, &eb);
   double dxi = b->xi - a->xi;
   double lue = log(b->ue / a->ue);
   double hm = 0.5 * (a->h + b->h);
@@ -103,14 +105,15 @@ static void residuals(const st_state *a, const st_eval *ea, const st_state *b, d
 
 /* Solve the interval a -> b; b holds the initial guess and receives the solution.
  * Returns the iteration count, or -1 on failure (b left at the last iterate). */
-static int solve_interval(const st_state *a, st_state *b, double re, double mach, double *resid)
+static int solve_interval(const st_state *a, st_state *b, double re, double mach, bl_rth_floor rmin,
+                          double *resid)
 {
   st_eval ea;
-  evaluate(a, re, mach, &ea);
+  evaluate(a, re, mach, rmin, &ea);
   int n = b->turb ? 3 : 2;
   for (int it = 1; it <= NEWTON_MAX; it++) {
     double r[3] = {0, 0, 0};
-    residuals(a, &ea, b, re, mach, r);
+    residuals(a, &ea, b, re, mach, rmin, r);
     double rmax = 0.0;
     for (int i = 0; i < n; i++) rmax = fmax(rmax, fabs(r[i]));
     *resid = rmax;
@@ -131,7 +134,7 @@ static int solve_interval(const st_state *a, st_state *b, double re, double mach
         p.sc = b->sc + h;
       }
       double rp[3] = {0, 0, 0};
-      residuals(a, &ea, &p, re, mach, rp);
+      residuals(a, &ea, &p, re, mach, rmin, rp);
       for (int i = 0; i < n; i++) J[i][j] = (rp[i] - r[i]) / h;
     }
     double jm[9], dx[3] = {0, 0, 0};
@@ -199,10 +202,11 @@ int bl_similarity_start(double m, double re, double ue, double xi, double *theta
   return 0;
 }
 
-static void store(const st_state *s, double re, double mach, double n, ascr_bl_station *o)
+static void store(const st_state *s, double re, double mach, bl_rth_floor rmin, double n,
+                  ascr_bl_station *o)
 {
   st_eval e;
-  evaluate(s, re, mach, &e);
+  evaluate(s, re, mach, rmin, &e);
   o->s = s->xi;
   o->ue = s->ue;
   o->theta = s->theta;
@@ -238,6 +242,11 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
   if (!(p->ncrit > 0.0 && p->ncrit <= 30.0)) {
     return core_fail(err, ASCR_EINVAL, "boundary-layer march: N_crit %g outside (0, 30]", p->ncrit);
   }
+  if (!(p->turb_rth_min >= 0.0 && p->turb_rth_min <= 1e4) ||
+      !(p->turb_rth_width >= 0.0 && p->turb_rth_width <= 1e4)) {
+    return core_fail(err, ASCR_EINVAL, "boundary-layer march: turbulent Re_theta floor %g or its "
+                     "width %g outside 0 .. 1e4", p->turb_rth_min, p->turb_rth_width);
+  }
   for (size_t i = 0; i < n; i++) {
     if (!(ue[i] > 0.0) || !isfinite(ue[i]) || !isfinite(s[i])) {
       return core_fail(err, ASCR_EINVAL, "boundary-layer march: station %zu: ue = %g (must be "
@@ -250,6 +259,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
   }
   memset(out, 0, n * sizeof *out);
   const double re = p->re, mach = p->mach;
+  const bl_rth_floor rmin = {p->turb_rth_min, p->turb_rth_width};
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];
@@ -266,7 +276,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
     a.h = 1.3;
     a.turb = 1;
     bl_closure c;
-    bl_closure_turbulent(a.h, re * a.ue * a.theta, mach * a.ue, 1e-4, 0, &c);
+    bl_closure_turbulent(a.h, re * a.ue * a.theta, mach * a.ue, 1e-4, 0, rmin, &c);
     a.sc = sqrt(c.ctau_eq);
     res->s_transition = s[0];
     res->forced = 1;
@@ -281,7 +291,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
       return core_fail(err, ASCR_EMAXITER, "boundary-layer march: no similarity start for m = %g", m);
     }
   }
-  store(&a, re, mach, namp, &out[0]);
+  store(&a, re, mach, rmin, namp, &out[0]);
   res->n_done = 1;
   for (size_t i = 1; i < n; i++) {
     st_state b = a;
@@ -290,7 +300,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
     double resid = 0.0;
     int its;
     if (!a.turb) {
-      its = solve_interval(&a, &b, re, mach, &resid);
+      its = solve_interval(&a, &b, re, mach, rmin, &resid);
       if (its < 0 || b.h > LAM_SEP_HK * 1.2) {
         if (b.h > 3.5 || a.h > 3.5) {
           res->s_separation = s[i];
@@ -300,8 +310,8 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
                          "Newton failed, residual %.2e", i, s[i], resid);
       }
       st_eval ea, eb;
-      evaluate(&a, re, mach, &ea);
-      evaluate(&b, re, mach, &eb);
+      evaluate(&a, re, mach, rmin, &ea);
+      evaluate(&b, re, mach, rmin, &eb);
       double n2 = namp + bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
       int trip = p->s_trip >= 0.0 && p->s_trip > a.xi && p->s_trip <= b.xi;
       if (n2 >= p->ncrit || trip) {
@@ -316,7 +326,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         if (xtr - a.xi > 1e-12 * (1.0 + fabs(a.xi))) {
           t.xi = xtr;
           t.ue = a.ue + (b.ue - a.ue) * (xtr - a.xi) / (b.xi - a.xi);
-          its = solve_interval(&a, &t, re, mach, &resid);
+          its = solve_interval(&a, &t, re, mach, rmin, &resid);
           if (its < 0) {
             return core_fail(err, ASCR_EMAXITER, "boundary-layer march: transition at s = %.5g: "
                              "laminar part failed, residual %.2e", xtr, resid);
@@ -325,7 +335,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         st_eval et;
         t.turb = 1;
         t.sc = 0.0;
-        evaluate(&t, re, mach, &et);
+        evaluate(&t, re, mach, rmin, &et);
         t.sc = sqrt(bl_ctau_initial(et.c.hk, et.c.ctau_eq));
         res->s_transition = xtr;
         res->forced = forced;
@@ -335,13 +345,13 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         b.xi = s[i];
         b.ue = ue[i];
         if (b.xi - t.xi > 1e-12 * (1.0 + fabs(t.xi))) {
-          its = solve_interval(&t, &b, re, mach, &resid);
+          its = solve_interval(&t, &b, re, mach, rmin, &resid);
           if (its < 0) {
             b = t;
             b.xi = s[i];
             b.ue = ue[i];
             b.h = 1.6;
-            its = solve_interval(&t, &b, re, mach, &resid);
+            its = solve_interval(&t, &b, re, mach, rmin, &resid);
           }
           if (its < 0) {
             return core_fail(err, ASCR_EMAXITER, "boundary-layer march: station %zu (s = %.5g) "
@@ -352,7 +362,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         namp = n2;
       }
     } else {
-      its = solve_interval(&a, &b, re, mach, &resid);
+      its = solve_interval(&a, &b, re, mach, rmin, &resid);
       if (its < 0 || b.h > TURB_SEP_HK * 1.3) {
         if (b.h > 2.5 || a.h > 2.5) {
           res->s_separation = s[i];
@@ -363,7 +373,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
       }
     }
     if (its > res->max_iterations) res->max_iterations = its;
-    store(&b, re, mach, namp, &out[i]);
+    store(&b, re, mach, rmin, namp, &out[i]);
     res->n_done = i + 1;
     if ((!b.turb && out[i].hk > LAM_SEP_HK) || (b.turb && out[i].hk > TURB_SEP_HK)) {
       /* where the skin friction, falling, extrapolates linearly to zero (at most five
@@ -385,6 +395,8 @@ size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *
                              const double *ue, size_t n, double re, double mach, double ncrit,
                              double *theta, double *h, double *nn, int *why)
 {
+  /* a laminar march: the turbulent fits are not used */
+  const bl_rth_floor rmin = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH};
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];
@@ -402,14 +414,14 @@ size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *
     b.xi = s[i];
     b.ue = ue[i];
     double resid;
-    int its = solve_interval(&a, &b, re, mach, &resid);
+    int its = solve_interval(&a, &b, re, mach, rmin, &resid);
     st_eval ea, eb;
     if (its < 0) {
       *why = 2;
       return i;
     }
-    evaluate(&a, re, mach, &ea);
-    evaluate(&b, re, mach, &eb);
+    evaluate(&a, re, mach, rmin, &ea);
+    evaluate(&b, re, mach, rmin, &eb);
     namp += bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
     theta[i] = b.theta;
     h[i] = b.h;

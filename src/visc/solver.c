@@ -26,9 +26,10 @@
  * leaves the secant's line is repeated in two halves, solve_continued), the march
  * (ASCR_VISC_START_MARCH), the coupled march (ASCR_VISC_START_COUPLED_MARCH), both marches
  * with a provisional trip on the suction side solved again without it (start_with_trip), and
- * both marches at a higher Reynolds number continued down (start_from_higher_re). Whichever
- * start leads to it, a result is a state the equations and the exact transition rule accept at
- * the requested condition.
+ * both marches at a higher Reynolds number continued down (start_from_higher_re); each group of
+ * fresh starts, where it fails, once more with the turbulent Re_theta floor lowered and continued
+ * back up (from_lower_floor). Whichever start leads to it, a result is a state the equations and
+ * the exact transition rule accept at the requested condition.
  */
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
@@ -249,18 +250,27 @@ static ascr_status start_with_trip(ascr_visc_solver *v, double alpha_rad, ascr_v
     st = solve_once(v, alpha_rad, 1, ASCR_VISC_START_MARCH, r, NULL);
     v->pred_off = 0;
     its += r->iterations;
+    /* the start is for states whose own transition lies ahead of the trip; where the layer,
+     * untripped, went elsewhere, the trip was not the path to it */
+    double xt = alpha_rad >= 0.0 ? r->x_transition_upper : r->x_transition_lower;
+    if (st == ASCR_OK && !(xt <= START_TRIP_X)) st = ASCR_EMAXITER;
   }
   r->iterations = its;
   if (st != ASCR_OK) v->have_solution = 0;
   return st;
 }
 
-/* The fresh starts in turn: the march, the direct march with its coupling passes
- * (initial_state), both through a provisional trip (start_with_trip), the start continued down
- * from a higher Reynolds number. */
-static ascr_status solve_fresh(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r,
-                               ascr_errbuf *err)
+/* The fresh starts of one group: 0, the march, the direct march with its coupling passes
+ * (initial_state) and both through a provisional trip (start_with_trip); 1, the start continued
+ * down from a higher Reynolds number. */
+static ascr_status fresh_group(ascr_visc_solver *v, int group, double alpha_rad,
+                               ascr_visc_result *r, ascr_errbuf *err)
 {
+  if (group == 1) {
+    /* robustness grid (bench/study_visc_convergence, 1125 points): 1060 -> 1084 converged
+     * with this start after a failed continuation, NACA 4412 at Re 3e4 past 10 deg above all */
+    return start_from_higher_re(v, alpha_rad, r, err);
+  }
   ascr_status st = solve_once(v, alpha_rad, 0, ASCR_VISC_START_MARCH, r, err);
   if (st == ASCR_EMAXITER || st == ASCR_ESING) {
     int its = r->iterations;
@@ -272,14 +282,75 @@ static ascr_status solve_fresh(ascr_visc_solver *v, double alpha_rad, ascr_visc_
     st = start_with_trip(v, alpha_rad, r);
     r->iterations += its;
   }
-  if (st == ASCR_EMAXITER || st == ASCR_ESING) {
-    /* robustness grid (bench/study_visc_convergence, 1125 points): 1060 -> 1084 converged
-     * with this start after a failed continuation, NACA 4412 at Re 3e4 past 10 deg above all */
-    int its = r->iterations;
-    st = start_from_higher_re(v, alpha_rad, r, err);
-    r->iterations += its;
-  }
   return st;
+}
+
+/* A group of fresh starts with the turbulent fits' Re_theta floor lowered to a plain maximum at
+ * START_RTH_MIN (the floor the code had before, without a source), and the state continued in
+ * the floor, min = START_RTH_MIN + t (BL_TURB_RTH_MIN - START_RTH_MIN), width = t
+ * BL_TURB_RTH_WIDTH, from t = 0 to 1 (two steps, each halved where it fails, down to a tenth): a
+ * continuation in a parameter of the closure, as start_from_higher_re's is in the Reynolds
+ * number, judged at the requested condition alone. It is for the states the floor made hard to
+ * start: past stall (NACA 0012 and 2412 at 15-16 deg, Re 3e4-1e6: transition near the leading
+ * edge, where the young turbulent layer has Re_theta 100-300) and the thin plates at Re 5,000.
+ * START_RTH_MIN is a path control. */
+#define START_RTH_MIN 200.0
+static bl_rth_floor floor_at(double t)
+{
+  bl_rth_floor f = {START_RTH_MIN + t * (BL_TURB_RTH_MIN - START_RTH_MIN), t * BL_TURB_RTH_WIDTH};
+  return f;
+}
+
+static ascr_status from_lower_floor(ascr_visc_solver *v, int group, double alpha_rad,
+                                    ascr_visc_result *r)
+{
+  const bl_rth_floor own = v->rth_floor;
+  v->rth_floor = floor_at(0.0);
+  ascr_status st = fresh_group(v, group, alpha_rad, r, NULL);
+  int its = r->iterations;
+  double t = 0.0, step = 0.5;
+  while (st == ASCR_OK && t < 1.0) {
+    visc_snapshot(v, 1);
+    double next = fmin(t + step, 1.0);
+    v->rth_floor = floor_at(next);
+    v->pred_off = 1;
+    st = solve_once(v, alpha_rad, 1, ASCR_VISC_START_MARCH, r, NULL);
+    v->pred_off = 0;
+    its += r->iterations;
+    if (st == ASCR_OK) {
+      t = next;
+    } else if (step > 0.1) {
+      visc_restore(v, 1);
+      step *= 0.5;
+      st = ASCR_OK;
+    }
+  }
+  v->rth_floor = own;
+  r->iterations = its;
+  if (st != ASCR_OK) v->have_solution = 0;
+  return st;
+}
+
+/* The fresh starts in turn, each group first as it is and then from the lower floor. */
+static ascr_status solve_fresh(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r,
+                               ascr_errbuf *err)
+{
+  ascr_status st = ASCR_EMAXITER;
+  int its = 0;
+  for (int group = 0; group < 2 && (st == ASCR_EMAXITER || st == ASCR_ESING); group++) {
+    st = fresh_group(v, group, alpha_rad, r, err);
+    its += r->iterations;
+    if (st == ASCR_EMAXITER || st == ASCR_ESING) {
+      st = from_lower_floor(v, group, alpha_rad, r);
+      its += r->iterations;
+    }
+  }
+  r->iterations = its;
+  if (st == ASCR_OK || (st != ASCR_EMAXITER && st != ASCR_ESING)) return st;
+  v->have_solution = 0;
+  return core_fail(err, ASCR_EMAXITER, "viscous solve at alpha %.2f deg, Re %.3g: not converged "
+                   "from any start (fresh, continued from a higher Reynolds number, and from a "
+                   "lower floor of the turbulent Re_theta)", alpha_rad * 180.0 / ASCR_PI, v->p.re);
 }
 
 /* Where the continuation's branch ended (solve_continued), the state the direct step landed on

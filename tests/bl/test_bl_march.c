@@ -168,6 +168,31 @@ static void test_bl_flat_plate_transition(void **state)
   assert_int_equal(rt.forced, 1);
 }
 
+/* The turbulent fits below Preston's minimum Re_theta (J. Fluid Mech. 3, 1958: no turbulent
+ * layer below about 320; bl_impl.h): evaluated at the floor, so that two states below it give
+ * the same skin friction within the smoothing (Re_theta 50 and 150 are held at 323 and 325: Cf
+ * differs by about 0.3 %); well above it the fits are untouched (at Re_theta 3000 the smooth
+ * maximum moves Re_theta by 0.3, Cf by under 0.01 %). A plain maximum (width 0) gives the floor's
+ * value exactly. */
+static void test_bl_turbulent_fits_held_above_preston_minimum(void **state)
+{
+  (void)state;
+  const bl_rth_floor preston = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH}, plain = {320.0, 0.0};
+  bl_closure a, b, c, d;
+  bl_closure_turbulent(1.5, 50.0, 0.0, 0.01, 0, preston, &a);
+  bl_closure_turbulent(1.5, 150.0, 0.0, 0.01, 0, preston, &b);
+  ascr_assert_close(a.cf, b.cf, 0.005, 0, "Cf below the floor");
+  bl_closure_turbulent(1.5, 50.0, 0.0, 0.01, 0, plain, &c);
+  bl_closure_turbulent(1.5, 320.0, 0.0, 0.01, 0, plain, &d);
+  ascr_assert_close(c.cf, d.cf, 1e-15, 0, "Cf at the plain floor");
+  ascr_assert_close(c.hs, d.hs, 1e-15, 0, "H* at the plain floor");
+  bl_closure_turbulent(1.5, 3000.0, 0.0, 0.01, 0, preston, &a);
+  bl_closure_turbulent(1.5, 3000.0, 0.0, 0.01, 0, plain, &b);
+  ascr_assert_close(a.cf, b.cf, 1e-4, 0, "Cf well above the floor");
+  ascr_bl_params p = ascr_bl_params_defaults();
+  assert_true(p.turb_rth_min == BL_TURB_RTH_MIN && p.turb_rth_width == BL_TURB_RTH_WIDTH);
+}
+
 static void test_bl_march_rejects_bad_input(void **state)
 {
   (void)state;
@@ -189,6 +214,10 @@ static void test_bl_march_rejects_bad_input(void **state)
   s[0] = 0.0;
   assert_int_equal(ascr_bl_march(s, ue, 5, &p, st, &r, &e), ASCR_EINVAL);
   assert_non_null(strstr(e.msg, "s[0] > 0"));
+  s[0] = 0.1;
+  p.turb_rth_min = NAN;
+  assert_int_equal(ascr_bl_march(s, ue, 5, &p, st, &r, &e), ASCR_EINVAL);
+  assert_non_null(strstr(e.msg, "Re_theta floor"));
   assert_true(isnan(ascr_bl_ncrit_from_turbulence(0.0)));
 }
 
@@ -228,6 +257,7 @@ int main(void)
     cmocka_unit_test(test_bl_howarth_retarded_flow_separates),
     cmocka_unit_test(test_bl_turbulent_flat_plate_skin_friction),
     cmocka_unit_test(test_bl_flat_plate_transition),
+    cmocka_unit_test(test_bl_turbulent_fits_held_above_preston_minimum),
     cmocka_unit_test(test_bl_march_rejects_bad_input),
     cmocka_unit_test(test_bl_transition_presets),
   };

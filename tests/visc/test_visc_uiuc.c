@@ -36,11 +36,17 @@ typedef struct held {
   int drag, lift, clmax, slope;
 } held;
 
-/* measured 2026-12-04 (docs/theory/viscous.md, "The UIUC validation test") */
+/* measured 2026-12-04 (docs/theory/viscous.md, "The UIUC validation test"). SD8000 at Re 2e5,
+ * lift: held until the turbulent Re_theta floor (Preston's minimum, bl_impl.h), open since: near
+ * zero lift the section has two converged states from -0.5 to 0.5 deg (the lower surface's
+ * transition at its trailing edge, and laminar to it), and the sweep going up now reports the
+ * first at 0.5 deg (cl 0.385, flagged two-state; the other state, 0.318, is the one the tunnel
+ * follows): largest error 0.014 -> 0.040. The same change takes SD8000 at 6.1e4 from 20.9 to
+ * 17.4 % in drag and 0.110 to 0.100 in lift (docs/theory/viscous.md). */
 static const held cases[] = {
     {"sd7003", 61100, 0, 0, 0, 1},  {"sd7003", 101600, 0, 0, 1, 1}, {"sd7003", 202200, 1, 0, 0, 1},
     {"sd7003", 302800, 1, 0, 0, 1}, {"sd7003", 305500, 0, 0, 0, 1}, {"sd8000", 60800, 0, 0, 1, 0},
-    {"sd8000", 101100, 1, 0, 1, 1}, {"sd8000", 201600, 1, 1, 1, 1}, {"sd8000", 302100, 1, 0, 1, 1},
+    {"sd8000", 101100, 1, 0, 1, 1}, {"sd8000", 201600, 1, 0, 1, 1}, {"sd8000", 302100, 1, 0, 1, 1},
     {"clarky", 60700, 0, 0, 1, 1},  {"clarky", 59500, 0, 0, 1, 1},  {"clarky", 100000, 0, 0, 1, 1},
     {"clarky", 99000, 0, 0, 1, 1},  {"clarky", 200000, 1, 0, 1, 1}, {"clarky", 299800, 1, 0, 1, 1},
     {"clarky", 399900, 1, 0, 0, 1},
