@@ -10,6 +10,12 @@
  * of times (each solve may start from the previous converged state: continuation) -> _free.
  * The panel solver is borrowed and must outlive the viscous solver; it is only read.
  * Thread safety: one solver object per thread.
+ * Reproducibility: a converged state is the same to round-off whatever the BLAS, but whether a
+ * hard condition converges at all from a fresh start can depend on the rounding of the linear
+ * algebra, which with OpenBLAS depends on its thread count (measured 2026-12-04: a thin plate at
+ * Re 5000, -4 deg, one start converged with two threads and diverged with one). The command line,
+ * the benchmarks and the tests run OpenBLAS on one thread (openblas_set_num_threads(1)); a
+ * program linking the library gets the same points converged by doing the same.
  */
 #ifndef ASCR_VISC_H
 #define ASCR_VISC_H
