@@ -41,6 +41,8 @@ typedef struct ascr_bl_params {
                           * 320: Preston's minimum for a turbulent layer, J. Fluid Mech. 3, 1958) */
   double turb_rth_width; /* width of the smooth maximum that holds it (default 60; 0: a plain
                           * maximum) */
+  double turb_lag_coles; /* weight 0 .. 1 of Coles' bound on the lag thickness (default 1; 0:
+                          * the entrainment fit alone) */
 } ascr_bl_params;
 
 /** Defaults: Re 1e6, Mach 0, N_crit 9, no trip, similarity start, turbulent Re_theta floor 320 (width 60). */

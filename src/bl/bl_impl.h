@@ -44,22 +44,35 @@ void bl_closure_laminar(double h, double rth, double me, bl_closure *c);
 #define BL_TURB_RTH_MIN 320.0
 #define BL_TURB_RTH_WIDTH 60.0
 
-typedef struct bl_rth_floor {
-  double min, width;
-} bl_rth_floor;
+/* Coles' law of the wake (J. Fluid Mech. 1(2), 1956): the defect integral of his profile gives
+ * dstar / delta = (1 + Pi) u_tau / (kappa U), with Pi = 0.55 for the flat plate at high Reynolds
+ * numbers and kappa = 0.41 (values from memory of the paper). bl_lag_rate takes the smaller of
+ * this thickness and the entrainment fit's (below). */
+#define BL_COLES_PI 0.55
+#define BL_COLES_KAPPA 0.41
+
+/* How the turbulent fits are evaluated: Re_theta held above rth_min (smooth maximum of width
+ * rth_width), and the weight of Coles' bound on the lag thickness (1 normally; 0 leaves it out,
+ * the fits as they were before it, for a start's path in visc/solver.c). */
+typedef struct bl_turb_fit {
+  double rth_min, rth_width;
+  double coles;
+} bl_turb_fit;
 
 /* Turbulent closures at H, Re_theta, Ctau (Drela & Giles 1987; Swafford 1983 for Cf), with
  * Re_theta held above the floor fl (normally BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH).
  * wake = 1 sets Cf = 0 and doubles the outer-layer dissipation scale as for a free shear layer. */
-void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_rth_floor fl,
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_turb_fit fl,
                           bl_closure *c);
 
 /* Lag equation of the turbulent layer (Green, Weeks & Brooman 1977, ARC R&M 3791, in the form of
  * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta with
- * K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c); in a wake
+ * K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c), in a wall layer
+ * at most Coles' kappa dstar / ((1 + Pi) sqrt(Cf/2)) divided by the weight coles (> 0); in a wake
  * (wake = 1) K is doubled, the wake's dissipation length being half the wall layer's. One place
  * for the march and the coupled residuals. sc = sqrt(Ctau); lengths in chord. */
-double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, int wake);
+double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, double cf,
+                   int wake, double coles);
 
 /* Envelope amplification rate dN/dxi (1/chord) at Hk, theta, Re_theta (Drela & Giles 1987). */
 double bl_amplification_rate(double hk, double theta, double rth);

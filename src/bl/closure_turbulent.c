@@ -27,7 +27,7 @@
 
 #include <math.h>
 
-void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_rth_floor fl,
+void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_turb_fit fl,
                           bl_closure *c)
 {
   double hk = bl_hk(h, me);
@@ -36,8 +36,8 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
   if (hk < hk_min) hk = hk_min;
   {
     /* Re_theta held above the floor (bl_impl.h: Preston 1958) */
-    double d = rth - fl.min;
-    rth = fl.min + 0.5 * (d + sqrt(d * d + fl.width * fl.width));
+    double d = rth - fl.rth_min;
+    rth = fl.rth_min + 0.5 * (d + sqrt(d * d + fl.rth_width * fl.rth_width));
   }
   double h0 = rth > 400.0 ? 3.0 + 400.0 / rth : 4.0;
   double lr = log(rth);
@@ -84,9 +84,23 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
  * (docs/theory/viscous.md, "The wake"). */
 #define LAG_WAKE_LAMBDA 0.5
 
-double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, int wake)
+/* The lag thickness. Head's entrainment shape factor as fitted by Green, Weeks & Brooman,
+ * delta = theta (3.15 + 1.72/(Hk - 1)) + dstar, grows without bound as Hk -> 1 (29 theta at Hk
+ * 1.07), beyond the fit's range (H about 1.3-2.8): behind a leading-edge bubble a layer with
+ * Ctau far above equilibrium then relaxed ever more slowly while the dissipation drove Hk down,
+ * a runaway to the wall-layer floor Hk 1.05 (a thin plate at Re 1e6 behind its lower bubble: H
+ * 1.07, Cf 0.006 at Re_theta 1800, where a flat plate has 1.4 and 0.0035). Coles' profile bounds
+ * it by the skin friction; in an attached layer the two agree (Re_theta 2000, H 1.4: 8.85 and
+ * 8.89 theta, tests/bl/test_bl_march.c), near separation (Cf -> 0) Coles' grows and the fit
+ * stands. Measured (docs/theory/viscous.md). */
+double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, double cf,
+                   int wake, double coles)
 {
   double delta = theta * (3.15 + 1.72 / (hk - 1.0)) + h * theta;
+  if (!wake && coles > 0.0 && cf > 0.0) {
+    double dc = BL_COLES_KAPPA * h * theta / ((1.0 + BL_COLES_PI) * sqrt(0.5 * cf) * coles);
+    if (dc < delta) delta = dc;
+  }
   double k = wake ? LAG_K / LAG_WAKE_LAMBDA : LAG_K;
   return k * sc * (sqrt(ctau_eq) - sc) / delta;
 }

@@ -48,6 +48,7 @@ ascr_bl_params ascr_bl_params_defaults(void)
   p.start = ASCR_BL_START_SIMILAR;
   p.turb_rth_min = BL_TURB_RTH_MIN;
   p.turb_rth_width = BL_TURB_RTH_WIDTH;
+  p.turb_lag_coles = 1.0;
   return p;
 }
 
@@ -66,14 +67,14 @@ typedef struct st_eval {
   double amp;     /* dN/dxi (laminar) */
 } st_eval;
 
-static void evaluate(const st_state *s, double re, double mach, bl_rth_floor rmin, st_eval *e)
+static void evaluate(const st_state *s, double re, double mach, bl_turb_fit rmin, st_eval *e)
 {
   e->me = mach * s->ue;
   e->rth = re * s->ue * s->theta;
   if (s->turb) {
     bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, rmin, &e->c);
     double hk = e->c.hk;
-    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, 0);
+    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, e->c.cf, 0, rmin.coles);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(s->h, e->rth, e->me, &e->c);
@@ -86,7 +87,7 @@ static void evaluate(const st_state *s, double re, double mach, bl_rth_floor rmi
 
 /* Interval residuals for station b given station a. */
 static void residuals(const st_state *a, const st_eval *ea, const st_state *b, double re,
-                      double mach, bl_rth_floor rmin, double *r)
+                      double mach, bl_turb_fit rmin, double *r)
 {
   st_eval eb;
   evaluate(b, re, mach, rmin, &eb);
@@ -105,7 +106,7 @@ static void residuals(const st_state *a, const st_eval *ea, const st_state *b, d
 
 /* Solve the interval a -> b; b holds the initial guess and receives the solution.
  * Returns the iteration count, or -1 on failure (b left at the last iterate). */
-static int solve_interval(const st_state *a, st_state *b, double re, double mach, bl_rth_floor rmin,
+static int solve_interval(const st_state *a, st_state *b, double re, double mach, bl_turb_fit rmin,
                           double *resid)
 {
   st_eval ea;
@@ -202,7 +203,7 @@ int bl_similarity_start(double m, double re, double ue, double xi, double *theta
   return 0;
 }
 
-static void store(const st_state *s, double re, double mach, bl_rth_floor rmin, double n,
+static void store(const st_state *s, double re, double mach, bl_turb_fit rmin, double n,
                   ascr_bl_station *o)
 {
   st_eval e;
@@ -243,9 +244,11 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
     return core_fail(err, ASCR_EINVAL, "boundary-layer march: N_crit %g outside (0, 30]", p->ncrit);
   }
   if (!(p->turb_rth_min >= 0.0 && p->turb_rth_min <= 1e4) ||
-      !(p->turb_rth_width >= 0.0 && p->turb_rth_width <= 1e4)) {
+      !(p->turb_rth_width >= 0.0 && p->turb_rth_width <= 1e4) ||
+      !(p->turb_lag_coles >= 0.0 && p->turb_lag_coles <= 1.0)) {
     return core_fail(err, ASCR_EINVAL, "boundary-layer march: turbulent Re_theta floor %g or its "
-                     "width %g outside 0 .. 1e4", p->turb_rth_min, p->turb_rth_width);
+                     "width %g outside 0 .. 1e4, or Coles weight %g outside 0 .. 1",
+                     p->turb_rth_min, p->turb_rth_width, p->turb_lag_coles);
   }
   for (size_t i = 0; i < n; i++) {
     if (!(ue[i] > 0.0) || !isfinite(ue[i]) || !isfinite(s[i])) {
@@ -259,7 +262,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
   }
   memset(out, 0, n * sizeof *out);
   const double re = p->re, mach = p->mach;
-  const bl_rth_floor rmin = {p->turb_rth_min, p->turb_rth_width};
+  const bl_turb_fit rmin = {p->turb_rth_min, p->turb_rth_width, p->turb_lag_coles};
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];
@@ -396,7 +399,7 @@ size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *
                              double *theta, double *h, double *nn, int *why)
 {
   /* a laminar march: the turbulent fits are not used */
-  const bl_rth_floor rmin = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH};
+  const bl_turb_fit rmin = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH, 1.0};
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];

@@ -184,8 +184,10 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * (2026-12-04, thirteenth session; the revision was not raised then) and the fresh start
  * through a provisional trip (which points converge, which branch a sweep follows); 11 = the
  * turbulent fits held above Preston's minimum Re_theta (every point with a young turbulent layer
- * or a wake at low Re) and the fresh starts from a lower floor (2026-12-04). */
-#define CURVE_NUMERICS_REVISION 11
+ * or a wake at low Re) and the fresh starts from a lower floor (2026-12-04); 12 = the lag
+ * thickness bounded by Coles' wake law (turbulent layers relaxing behind bubbles, post-stall
+ * states; 2026-12-04). */
+#define CURVE_NUMERICS_REVISION 12
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

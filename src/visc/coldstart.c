@@ -252,8 +252,9 @@ ascr_status visc_initial_state(ascr_visc_solver *v, const vctx cxs[3], ascr_errb
     bp.mach = v->p.mach;
     bp.ncrit = v->p.ncrit;
     bp.s_trip = cxs[side].xi_trip;
-    bp.turb_rth_min = v->rth_floor.min;
-    bp.turb_rth_width = v->rth_floor.width;
+    bp.turb_rth_min = v->turb_fit.rth_min;
+    bp.turb_rth_width = v->turb_fit.rth_width;
+    bp.turb_lag_coles = v->turb_fit.coles;
     ascr_bl_result br;
     ascr_errbuf merr;
     ascr_status st = ascr_bl_march(s, ue, cnt, &bp, out, &br, &merr);

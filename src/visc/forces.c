@@ -63,7 +63,7 @@ void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
       if (k == k0) s.ue = cx.stag_a * fmax(s.xi, cx.xi_min);
       double h = s.m / (fmax(s.ue, 1e-6) * s.th), rth = cx.re * fmax(s.ue, 1e-6) * s.th;
       bl_closure c;
-      if (s.turb) bl_closure_turbulent(h, rth, cx.mach * s.ue, s.c * s.c, 0, cx.rth_floor, &c);
+      if (s.turb) bl_closure_turbulent(h, rth, cx.mach * s.ue, s.c * s.c, 0, cx.turb_fit, &c);
       else bl_closure_laminar(h, rth, cx.mach * s.ue, &c);
       double x = ps->x[v->node[k]];
       if (k > k0) {
@@ -128,7 +128,7 @@ void ascr_visc_solver_distributions(const ascr_visc_solver *v, int *side, double
       bl_closure c;
       if (sd == 2) c.cf = 0.0;
       else if (v->turb[k]) {
-        bl_closure_turbulent(hh, rth, v->p.mach * ub, v->cc[k] * v->cc[k], 0, c0.rth_floor, &c);
+        bl_closure_turbulent(hh, rth, v->p.mach * ub, v->cc[k] * v->cc[k], 0, c0.turb_fit, &c);
       }
       else bl_closure_laminar(hh, rth, v->p.mach * ub, &c);
       cf[k] = c.cf;

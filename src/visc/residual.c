@@ -42,12 +42,13 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
   e->rth = cx->re * ue * th;
   if (turb) {
     double sc = s->c > 1e-5 ? s->c : 1e-5;
-    bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, cx->rth_floor, &e->c);
+    bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, cx->turb_fit, &e->c);
     /* the wake's shorter dissipation length (bl_lag_rate) goes with the exact formulation for
      * now: measured on the robustness grid it lifts the exact formulation from 980 to 1068
      * converged points of 1125 and takes the banded iteration from 1080 to 1053, whose states
      * it moves along their path (docs/theory/viscous.md, "The wake") */
-    e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, wake && cx->exact_tr);
+    e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, e->c.cf, wake && cx->exact_tr,
+                         cx->turb_fit.coles);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(e->h, e->rth, e->me, &e->c);

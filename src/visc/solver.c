@@ -27,8 +27,8 @@
  * (ASCR_VISC_START_MARCH), the coupled march (ASCR_VISC_START_COUPLED_MARCH), both marches
  * with a provisional trip on the suction side solved again without it (start_with_trip), and
  * both marches at a higher Reynolds number continued down (start_from_higher_re); each group of
- * fresh starts, where it fails, once more with the turbulent Re_theta floor lowered and continued
- * back up (from_lower_floor). Whichever start leads to it, a result is a state the equations and
+ * fresh starts, where it fails, once more with the turbulent fits as they were before (a lower
+ * Re_theta floor, no Coles bound) and continued to the present ones (from_lower_floor). Whichever start leads to it, a result is a state the equations and
  * the exact transition rule accept at the requested condition.
  */
 #include "visc/visc_impl.h"
@@ -285,34 +285,34 @@ static ascr_status fresh_group(ascr_visc_solver *v, int group, double alpha_rad,
   return st;
 }
 
-/* A group of fresh starts with the turbulent fits' Re_theta floor lowered to a plain maximum at
- * START_RTH_MIN (the floor the code had before, without a source), and the state continued in
- * the floor, min = START_RTH_MIN + t (BL_TURB_RTH_MIN - START_RTH_MIN), width = t
- * BL_TURB_RTH_WIDTH, from t = 0 to 1 (two steps, each halved where it fails, down to a tenth): a
- * continuation in a parameter of the closure, as start_from_higher_re's is in the Reynolds
- * number, judged at the requested condition alone. It is for the states the floor made hard to
- * start: past stall (NACA 0012 and 2412 at 15-16 deg, Re 3e4-1e6: transition near the leading
- * edge, where the young turbulent layer has Re_theta 100-300) and the thin plates at Re 5,000.
- * START_RTH_MIN is a path control. */
+/* A group of fresh starts with the turbulent fits as the code had them before (bl_impl.h): the
+ * Re_theta floor a plain maximum at START_RTH_MIN (without a source) and no Coles bound on the
+ * lag thickness; the state continued in the fits, floor min = START_RTH_MIN + t (BL_TURB_RTH_MIN
+ * - START_RTH_MIN), width = t BL_TURB_RTH_WIDTH, Coles weight t, from t = 0 to 1 (two steps,
+ * each halved where it fails, down to a tenth): a continuation in parameters of the closure, as
+ * start_from_higher_re's is in the Reynolds number, judged at the requested condition alone. It
+ * is for the states the two changes made hard to start: past stall (NACA 0012 and 2412 at 15-16
+ * deg, Re 3e4-1e6: transition near the leading edge, where the young turbulent layer has
+ * Re_theta 100-300) and the thin plates at Re 5,000. START_RTH_MIN is a path control. */
 #define START_RTH_MIN 200.0
-static bl_rth_floor floor_at(double t)
+static bl_turb_fit floor_at(double t)
 {
-  bl_rth_floor f = {START_RTH_MIN + t * (BL_TURB_RTH_MIN - START_RTH_MIN), t * BL_TURB_RTH_WIDTH};
+  bl_turb_fit f = {START_RTH_MIN + t * (BL_TURB_RTH_MIN - START_RTH_MIN), t * BL_TURB_RTH_WIDTH, t};
   return f;
 }
 
 static ascr_status from_lower_floor(ascr_visc_solver *v, int group, double alpha_rad,
                                     ascr_visc_result *r)
 {
-  const bl_rth_floor own = v->rth_floor;
-  v->rth_floor = floor_at(0.0);
+  const bl_turb_fit own = v->turb_fit;
+  v->turb_fit = floor_at(0.0);
   ascr_status st = fresh_group(v, group, alpha_rad, r, NULL);
   int its = r->iterations;
   double t = 0.0, step = 0.5;
   while (st == ASCR_OK && t < 1.0) {
     visc_snapshot(v, 1);
     double next = fmin(t + step, 1.0);
-    v->rth_floor = floor_at(next);
+    v->turb_fit = floor_at(next);
     v->pred_off = 1;
     st = solve_once(v, alpha_rad, 1, ASCR_VISC_START_MARCH, r, NULL);
     v->pred_off = 0;
@@ -325,7 +325,7 @@ static ascr_status from_lower_floor(ascr_visc_solver *v, int group, double alpha
       st = ASCR_OK;
     }
   }
-  v->rth_floor = own;
+  v->turb_fit = own;
   r->iterations = its;
   if (st != ASCR_OK) v->have_solution = 0;
   return st;

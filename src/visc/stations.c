@@ -197,7 +197,7 @@ vctx visc_context(const ascr_visc_solver *v, int side)
   c.re = v->p.re;
   c.mach = v->p.mach;
   c.ncrit = v->p.ncrit;
-  c.rth_floor = v->rth_floor;
+  c.turb_fit = v->turb_fit;
   c.xi_trip = -1.0;
   /* the stagnation-flow gradient from the second stations of the two sides: their edge
    * velocities are well away from zero, while the first stations' can be dominated by the
