@@ -59,6 +59,14 @@ typedef struct bl_turb_fit {
   double coles;
 } bl_turb_fit;
 
+/* The fits as published (Preston's floor, its smoothing width, Coles' bound in full): the one
+ * place the defaults are written. */
+static inline bl_turb_fit bl_turb_fit_published(void)
+{
+  bl_turb_fit f = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH, 1.0};
+  return f;
+}
+
 /* Turbulent closures at H, Re_theta, Ctau (Drela & Giles 1987; Swafford 1983 for Cf), with
  * Re_theta held above the floor fl (normally BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH).
  * wake = 1 sets Cf = 0 and doubles the outer-layer dissipation scale as for a free shear layer. */

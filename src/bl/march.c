@@ -46,9 +46,10 @@ ascr_bl_params ascr_bl_params_defaults(void)
   p.ncrit = 9.0;
   p.s_trip = -1.0;
   p.start = ASCR_BL_START_SIMILAR;
-  p.turb_rth_min = BL_TURB_RTH_MIN;
-  p.turb_rth_width = BL_TURB_RTH_WIDTH;
-  p.turb_lag_coles = 1.0;
+  const bl_turb_fit fit = bl_turb_fit_published();
+  p.turb_rth_min = fit.rth_min;
+  p.turb_rth_width = fit.rth_width;
+  p.turb_lag_coles = fit.coles;
   return p;
 }
 
@@ -67,14 +68,14 @@ typedef struct st_eval {
   double amp;     /* dN/dxi (laminar) */
 } st_eval;
 
-static void evaluate(const st_state *s, double re, double mach, bl_turb_fit rmin, st_eval *e)
+static void evaluate(const st_state *s, double re, double mach, bl_turb_fit fit, st_eval *e)
 {
   e->me = mach * s->ue;
   e->rth = re * s->ue * s->theta;
   if (s->turb) {
-    bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, rmin, &e->c);
+    bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, fit, &e->c);
     double hk = e->c.hk;
-    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, e->c.cf, 0, rmin.coles);
+    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, e->c.cf, 0, fit.coles);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(s->h, e->rth, e->me, &e->c);
@@ -87,10 +88,10 @@ static void evaluate(const st_state *s, double re, double mach, bl_turb_fit rmin
 
 /* Interval residuals for station b given station a. */
 static void residuals(const st_state *a, const st_eval *ea, const st_state *b, double re,
-                      double mach, bl_turb_fit rmin, double *r)
+                      double mach, bl_turb_fit fit, double *r)
 {
   st_eval eb;
-  evaluate(b, re, mach, rmin, &eb);
+  evaluate(b, re, mach, fit, &eb);
   double dxi = b->xi - a->xi;
   double lue = log(b->ue / a->ue);
   double hm = 0.5 * (a->h + b->h);
@@ -106,15 +107,15 @@ static void residuals(const st_state *a, const st_eval *ea, const st_state *b, d
 
 /* Solve the interval a -> b; b holds the initial guess and receives the solution.
  * Returns the iteration count, or -1 on failure (b left at the last iterate). */
-static int solve_interval(const st_state *a, st_state *b, double re, double mach, bl_turb_fit rmin,
+static int solve_interval(const st_state *a, st_state *b, double re, double mach, bl_turb_fit fit,
                           double *resid)
 {
   st_eval ea;
-  evaluate(a, re, mach, rmin, &ea);
+  evaluate(a, re, mach, fit, &ea);
   int n = b->turb ? 3 : 2;
   for (int it = 1; it <= NEWTON_MAX; it++) {
     double r[3] = {0, 0, 0};
-    residuals(a, &ea, b, re, mach, rmin, r);
+    residuals(a, &ea, b, re, mach, fit, r);
     double rmax = 0.0;
     for (int i = 0; i < n; i++) rmax = fmax(rmax, fabs(r[i]));
     *resid = rmax;
@@ -135,7 +136,7 @@ static int solve_interval(const st_state *a, st_state *b, double re, double mach
         p.sc = b->sc + h;
       }
       double rp[3] = {0, 0, 0};
-      residuals(a, &ea, &p, re, mach, rmin, rp);
+      residuals(a, &ea, &p, re, mach, fit, rp);
       for (int i = 0; i < n; i++) J[i][j] = (rp[i] - r[i]) / h;
     }
     double jm[9], dx[3] = {0, 0, 0};
@@ -203,11 +204,11 @@ int bl_similarity_start(double m, double re, double ue, double xi, double *theta
   return 0;
 }
 
-static void store(const st_state *s, double re, double mach, bl_turb_fit rmin, double n,
+static void store(const st_state *s, double re, double mach, bl_turb_fit fit, double n,
                   ascr_bl_station *o)
 {
   st_eval e;
-  evaluate(s, re, mach, rmin, &e);
+  evaluate(s, re, mach, fit, &e);
   o->s = s->xi;
   o->ue = s->ue;
   o->theta = s->theta;
@@ -262,7 +263,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
   }
   memset(out, 0, n * sizeof *out);
   const double re = p->re, mach = p->mach;
-  const bl_turb_fit rmin = {p->turb_rth_min, p->turb_rth_width, p->turb_lag_coles};
+  const bl_turb_fit fit = {p->turb_rth_min, p->turb_rth_width, p->turb_lag_coles};
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];
@@ -279,7 +280,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
     a.h = 1.3;
     a.turb = 1;
     bl_closure c;
-    bl_closure_turbulent(a.h, re * a.ue * a.theta, mach * a.ue, 1e-4, 0, rmin, &c);
+    bl_closure_turbulent(a.h, re * a.ue * a.theta, mach * a.ue, 1e-4, 0, fit, &c);
     a.sc = sqrt(c.ctau_eq);
     res->s_transition = s[0];
     res->forced = 1;
@@ -294,7 +295,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
       return core_fail(err, ASCR_EMAXITER, "boundary-layer march: no similarity start for m = %g", m);
     }
   }
-  store(&a, re, mach, rmin, namp, &out[0]);
+  store(&a, re, mach, fit, namp, &out[0]);
   res->n_done = 1;
   for (size_t i = 1; i < n; i++) {
     st_state b = a;
@@ -303,7 +304,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
     double resid = 0.0;
     int its;
     if (!a.turb) {
-      its = solve_interval(&a, &b, re, mach, rmin, &resid);
+      its = solve_interval(&a, &b, re, mach, fit, &resid);
       if (its < 0 || b.h > LAM_SEP_HK * 1.2) {
         if (b.h > 3.5 || a.h > 3.5) {
           res->s_separation = s[i];
@@ -313,8 +314,8 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
                          "Newton failed, residual %.2e", i, s[i], resid);
       }
       st_eval ea, eb;
-      evaluate(&a, re, mach, rmin, &ea);
-      evaluate(&b, re, mach, rmin, &eb);
+      evaluate(&a, re, mach, fit, &ea);
+      evaluate(&b, re, mach, fit, &eb);
       double n2 = namp + bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
       int trip = p->s_trip >= 0.0 && p->s_trip > a.xi && p->s_trip <= b.xi;
       if (n2 >= p->ncrit || trip) {
@@ -329,7 +330,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         if (xtr - a.xi > 1e-12 * (1.0 + fabs(a.xi))) {
           t.xi = xtr;
           t.ue = a.ue + (b.ue - a.ue) * (xtr - a.xi) / (b.xi - a.xi);
-          its = solve_interval(&a, &t, re, mach, rmin, &resid);
+          its = solve_interval(&a, &t, re, mach, fit, &resid);
           if (its < 0) {
             return core_fail(err, ASCR_EMAXITER, "boundary-layer march: transition at s = %.5g: "
                              "laminar part failed, residual %.2e", xtr, resid);
@@ -338,7 +339,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         st_eval et;
         t.turb = 1;
         t.sc = 0.0;
-        evaluate(&t, re, mach, rmin, &et);
+        evaluate(&t, re, mach, fit, &et);
         t.sc = sqrt(bl_ctau_initial(et.c.hk, et.c.ctau_eq));
         res->s_transition = xtr;
         res->forced = forced;
@@ -348,13 +349,13 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         b.xi = s[i];
         b.ue = ue[i];
         if (b.xi - t.xi > 1e-12 * (1.0 + fabs(t.xi))) {
-          its = solve_interval(&t, &b, re, mach, rmin, &resid);
+          its = solve_interval(&t, &b, re, mach, fit, &resid);
           if (its < 0) {
             b = t;
             b.xi = s[i];
             b.ue = ue[i];
             b.h = 1.6;
-            its = solve_interval(&t, &b, re, mach, rmin, &resid);
+            its = solve_interval(&t, &b, re, mach, fit, &resid);
           }
           if (its < 0) {
             return core_fail(err, ASCR_EMAXITER, "boundary-layer march: station %zu (s = %.5g) "
@@ -365,7 +366,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
         namp = n2;
       }
     } else {
-      its = solve_interval(&a, &b, re, mach, rmin, &resid);
+      its = solve_interval(&a, &b, re, mach, fit, &resid);
       if (its < 0 || b.h > TURB_SEP_HK * 1.3) {
         if (b.h > 2.5 || a.h > 2.5) {
           res->s_separation = s[i];
@@ -376,7 +377,7 @@ ascr_status ascr_bl_march(const double *s, const double *ue, size_t n, const asc
       }
     }
     if (its > res->max_iterations) res->max_iterations = its;
-    store(&b, re, mach, rmin, namp, &out[i]);
+    store(&b, re, mach, fit, namp, &out[i]);
     res->n_done = i + 1;
     if ((!b.turb && out[i].hk > LAM_SEP_HK) || (b.turb && out[i].hk > TURB_SEP_HK)) {
       /* where the skin friction, falling, extrapolates linearly to zero (at most five
@@ -399,7 +400,7 @@ size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *
                              double *theta, double *h, double *nn, int *why)
 {
   /* a laminar march: the turbulent fits are not used */
-  const bl_turb_fit rmin = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH, 1.0};
+  const bl_turb_fit fit = bl_turb_fit_published();
   st_state a;
   a.xi = s[0];
   a.ue = ue[0];
@@ -417,14 +418,14 @@ size_t bl_march_laminar_from(double theta0, double h0, double n0, const double *
     b.xi = s[i];
     b.ue = ue[i];
     double resid;
-    int its = solve_interval(&a, &b, re, mach, rmin, &resid);
+    int its = solve_interval(&a, &b, re, mach, fit, &resid);
     st_eval ea, eb;
     if (its < 0) {
       *why = 2;
       return i;
     }
-    evaluate(&a, re, mach, rmin, &ea);
-    evaluate(&b, re, mach, rmin, &eb);
+    evaluate(&a, re, mach, fit, &ea);
+    evaluate(&b, re, mach, fit, &eb);
     namp += bl_interval_integral(ea.amp, eb.amp, a.xi, b.xi);
     theta[i] = b.theta;
     h[i] = b.h;

@@ -43,7 +43,7 @@ enum { VR_STAG = 0, VR_LAM = 1, VR_TRANS = 2, VR_TURB = 3, VR_WAKE = 4, VR_MERGE
 
 typedef struct vctx {
   double re, mach, ncrit;
-  bl_turb_fit turb_fit; /* least Re_theta of the turbulent fits (v->turb_fit) */
+  bl_turb_fit turb_fit; /* how the turbulent fits are evaluated (v->turb_fit) */
   double xi_trip; /* forced transition xi on this side (negative for none) */
   double stag_a;  /* edge-velocity gradient at the stagnation point, d ue / d xi */
   double xi_min;  /* least distance of a first station from the stagnation point */
@@ -129,8 +129,8 @@ struct ascr_visc_solver {
   double *xi;                /* nst: distance from the stagnation point (surfaces), from the TE (wake) */
   double *dfirst;            /* nst: distance from the side's first node (surfaces) */
   double dsp;                /* length of the panel holding the stagnation point */
-  bl_turb_fit turb_fit;    /* least Re_theta of the turbulent fits (BL_TURB_RTH_MIN and
-                              * _WIDTH), lowered only inside a start (solver.c) */
+  bl_turb_fit turb_fit;    /* how the turbulent fits are evaluated: as published
+                              * (bl_turb_fit_published), changed only inside a start (solver.c) */
   double *D;                 /* nst x nst row-major */
   double *ue_inv;            /* nst */
   size_t *pa, *pb;           /* stations at the ends of each source panel, np */

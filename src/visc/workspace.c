@@ -218,9 +218,7 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   v->alpha = NAN;
   v->cur_alpha = v->cur_re = v->cur_cl = NAN;
   v->pred_prev.valid = 0;
-  v->turb_fit.rth_min = BL_TURB_RTH_MIN;
-  v->turb_fit.rth_width = BL_TURB_RTH_WIDTH;
-  v->turb_fit.coles = 1.0;
+  v->turb_fit = bl_turb_fit_published();
   const size_t n = v->n, m = n + 1, np = v->np;
   v->snode[0] = 0.0;
   for (size_t i = 1; i < n; i++) {

@@ -177,7 +177,7 @@ static void test_bl_flat_plate_transition(void **state)
 static void test_bl_turbulent_fits_held_above_preston_minimum(void **state)
 {
   (void)state;
-  const bl_turb_fit preston = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH, 1.0}, plain = {320.0, 0.0, 1.0};
+  const bl_turb_fit preston = bl_turb_fit_published(), plain = {320.0, 0.0, 1.0};
   bl_closure a, b, c, d;
   bl_closure_turbulent(1.5, 50.0, 0.0, 0.01, 0, preston, &a);
   bl_closure_turbulent(1.5, 150.0, 0.0, 0.01, 0, preston, &b);
@@ -202,7 +202,7 @@ static void test_bl_turbulent_fits_held_above_preston_minimum(void **state)
 static void test_bl_lag_thickness_bounded_by_coles(void **state)
 {
   (void)state;
-  const bl_turb_fit fit = {BL_TURB_RTH_MIN, BL_TURB_RTH_WIDTH, 1.0};
+  const bl_turb_fit fit = bl_turb_fit_published();
   const double th = 1e-3, sc = 0.03, eq = 0.02;
   bl_closure c;
   bl_closure_turbulent(1.4, 2000.0, 0.0, sc * sc, 0, fit, &c);
