@@ -12,6 +12,7 @@
 #include "airscrew/ascr_geom.h"
 #include "airscrew/ascr_panel.h"
 #include "airscrew/ascr_bl.h"
+#include "airscrew/ascr_stability.h"
 #include "airscrew/ascr_visc.h"
 #include "airscrew/ascr_polar.h"
 #include "airscrew/ascr_table.h"
