@@ -13,7 +13,7 @@
  *   Falkner-Skan: f''' + f f'' + beta (1 - f'^2) = 0, f(0) = f'(0) = 0, f'(inf) = 1, with
  *     eta = y sqrt((m+1) ue / (2 nu x)), beta = 2m/(m+1); D. R. Hartree, Proc. Camb. Phil. Soc.
  *     33, 1937 (attached branch); K. Stewartson, Proc. Camb. Phil. Soc. 50, 1954 (the
- *     reversed-flow branch, f''(0) < 0, for -0.1988 < beta < 0).
+ *     reversed-flow branch, f''(0) < 0, for -0.19884 < beta < 0).
  *   Orr-Sommerfeld: (U - c)(phi'' - a^2 phi) - U'' phi = (phi'''' - 2 a^2 phi'' + a^4 phi)/(i a Re),
  *     phi = phi' = 0 at the wall and far out; Chebyshev collocation as in L. N. Trefethen,
  *     "Spectral Methods in MATLAB", SIAM 2000, ch. 6 and 14.
@@ -51,8 +51,9 @@ typedef struct ascr_stability ascr_stability;
 ASCR_EXPORT ascr_stability *ascr_stability_alloc(size_t n, size_t n_re_max);
 ASCR_EXPORT void ascr_stability_free(ascr_stability *w);
 
-/** Solve the Falkner-Skan profile of beta (attached: -0.1988 < beta <= 2; reversed:
- *  -0.1988 < beta < -0.02) and make it the profile of the following calls.
+/** Solve the Falkner-Skan profile of beta (attached: -0.19884 < beta <= 2; reversed:
+ *  -0.19884 < beta < -0.02; Hartree's separation profile at -0.19884) and make it the profile
+ *  of the following calls.
  *  @return ASCR_OK; ASCR_EINVAL outside the range; ASCR_EMAXITER if no shooting solution. */
 ASCR_EXPORT ascr_status ascr_stability_set_falkner_skan(ascr_stability *w, double beta,
                                                         int reversed, ascr_fs_profile *info,

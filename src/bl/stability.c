@@ -22,12 +22,13 @@
 #define CURVE_COARSE 60   /* coarse wavenumber scan, alpha_theta 0.02 .. 1.2 */
 #define CURVE_FINE 40     /* fine scan over the unstable band */
 #define ENV_FAMILIES 400  /* physical frequencies followed by the envelope */
+#define OS_DOMAIN 40.0    /* least outer edge of the collocation domain, eta units */
 
 struct ascr_stability {
   size_t n, m, n_re_max;
   /* profile */
   double *f0, *f1, *f2;
-  double beta, eta_max, theta_eta;
+  double beta, eta_max, theta_eta, y_max;
   int have;
   /* collocation: D in the Chebyshev variable xi, then mapped to eta in [0, eta_max] */
   double *xi, *d1x, *d1, *d2, *d4, *u, *u2;
@@ -199,21 +200,20 @@ ascr_status ascr_stability_set_falkner_skan(ascr_stability *w, double beta, int 
                                             ascr_fs_profile *info, ascr_errbuf *err)
 {
   if (w == NULL) return core_fail(err, ASCR_EINVAL, "stability: NULL workspace");
-  if (!(beta > -0.1988) || !(beta <= 2.0) || (reversed && !(beta < -0.02)))
+  if (!(beta > -0.19884) || !(beta <= 2.0) || (reversed && !(beta < -0.02)))
     return core_fail(err, ASCR_EINVAL,
                      "stability: beta = %g outside the %s branch (%s)", beta,
                      reversed ? "reversed-flow" : "attached",
-                     reversed ? "-0.1988 < beta < -0.02" : "-0.1988 < beta <= 2");
+                     reversed ? "-0.19884 < beta < -0.02" : "-0.19884 < beta <= 2");
   /* the reversed branch's layer thickens without bound as beta -> 0- */
   double eta_max = reversed ? fmax(20.0, 1.2 / fabs(beta) + 8.0) : 14.0;
   double s_hi = reversed ? -1e-4 : 2.0, s_lo = reversed ? -0.4 : 0.0;
   double prev = NAN, ps = s_hi;
   int found = 0;
   double root = 0.0;
-  for (double s = s_hi; s >= s_lo - 1e-12; s -= FS_SCAN_STEP) {
+  for (double s = s_hi; s >= s_lo - 1e-12 && !found; s -= FS_SCAN_STEP) {
     double fv = fs_shoot(w, beta, s, eta_max, 0);
-    if (isfinite(prev) && (fv > 0.0) != (prev > 0.0) && fabs(fv) < FS_BLOWUP &&
-        fabs(prev) < FS_BLOWUP) {
+    if (isfinite(prev) && (fv > 0.0) != (prev > 0.0)) {
       double lo = ps, hi = s, flo = prev;
       for (int k = 0; k < 60; k++) {
         double mid = 0.5 * (lo + hi), fm = fs_shoot(w, beta, mid, eta_max, 0);
@@ -224,9 +224,14 @@ ascr_status ascr_stability_set_falkner_skan(ascr_stability *w, double beta, int 
           hi = mid;
         }
       }
-      root = 0.5 * (lo + hi);
-      found = 1;
-      break;
+      /* a solution reaches the outer flow (f' = 1, f'' = 0); a sign change between two
+       * run-away shots that meet elsewhere is none */
+      double r = 0.5 * (lo + hi);
+      double fr = fs_shoot(w, beta, r, eta_max, 1);
+      if (fabs(fr) < 1e-4 && fabs(w->f2[FS_POINTS - 1]) < 1e-3) {
+        root = r;
+        found = 1;
+      }
     }
     prev = fv;
     ps = s;
@@ -243,11 +248,15 @@ ascr_status ascr_stability_set_falkner_skan(ascr_stability *w, double beta, int 
   }
   w->beta = beta;
   w->eta_max = eta_max;
+  /* the disturbances decay like exp(-alpha y) outside the layer: the collocation domain reaches
+   * OS_DOMAIN eta units at least (a domain of 14 put the Blasius critical phase speed at 0.39714,
+   * 40 at 0.39656 against Jordinson's 0.3965) */
+  w->y_max = fmax(eta_max, OS_DOMAIN);
   w->theta_eta = th;
   w->have = 1;
-  /* collocation on eta = eta_max (1 - xi)/2 */
+  /* collocation on eta = y_max (1 - xi)/2 */
   size_t m = w->m;
-  double sc = -2.0 / eta_max;
+  double sc = -2.0 / w->y_max;
   for (size_t k = 0; k < m * m; k++) w->d1[k] = sc * w->d1x[k];
   for (size_t i = 0; i < m; i++)
     for (size_t j = 0; j < m; j++) {
@@ -261,7 +270,7 @@ ascr_status ascr_stability_set_falkner_skan(ascr_stability *w, double beta, int 
       for (size_t k = 0; k < m; k++) s4 += w->d2[i * m + k] * w->d2[k * m + j];
       w->d4[i * m + j] = s4;
     }
-  for (size_t i = 0; i < m; i++) fs_at(w, eta_max * (1.0 - w->xi[i]) / 2.0, &w->u[i], &w->u2[i]);
+  for (size_t i = 0; i < m; i++) fs_at(w, w->y_max * (1.0 - w->xi[i]) / 2.0, &w->u[i], &w->u2[i]);
   if (info != NULL) {
     info->beta = beta;
     info->reversed = reversed;
