@@ -12,6 +12,11 @@
  *     l = (6.54 Hk - 14.07)/Hk^2, m = (0.058 (Hk-4)^2/(Hk-1) - 0.068)/l.
  *     Amplification starts where Re_theta exceeds Re_theta,0; a smooth ramp over
  *     +-0.08 in log10 Re_theta avoids a jump in the rate (a choice of ours).
+ *     Checked against the e^N envelope computed from the Orr-Sommerfeld equation
+ *     (src/bl/stability.c; tests/bl/test_bl_stability.c): within 5 % on the attached branch;
+ *     on the reversed-flow branch (H above 4) the fit runs 25 % to 3.6 times faster than the
+ *     computed envelope (docs/theory/viscous.md), kept because the UIUC comparison is worse
+ *     without it.
  *   L. M. Mack, "Transition prediction and linear stability theory", AGARD CP-224, 1977:
  *     N_crit = -8.43 - 2.4 ln(Tu).
  *   Initial Ctau: 1.8 exp(-3.3/(Hk - 1)) Ctau_EQ (Drela 1989, "XFOIL: an analysis and design
