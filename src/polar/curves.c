@@ -186,8 +186,9 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * turbulent fits held above Preston's minimum Re_theta (every point with a young turbulent layer
  * or a wake at low Re) and the fresh starts from a lower floor (2026-12-04); 12 = the lag
  * thickness bounded by Coles' wake law (turbulent layers relaxing behind bubbles, post-stall
- * states; 2026-12-04). */
-#define CURVE_NUMERICS_REVISION 12
+ * states; 2026-12-04); 13 = the single point's walk from zero lift along the 0.5-deg lattice
+ * (a sweep's first point: which branch it follows; 2026-12-05). */
+#define CURVE_NUMERICS_REVISION 13
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

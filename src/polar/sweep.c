@@ -128,23 +128,38 @@ static double zero_lift_deg(const ascr_visc_solver *v)
 }
 
 /* The single point's path (ascr_polar_solve_point): a fresh start at the inviscid zero-lift
- * angle, then continuation to alpha_deg in equal steps of at most max_step deg (with the
- * sweep's step refinement); angles that fail are passed over. The start angle depends only on the section,
- * so every angle is reached from the same state, as the sweep reaches its angles from its start
- * near zero lift. Returns 1 if alpha_deg itself converged (its result in r). */
-static int walk_from_zero_lift(ascr_visc_solver *v, double alpha_deg, double max_step,
+ * angle, then continuation along the lattice of multiples of `lattice` deg: to the lattice
+ * angle nearest zero lift, lattice step by lattice step towards alpha_deg, and from the last
+ * lattice angle before it to alpha_deg (each step with the sweep's step refinement); angles
+ * that fail are passed over. The path depends only on the section and the angle, and at
+ * lattice angles it is the path of a sweep over lattice angles in lattice steps (which starts
+ * at its grid angle nearest zero lift, reached from the zero-lift angle, and walks from there):
+ * where the discrete equations have two states at an angle (a laminar layer separated to the
+ * trailing edge or not, SD7003 at Re 1e5 near zero lift: cl 0.56 and 0.33 at 1 deg) the single
+ * point gives the state the sweep gives, not one its own path happened to reach. Returns 1 if
+ * alpha_deg itself converged (its result in r). */
+static int walk_from_zero_lift(ascr_visc_solver *v, double alpha_deg, double lattice,
                                ascr_visc_result *r, int *its, double *a_reached)
 {
   double azl = zero_lift_deg(v);
-  int m = (int)ceil(fabs(alpha_deg - azl) / max_step - 1e-9);
-  if (m < 1) m = 1;
+  double c0 = lattice * floor(azl / lattice + 0.5);
+  double dir = alpha_deg >= c0 ? 1.0 : -1.0;
+  /* lattice angles from c0 towards alpha_deg, alpha_deg excluded */
+  long m = (long)floor(fabs(alpha_deg - c0) / lattice + 1e-9);
+  if (m > 0 && fabs(c0 + dir * lattice * (double)m - alpha_deg) < 1e-9) m--;
   int have = 0;
   double alast = NAN;
   ascr_visc_result rr;
   memset(&rr, 0, sizeof rr);
-  for (int k = 0; k <= m; k++) {
-    double a = k == m ? alpha_deg : azl + (alpha_deg - azl) * (double)k / (double)m;
-    int ok = solve_point(v, have, alast, a, k < m, &rr); /* the target: continued only */
+  /* the zero-lift angle itself (fresh), then c0 .. c0 + dir m lattice, then the target */
+  for (long k = -1; k <= m + 1; k++) {
+    double a;
+    if (k < 0) a = azl;
+    else if (k <= m) a = c0 + dir * lattice * (double)k;
+    else a = alpha_deg;
+    if (k >= 0 && have && fabs(a - alast) < 1e-12) continue; /* c0 at zero lift exactly */
+    /* fresh starts allowed where continuation fails, at the target too, as in a sweep */
+    int ok = solve_point(v, have, alast, a, 1, &rr);
     *its += rr.iterations;
     if (ok) {
       have = 1;
@@ -156,19 +171,17 @@ static int walk_from_zero_lift(ascr_visc_solver *v, double alpha_deg, double max
   return have && alast == alpha_deg;
 }
 
-/* The single point: the walk from zero lift in steps of at most 1 deg, where it ends before the
- * angle the same walk in steps of at most 0.5 deg (the robustness grid's step: on the 4 %-thick,
- * 6 %-camber plate at Re 1e4 and 2e4 the sweep reaches 4 deg in such steps where 1-deg steps
- * fail), and where that ends too a fresh start at the angle (the state a fresh start reaches
- * depends only on the condition). 1 if converged, its state then in slot 0; the iterations of
- * every solve in r->iterations. If not, *a_reached is the last angle the last walk converged
- * (its state in slot 0), NaN if none. */
+/* The single point: the walk from zero lift along the lattice of 0.5 deg (a sweep's usual
+ * step), where it ends before the angle the same walk along 0.25 deg, and where that ends too a
+ * fresh start at the angle (the state a fresh start reaches depends only on the condition). 1
+ * if converged, its state then in slot 0; the iterations of every solve in r->iterations. If
+ * not, *a_reached is the last angle the last walk converged (its state in slot 0), NaN if none. */
 static int single_point(ascr_visc_solver *v, double alpha_deg, ascr_visc_result *r,
                         double *a_reached)
 {
   int its = 0;
-  int ok = walk_from_zero_lift(v, alpha_deg, 1.0, r, &its, a_reached);
-  if (!ok) ok = walk_from_zero_lift(v, alpha_deg, 0.5, r, &its, a_reached);
+  int ok = walk_from_zero_lift(v, alpha_deg, 0.5, r, &its, a_reached);
+  if (!ok) ok = walk_from_zero_lift(v, alpha_deg, 0.25, r, &its, a_reached);
   if (!ok) {
     ok = visc_solve(v, alpha_deg * DEG, 0, 1, r, NULL) == ASCR_OK;
     if (ok) visc_snapshot(v, 0);
