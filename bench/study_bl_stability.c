@@ -61,21 +61,8 @@ int main(int argc, char **argv)
       printf("%s\n", err.msg);
       continue;
     }
-    double sx = 0, sy = 0, sxx = 0, sxy = 0;
-    int n = 0;
-    for (int k = 0; k < NRE; k++)
-      if (nenv[k] >= 1.0 && nenv[k] <= 9.0) {
-        sx += re[k];
-        sy += nenv[k];
-        sxx += re[k] * re[k];
-        sxy += re[k] * nenv[k];
-        n++;
-      }
-    double slope = NAN, onset = NAN;
-    if (n >= 3) {
-      slope = (n * sxy - sx * sy) / (n * sxx - sx * sx);
-      onset = (sx - sy / slope) / n;
-    }
+    double slope, onset;
+    int n = (int)ascr_stability_envelope_line(re, nenv, NRE, 1.0, 9.0, &slope, &onset);
     printf("%-7.3f %-4s %7.3f | %9.4f | %10.4f (n %2d) %8.0f | %13.4f %8.0f\n", cases[c].beta,
            cases[c].rev ? "rev" : "att", fp.h, gmax, slope * fp.theta_eta * fp.theta_eta, n,
            onset, bl_amplification_rate(fp.h, 1.0, 1e7), r0);

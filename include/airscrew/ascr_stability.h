@@ -79,6 +79,13 @@ ASCR_EXPORT ascr_status ascr_stability_spatial_max(ascr_stability *w, double re_
 ASCR_EXPORT ascr_status ascr_stability_fs_envelope(ascr_stability *w, const double *re_theta,
                                                    size_t n, double *n_env, ascr_errbuf *err);
 
+/** The straight line N = slope (Re_theta - onset) fitted by least squares to the envelope's
+ *  points with n_lo <= N <= n_hi (the correlation's form: Drela & Giles 1987); returns the
+ *  number of points used, and leaves slope and onset NaN if fewer than 3. */
+ASCR_EXPORT size_t ascr_stability_envelope_line(const double *re_theta, const double *n_env,
+                                               size_t n, double n_lo, double n_hi,
+                                               double *slope, double *onset);
+
 #ifdef __cplusplus
 }
 #endif

@@ -470,3 +470,27 @@ ascr_status ascr_stability_fs_envelope(ascr_stability *w, const double *re_theta
   }
   return ASCR_OK;
 }
+
+size_t ascr_stability_envelope_line(const double *re_theta, const double *n_env, size_t n,
+                                    double n_lo, double n_hi, double *slope, double *onset)
+{
+  double sx = 0.0, sy = 0.0, sxx = 0.0, sxy = 0.0;
+  size_t m = 0;
+  *slope = NAN;
+  *onset = NAN;
+  if (re_theta == NULL || n_env == NULL) return 0;
+  for (size_t k = 0; k < n; k++) {
+    if (!(n_env[k] >= n_lo && n_env[k] <= n_hi)) continue;
+    sx += re_theta[k];
+    sy += n_env[k];
+    sxx += re_theta[k] * re_theta[k];
+    sxy += re_theta[k] * n_env[k];
+    m++;
+  }
+  if (m < 3) return m;
+  double dm = (double)m, den = dm * sxx - sx * sx;
+  if (!(den > 0.0)) return m;
+  *slope = (dm * sxy - sx * sy) / den;
+  if (*slope != 0.0) *onset = (sx - sy / *slope) / dm;
+  return m;
+}

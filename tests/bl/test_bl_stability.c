@@ -87,18 +87,8 @@ static void test_stability_envelope_reproduces_correlation(void **state)
     double re[K], ne[K];
     for (int k = 0; k < K; k++) re[k] = lo[c] * pow(hi[c] / lo[c], (double)k / (K - 1));
     assert_int_equal(ascr_stability_fs_envelope(w, re, K, ne, NULL), ASCR_OK);
-    double sx = 0, sy = 0, sxx = 0, sxy = 0;
-    int n = 0;
-    for (int k = 0; k < K; k++)
-      if (ne[k] >= 1.0 && ne[k] <= 9.0) {
-        sx += re[k];
-        sy += ne[k];
-        sxx += re[k] * re[k];
-        sxy += re[k] * ne[k];
-        n++;
-      }
-    assert_true(n >= 5);
-    double slope = (n * sxy - sx * sy) / (n * sxx - sx * sx);
+    double slope, onset;
+    assert_true(ascr_stability_envelope_line(re, ne, K, 1.0, 9.0, &slope, &onset) >= 5);
     ascr_assert_close(slope * p.theta_eta * p.theta_eta, bl_amplification_rate(p.h, 1.0, 1e7),
                       0.08, 0, "envelope slope against the correlation");
   }
@@ -119,6 +109,10 @@ static void test_stability_rejects_bad_input(void **state)
   assert_int_equal(ascr_stability_temporal(w, -0.1, 200, &cr, &ci, &err), ASCR_EINVAL);
   assert_int_equal(ascr_stability_fs_envelope(w, re, 3, ne, &err), ASCR_EINVAL);
   assert_int_equal(ascr_stability_fs_envelope(w, re, 9, ne, &err), ASCR_EINVAL);
+  /* a line needs three points in the N range */
+  double nn[3] = {0.5, 2.0, 12.0}, sl, on;
+  assert_int_equal(ascr_stability_envelope_line(re, nn, 3, 1.0, 9.0, &sl, &on), 1);
+  assert_true(isnan(sl) && isnan(on));
   ascr_stability_free(w);
 }
 
