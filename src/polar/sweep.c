@@ -157,7 +157,11 @@ static int walk_from_zero_lift(ascr_visc_solver *v, double alpha_deg, double lat
     if (k < 0) a = azl;
     else if (k <= m) a = c0 + dir * lattice * (double)k;
     else a = alpha_deg;
-    if (k >= 0 && have && fabs(a - alast) < 1e-12) continue; /* c0 at zero lift exactly */
+    if (k >= 0 && have && fabs(a - alast) < 1e-9) {
+      /* the same angle to rounding (c0 at zero lift, or the target on c0): already reached */
+      alast = a;
+      continue;
+    }
     /* fresh starts allowed where continuation fails, at the target too, as in a sweep */
     int ok = solve_point(v, have, alast, a, 1, &rr);
     *its += rr.iterations;
