@@ -75,7 +75,8 @@ typedef struct ascr_visc_result {
   double x_reattach_lower;
   int converged;             /* 1 if the Newton iteration met the tolerance */
   int iterations;            /* Newton iterations used */
-  double residual;           /* final largest relative update */
+  double residual;           /* error left: the final largest relative update, or the smaller
+                                estimate from the contraction of the last two steps */
 } ascr_visc_result;
 
 /** Solve at angle alpha_rad. warm != 0 starts from the previous solution of this object (if

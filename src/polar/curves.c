@@ -187,8 +187,10 @@ void ascr_section_fingerprint(const ascr_geom_section *sec, char out[17])
  * or a wake at low Re) and the fresh starts from a lower floor (2026-12-04); 12 = the lag
  * thickness bounded by Coles' wake law (turbulent layers relaxing behind bubbles, post-stall
  * states; 2026-12-04); 13 = the single point's walk from zero lift along the 0.5-deg lattice
- * (a sweep's first point: which branch it follows; 2026-12-05). */
-#define CURVE_NUMERICS_REVISION 13
+ * (a sweep's first point: which branch it follows; 2026-12-05); 14 = the Newton iteration
+ * stops on the contraction estimate of its error (every point changes below the tolerance;
+ * which branch a sweep follows in a few bistable places; 2026-12-05). */
+#define CURVE_NUMERICS_REVISION 14
 
 void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq, char key[17],
                           char *text, size_t text_size)

@@ -7,6 +7,7 @@
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
 
+#include <cblas.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -118,11 +119,12 @@ ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *e
         ax = v->xw[kk]; ay = v->yw[kk]; bx2 = v->xw[kk + 1]; by2 = v->yw[kk + 1];
       }
       panel_source_velocity(ax, ay, bx2, by2, mx, my, &su, &sv);
-      double qq = su * tx + sv * ty;
-      for (size_t j = 0; j < n; j++) qq += v->qmid_g[k * n + j] * v->E[j * np + pp];
-      v->qmid[k * np + pp] = qq;
+      v->qmid[k * np + pp] = su * tx + sv * ty;
     }
   }
+  /* plus the sources' effect through the surface vorticity: qmid += qmid_g E(surface rows) */
+  cblas_dgemm(CblasRowMajor, CblasNoTrans, CblasNoTrans, (int)(nw - 1), (int)np, (int)n, 1.0,
+              v->qmid_g, (int)n, v->E, (int)np, 1.0, v->qmid, (int)np);
   /* wake node rows of E and inviscid speeds */
   for (size_t k = 0; k < nw; k++) {
     double *row = v->E + (n + k) * np;

@@ -118,10 +118,10 @@ int visc_solve_structured(ascr_visc_solver *v)
     v->yv[j] = t;
   }
   /* mmat is row-major M, i.e. column-major M^T: factor that and solve with the transpose */
-  lapack_int info = LAPACKE_dgetrf(LAPACK_COL_MAJOR, (lapack_int)nst, (lapack_int)nst, v->mmat,
+  lapack_int info = LAPACKE_dgetrf_work(LAPACK_COL_MAJOR, (lapack_int)nst, (lapack_int)nst, v->mmat,
                                    (lapack_int)nst, v->ipiv2);
   if (info != 0) return 0;
-  info = LAPACKE_dgetrs(LAPACK_COL_MAJOR, 'T', (lapack_int)nst, 1, v->mmat, (lapack_int)nst,
+  info = LAPACKE_dgetrs_work(LAPACK_COL_MAJOR, 'T', (lapack_int)nst, 1, v->mmat, (lapack_int)nst,
                         v->ipiv2, v->yv, (lapack_int)nst);
   if (info != 0) return 0;
   /* dx = w - (L^-1 U) y */

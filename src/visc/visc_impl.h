@@ -94,6 +94,9 @@ typedef struct visc_run {
   int since_best;      /* steps since the residual last fell below 0.7 of its best */
   int n_uphill;        /* steps in a row without descent */
   double rel, rbest;   /* largest relative update of the last step; best residual */
+  double rel_full;     /* that of the step before, where both it and its iterate's intervals
+                          were kept whole (INFINITY otherwise): the contraction estimate */
+  double err;          /* error left after the last step: rel, or the contraction estimate */
   ascr_visc_result res; /* results, filled when the run ends */
 } visc_run;
 
