@@ -216,7 +216,11 @@ static void test_cli_flow_history_lists_the_newton_steps(void **state)
   /* every step counted in "iterations" */
   assert_int_equal((long)n, (long)num(j, "iterations"));
   json_t *last = json_array_get(h, n - 1);
-  assert_true(num(last, "update") < 1e-7);
+  /* converged: the last update below the tolerance 1e-7, or the error it leaves, estimated from
+   * the contraction of the last two steps (Theta/(1 - Theta) |dx|, Theta <= 1/4; driver.c) */
+  double u1 = num(last, "update"), u0 = num(json_array_get(h, n - 2), "update");
+  double theta = u1 / u0;
+  assert_true(u1 < 1e-7 || (theta <= 0.25 && theta / (1.0 - theta) * u1 < 1e-7));
   assert_true(json_is_true(json_object_get(last, "exact_rule")));
   ascr_assert_close(num(last, "x_transition_upper"), num(j, "x_transition_upper"), 0.0, 1e-9,
                     "last step's transition = result's");
