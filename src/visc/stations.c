@@ -10,7 +10,6 @@
 #include "visc/visc_impl.h"
 #include "core/core_impl.h"
 
-#include <cblas.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -122,9 +121,13 @@ int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *i
 
 void visc_update_ue(ascr_visc_solver *v)
 {
-  const int nst = (int)v->nst;
-  memcpy(v->ue, v->ue_inv, v->nst * sizeof *v->ue);
-  cblas_dgemv(CblasRowMajor, CblasNoTrans, nst, nst, 1.0, v->D, nst, v->mm, 1, 1.0, v->ue, 1);
+  const size_t nst = v->nst;
+  for (size_t r = 0; r < nst; r++) {
+    double u = v->ue_inv[r];
+    const double *dr = v->D + r * nst;
+    for (size_t k = 0; k < nst; k++) u += dr[k] * v->mm[k];
+    v->ue[r] = u;
+  }
 }
 
 /* Stagnation point between the first stations of the two sides, where the edge velocity,
