@@ -29,9 +29,9 @@ typedef struct ascr_polar_point {
   int converged;
   int iterations;
   double residual;
-  int bistable;      /* 1 if the sweep, reaching this angle from the other side, converged to
-                        a second state (|dcl| > 0.005 or |dcd| > 1 %); its values below, NaN
-                        otherwise */
+  int bistable;      /* 1 if the sweep, reaching this angle from the other side (or a fresh
+                        start, ascr_polar_check_fresh), converged to a second state
+                        (|dcl| > 0.005 or |dcd| > 1 %); its values below, NaN otherwise */
   double other_cl, other_cd, other_cm;
 } ascr_polar_point;
 
@@ -67,10 +67,22 @@ ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, dou
                                          ascr_polar_summary *sum, ascr_polar_progress_fn progress,
                                          void *progress_ctx, ascr_errbuf *err);
 
+/** A look for the states a sweep does not reach: at every converged, not yet bistable point of
+ *  a sweep (pts, n entries, as ascr_polar_sweep filled them) the solver starts afresh at the
+ *  angle (its marched starts, without the continuations from a higher Reynolds number), and
+ *  where that converges to a state that differs by more than 0.005 in cl or 1 % in cd the point
+ *  is flagged bistable with that state as its second one. The sweep's own state stays the
+ *  point's result. On low-Re sections such states have the lower laminar layer separating at
+ *  the trailing edge (docs/theory/viscous.md). Costs about one cold start per point.
+ *  n_found (may be NULL): points flagged here. @return ASCR_OK; ASCR_EINVAL. */
+ASCR_EXPORT ascr_status ascr_polar_check_fresh(ascr_visc_solver *v, ascr_polar_point *pts,
+                                               size_t n, size_t *n_found, ascr_errbuf *err);
+
 /** Solve one angle as a sweep would reach it: a fresh start at the inviscid zero-lift angle,
- *  then continuation to alpha_deg in equal steps of at most 1 deg (with the sweep's
- *  refinement), where that ends before alpha_deg in steps of at most 0.5 deg, and where that
- *  ends too a fresh start at alpha_deg.
+ *  then continuation along the multiples of 0.5 deg (a sweep's usual grid) to alpha_deg, fresh
+ *  starts allowed where continuation fails (with the sweep's refinement); where that ends
+ *  before alpha_deg the same walk along 0.25 deg, and where that ends too a fresh start at
+ *  alpha_deg.
  *  The result depends only on the section, Re and angle, and is the state a polar sweep
  *  reports there (a fresh start alone can land on another converged state: a 6 %-camber plate
  *  at Re 1e4 and -0.5 deg). @return ASCR_OK; ASCR_EMAXITER if neither converged; ASCR_EINVAL. */

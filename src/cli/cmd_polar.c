@@ -20,8 +20,9 @@ static void polar_help(FILE *fp)
         "Viscous polars: cl, cd, cm and transition against angle of attack, for every\n"
         "Reynolds number (and Mach number) in the lists. The sweep starts near zero lift\n"
         "and continues outward from each converged point, then reaches every angle from\n"
-        "the other side too: an angle with two converged states (hysteresis, a bubble\n"
-        "that bursts) is flagged with both. Points that do not converge are kept and\n"
+        "the other side too, and starts afresh at each angle: an angle with two converged\n"
+        "states (hysteresis, a bubble that bursts, a layer separating at the trailing\n"
+        "edge) is flagged with both. Points that do not converge are kept and\n"
         "flagged, never reported as results. With several Reynolds numbers a summary per\n"
         "Re follows (smallest cd, best L/D, cl_max, zero-lift angle, lift slope, the\n"
         "upper-surface bubble at a chosen cl; also in --json as re_summary).\n"
@@ -49,6 +50,8 @@ static void polar_help(FILE *fp)
         "                         reports the upper-surface bubble (default 0.5)\n"
         "      --table FILE       also write the polars as a polar-table file (for rotor\n"
         "                         --polar-table; Mach 0 curves only)\n"
+        "      --sweep-only       skip the fresh start at each angle (about half the time;\n"
+        "                         second states only the fresh starts reach go unflagged)\n"
         "      --force            replace FILE if it exists\n"
         "  -h, --help             this help\n",
         fp);
@@ -77,6 +80,7 @@ int cmd_polar(int argc, char **argv)
     {"output", required_argument, NULL, 'o'},    {"force", no_argument, NULL, 'F'},
     {"table", required_argument, NULL, 'B'},    {"plot", required_argument, NULL, 'P'},
     {"bubble-cl", required_argument, NULL, 'Q'}, {"ncrit-range", required_argument, NULL, 'G'},
+    {"sweep-only", no_argument, NULL, 'S'},
     {"help", no_argument, NULL, 'h'},            {NULL, 0, NULL, 0}};
   cli_visc_opts vo;
   cli_visc_opts_init(&vo);
@@ -84,7 +88,7 @@ int cmd_polar(int argc, char **argv)
   size_t nre = 0, nmach = 1;
   double a0 = NAN, a1 = NAN, da = NAN, bubble_cl = 0.5, nc_lo = NAN, nc_hi = NAN;
   size_t panels = ASCR_GEOM_DEFAULT_PANELS;
-  int json = 0, csv = 0, force = 0, c;
+  int json = 0, csv = 0, force = 0, sweep_only = 0, c;
   const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
   opterr = 0;
   cli_getopt_reset();
@@ -117,6 +121,7 @@ int cmd_polar(int argc, char **argv)
       if (cli_parse_double("--bubble-cl", optarg, -2.0, 3.0, &bubble_cl)) return CLI_EXIT_USAGE;
       break;
     case 'F': force = 1; break;
+    case 'S': sweep_only = 1; break;
     case 'h': polar_help(stdout); return CLI_EXIT_OK;
     case ':': cli_error("polar: option %s needs a value", argv[optind - 1]); return CLI_EXIT_USAGE;
     default: cli_error("polar: unknown option '%s' (see airscrew polar --help)", argv[optind - 1]); return CLI_EXIT_USAGE;
@@ -206,6 +211,14 @@ int cmd_polar(int argc, char **argv)
       progress_ctx pc = {res[ir], machs[im]};
       st = ascr_polar_sweep(an.visc, a0, a1, da, pts + k * npts, &sums[k], tty ? progress : NULL,
                             &pc, &err);
+      if (st != ASCR_OK) {
+        cli_error("%s", err.msg);
+        rc = cli_exit_for(st);
+        break;
+      }
+      /* the states a fresh start reaches that the sweep's walks do not: flagged as second
+       * states (the sweep's state stays the result) */
+      if (!sweep_only) st = ascr_polar_check_fresh(an.visc, pts + k * npts, npts, NULL, &err);
       if (st != ASCR_OK) {
         cli_error("%s", err.msg);
         rc = cli_exit_for(st);

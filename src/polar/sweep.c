@@ -370,3 +370,29 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
   }
   return ASCR_OK;
 }
+
+ascr_status ascr_polar_check_fresh(ascr_visc_solver *v, ascr_polar_point *pts, size_t n,
+                                   size_t *n_found, ascr_errbuf *err)
+{
+  if (v == NULL || (pts == NULL && n > 0)) {
+    return core_fail(err, ASCR_EINVAL, "fresh-start check: NULL argument");
+  }
+  if (!v->is_set) return core_fail(err, ASCR_EINVAL, "fresh-start check: viscous solver not set");
+  size_t found = 0;
+  for (size_t i = 0; i < n; i++) {
+    ascr_polar_point *p = &pts[i];
+    if (!p->converged || p->bistable) continue;
+    ascr_visc_result r;
+    if (visc_solve_fresh_first(v, p->alpha_deg * DEG, &r) != ASCR_OK || !r.converged) continue;
+    if (fabs(r.cl - p->cl) > BISTABLE_DCL ||
+        fabs(r.cd - p->cd) > BISTABLE_DCD_REL * fmin(r.cd, p->cd)) {
+      p->bistable = 1;
+      p->other_cl = r.cl;
+      p->other_cd = r.cd;
+      p->other_cm = r.cm;
+      found++;
+    }
+  }
+  if (n_found) *n_found = found;
+  return ASCR_OK;
+}

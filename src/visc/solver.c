@@ -331,6 +331,13 @@ static ascr_status from_lower_floor(ascr_visc_solver *v, int group, double alpha
   return st;
 }
 
+ascr_status visc_solve_fresh_first(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r)
+{
+  ascr_status st = fresh_group(v, 0, alpha_rad, r, NULL);
+  if (st != ASCR_OK) v->have_solution = 0;
+  return st;
+}
+
 /* The fresh starts in turn, each group first as it is and then from the lower floor. */
 static ascr_status solve_fresh(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r,
                                ascr_errbuf *err)

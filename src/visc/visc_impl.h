@@ -200,6 +200,11 @@ ascr_status visc_run_message(const ascr_visc_solver *v, ascr_errbuf *err);
 ascr_status visc_solve(ascr_visc_solver *v, double alpha_rad, int warm, int cold_ok,
                        ascr_visc_result *r, ascr_errbuf *err);
 
+/* The first group of fresh starts alone (the marches and the start through a provisional trip;
+ * not the continuations from a higher Re or a lower floor): a cheap look for a state the
+ * sweeps may not reach (src/polar/sweep.c, ascr_polar_check_fresh). */
+ascr_status visc_solve_fresh_first(ascr_visc_solver *v, double alpha_rad, ascr_visc_result *r);
+
 /* Save the current converged state / bring it back (for continuation after a failed point). */
 void visc_snapshot(ascr_visc_solver *v, int slot);
 void visc_restore(ascr_visc_solver *v, int slot);
