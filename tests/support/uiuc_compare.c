@@ -154,17 +154,25 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
   o->cd_mean = o->cd_n ? sd / (double)o->cd_n : NAN;
   o->cd_max = o->cd_n ? md : NAN;
   o->cd_bias = o->cd_n ? bd / (double)o->cd_n : NAN;
-  double sl = 0.0, ml = 0.0, bl = 0.0, aprev = -INFINITY;
+  double sl = 0.0, ml = 0.0, bl = 0.0;
   double xa[64], ym[64], yc[64];
   size_t ns = 0;
-  int up = 1;
-  o->clmax_meas = -INFINITY;
+  /* the loop's up-going branch: the rows up to the one at the largest angle (the angle is set
+   * by hand and steps back now and then on the way up: Clark Y at Re 4.02e5 goes 9.37, 9.04,
+   * 11.48, 10.80, 12.93 deg; taking the first step back as the turn cut its cl_max to 1.217
+   * where the run reaches 1.351 at 14.68 deg) */
+  size_t rturn = 0;
+  double amax = -INFINITY;
   for (size_t r = 0; r < lift->nrow; r++) {
+    if (lift->v[r][0] == o->re_lift && lift->v[r][1] > amax) {
+      amax = lift->v[r][1];
+      rturn = r;
+    }
+  }
+  o->clmax_meas = -INFINITY;
+  for (size_t r = 0; r <= rturn && r < lift->nrow; r++) {
     if (lift->v[r][0] != o->re_lift) continue;
     double a = lift->v[r][1], clm = lift->v[r][2];
-    if (a < aprev - 0.05) up = 0; /* the return branch of the loop */
-    aprev = a;
-    if (!up) continue;
     o->clmax_meas = fmax(o->clmax_meas, clm);
     if (a < -2.0 || a > 6.0) continue;
     double c = ascr_polar_cl_at_alpha(pl->p, pl->n, a);
