@@ -71,7 +71,9 @@ ASCR_EXPORT ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0_deg, dou
  *  a sweep (pts, n entries, as ascr_polar_sweep filled them) the solver starts afresh at the
  *  angle (its marched starts, without the continuations from a higher Reynolds number), and
  *  where that converges to a state that differs by more than 0.005 in cl or 1 % in cd the point
- *  is flagged bistable with that state as its second one. The sweep's own state stays the
+ *  is flagged bistable with that state as its second one, and that state is continued to the
+ *  neighbouring angles both ways (continuation only) while it converges and differs from the
+ *  sweep's state, each point on that branch flagged alike. The sweep's own state stays the
  *  point's result. On low-Re sections such states have the lower laminar layer separating at
  *  the trailing edge (docs/theory/viscous.md). Costs about one cold start per point.
  *  n_found (may be NULL): points flagged here. @return ASCR_OK; ASCR_EINVAL. */

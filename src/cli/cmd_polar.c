@@ -50,8 +50,8 @@ static void polar_help(FILE *fp)
         "                         reports the upper-surface bubble (default 0.5)\n"
         "      --table FILE       also write the polars as a polar-table file (for rotor\n"
         "                         --polar-table; Mach 0 curves only)\n"
-        "      --sweep-only       skip the fresh start at each angle (about half the time;\n"
-        "                         second states only the fresh starts reach go unflagged)\n"
+        "      --sweep-only       skip the fresh start at each angle (a half to a fifth of\n"
+        "                         the time; second states only it reaches go unflagged)\n"
         "      --force            replace FILE if it exists\n"
         "  -h, --help             this help\n",
         fp);

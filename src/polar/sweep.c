@@ -371,6 +371,41 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
   return ASCR_OK;
 }
 
+/* 1 where a converged result differs from the point's state (issue 11's tolerances). */
+static int differs(const ascr_visc_result *r, const ascr_polar_point *p)
+{
+  return fabs(r->cl - p->cl) > BISTABLE_DCL ||
+         fabs(r->cd - p->cd) > BISTABLE_DCD_REL * fmin(r->cd, p->cd);
+}
+
+static void set_other(ascr_polar_point *p, const ascr_visc_result *r)
+{
+  p->bistable = 1;
+  p->other_cl = r->cl;
+  p->other_cd = r->cd;
+  p->other_cm = r->cm;
+}
+
+/* The second branch continued from point i (its state in slot 2) towards dir, point by point
+ * (continuation only, with the solver's step control), while it converges and stays away from
+ * the sweep's state; each point on it flagged. Returns the points flagged. */
+static size_t follow_branch(ascr_visc_solver *v, ascr_polar_point *pts, size_t n, size_t i,
+                            long dir)
+{
+  size_t found = 0;
+  visc_restore(v, 2);
+  for (long j = (long)i + dir; j >= 0 && j < (long)n; j += dir) {
+    ascr_polar_point *p = &pts[j];
+    if (!p->converged || p->bistable) break;
+    ascr_visc_result r;
+    if (visc_solve(v, p->alpha_deg * DEG, 1, 0, &r, NULL) != ASCR_OK || !r.converged) break;
+    if (!differs(&r, p)) break; /* back on the sweep's branch */
+    set_other(p, &r);
+    found++;
+  }
+  return found;
+}
+
 ascr_status ascr_polar_check_fresh(ascr_visc_solver *v, ascr_polar_point *pts, size_t n,
                                    size_t *n_found, ascr_errbuf *err)
 {
@@ -384,14 +419,13 @@ ascr_status ascr_polar_check_fresh(ascr_visc_solver *v, ascr_polar_point *pts, s
     if (!p->converged || p->bistable) continue;
     ascr_visc_result r;
     if (visc_solve_fresh_first(v, p->alpha_deg * DEG, &r) != ASCR_OK || !r.converged) continue;
-    if (fabs(r.cl - p->cl) > BISTABLE_DCL ||
-        fabs(r.cd - p->cd) > BISTABLE_DCD_REL * fmin(r.cd, p->cd)) {
-      p->bistable = 1;
-      p->other_cl = r.cl;
-      p->other_cd = r.cd;
-      p->other_cm = r.cm;
-      found++;
-    }
+    if (!differs(&r, p)) continue;
+    set_other(p, &r);
+    found++;
+    /* and the branch it lies on, both ways */
+    visc_snapshot(v, 2);
+    found += follow_branch(v, pts, n, i, 1);
+    found += follow_branch(v, pts, n, i, -1);
   }
   if (n_found) *n_found = found;
   return ASCR_OK;
