@@ -399,6 +399,8 @@ static size_t follow_branch(ascr_visc_solver *v, ascr_polar_point *pts, size_t n
     if (!p->converged || p->bistable) break;
     ascr_visc_result r;
     if (visc_solve(v, p->alpha_deg * DEG, 1, 0, &r, NULL) != ASCR_OK || !r.converged) break;
+    /* the branch ended between the two angles: the state landed on is another one */
+    if (v->branch_ended) break;
     if (!differs(&r, p)) break; /* back on the sweep's branch */
     set_other(p, &r);
     found++;

@@ -370,9 +370,11 @@ ascr_status visc_solve(ascr_visc_solver *v, double alpha_rad, int warm, int cold
                        ascr_visc_result *r, ascr_errbuf *err)
 {
   if (v == NULL || r == NULL) return core_fail(err, ASCR_EINVAL, "viscous solve: NULL argument");
+  v->branch_ended = 0;
   if (!(warm && v->have_solution)) return solve_fresh(v, alpha_rad, r, err);
   int ended = 0;
   ascr_status st = solve_continued(v, alpha_rad, r, err, &ended);
+  v->branch_ended = ended;
   if ((st == ASCR_OK && !ended) || !cold_ok) return st;
   int its = r->iterations;
   ascr_visc_result rd = *r;

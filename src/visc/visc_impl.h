@@ -177,6 +177,9 @@ struct ascr_visc_solver {
    * it was continued from, and the start of the solve under way; snapshots keep both */
   double cur_alpha, cur_re, cur_cl;
   int pred_off, pred_used;   /* visc_solve: predictor not to be used / used by the last solve */
+  int branch_ended;          /* visc_solve: 1 where its continuation step left the secant's line
+                                and the halves did not follow (the branch ended; the state is
+                                the direct step's or a fresh start's) */
   visc_pred_rec pred_prev, pred_start;
   double sv_alpha[VISC_SLOTS], sv_re[VISC_SLOTS], sv_cl[VISC_SLOTS];
   visc_pred_rec sv_prev[VISC_SLOTS];
