@@ -51,14 +51,21 @@ static void teardown(ascr_visc_solver *v, ascr_panel_solver *w, ascr_geom_sectio
   ascr_geom_section_free(raw);
 }
 
+/* setup() for SD7003 from its UIUC coordinates in reference/ */
+static ascr_visc_solver *setup_sd7003(double re, ascr_panel_solver **w, ascr_geom_section **raw,
+                                      ascr_geom_section **s)
+{
+  char path[512];
+  snprintf(path, sizeof path, "%s/sd7003_coords_uiuc.csv", ASCR_REFERENCE_DIR);
+  return setup(path, re, w, raw, s);
+}
+
 static void test_check_fresh_flags_the_trailing_edge_state(void **state)
 {
   (void)state;
-  char path[512];
-  snprintf(path, sizeof path, "%s/sd7003_coords_uiuc.csv", ASCR_REFERENCE_DIR);
   ascr_panel_solver *w;
   ascr_geom_section *raw, *s;
-  ascr_visc_solver *v = setup(path, 101600.0, &w, &raw, &s);
+  ascr_visc_solver *v = setup_sd7003(101600.0, &w, &raw, &s);
   enum { NP = 4 };
   ascr_polar_point pts[NP], before[NP];
   ascr_polar_summary sum;
@@ -93,11 +100,9 @@ static void test_check_fresh_flags_the_trailing_edge_state(void **state)
 static void test_check_fresh_follows_the_second_branch(void **state)
 {
   (void)state;
-  char path[512];
-  snprintf(path, sizeof path, "%s/sd7003_coords_uiuc.csv", ASCR_REFERENCE_DIR);
   ascr_panel_solver *w;
   ascr_geom_section *raw, *s;
-  ascr_visc_solver *v = setup(path, 304600.0, &w, &raw, &s);
+  ascr_visc_solver *v = setup_sd7003(304600.0, &w, &raw, &s);
   enum { NP = 5 };
   ascr_polar_point pts[NP];
   ascr_polar_summary sum;
