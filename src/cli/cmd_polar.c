@@ -483,7 +483,7 @@ int cmd_polar(int argc, char **argv)
           }
           fputc('\n', fp);
           if (q->bistable) {
-            fprintf(fp, "%8s two states: reached from the other side cl %.4f, cd %.5f, cm %.4f\n",
+            fprintf(fp, "%8s two states: the other converges to cl %.4f, cd %.5f, cm %.4f\n",
                     "", q->other_cl, q->other_cd, q->other_cm);
           }
         }
@@ -528,6 +528,13 @@ int cmd_polar(int argc, char **argv)
     }
     fputs("\ntrans_up, trans_lo: x/c of transition on each surface; none: laminar to the trailing "
           "edge\n", fp);
+    int any_two = 0;
+    for (size_t i = 0; i < npts * nre * nmach && !any_two; i++) any_two = pts[i].converged && pts[i].bistable;
+    if (any_two) {
+      fputs("two states: the equations converge to a second state at that angle too (reached from the\n"
+            "other side of the sweep or by a fresh start); the row is the sweep's, the method does not\n"
+            "decide between them\n", fp);
+    }
     if (banded) {
       fputs("\nband: the least and largest value over the sweeps at the ends of the N_crit range and "
             "the\nnominal one (the transition uncertainty, not an error bar of the method)", fp);
