@@ -210,6 +210,21 @@ ascr_status ascr_polar_solve_point(ascr_visc_solver *v, double alpha_deg, ascr_v
                    alpha_deg, v->p.re);
 }
 
+/* 1 where a converged result differs from the point's state (issue 11's tolerances). */
+static int differs(const ascr_visc_result *r, const ascr_polar_point *p)
+{
+  return fabs(r->cl - p->cl) > BISTABLE_DCL ||
+         fabs(r->cd - p->cd) > BISTABLE_DCD_REL * fmin(r->cd, p->cd);
+}
+
+static void set_other(ascr_polar_point *p, const ascr_visc_result *r)
+{
+  p->bistable = 1;
+  p->other_cl = r->cl;
+  p->other_cd = r->cd;
+  p->other_cm = r->cm;
+}
+
 /* Second pass of a sweep: the angles i0..i1 (stepping by dir) reached from
  * the converged state of slot `slot` at index istart; a point that failed before and converges
  * now is taken, a point with a different converged state is flagged bistable. */
@@ -231,12 +246,8 @@ static void return_pass(ascr_visc_solver *v, int slot, size_t istart, long dir, 
     ascr_polar_point *p = &pts[i];
     if (!p->converged) {
       fill(p, a, &rr);
-    } else if (fabs(rr.cl - p->cl) > BISTABLE_DCL ||
-               fabs(rr.cd - p->cd) > BISTABLE_DCD_REL * fmin(rr.cd, p->cd)) {
-      p->bistable = 1;
-      p->other_cl = rr.cl;
-      p->other_cd = rr.cd;
-      p->other_cm = rr.cm;
+    } else if (differs(&rr, p)) {
+      set_other(p, &rr);
     }
   }
 }
@@ -369,21 +380,6 @@ ascr_status ascr_polar_sweep(ascr_visc_solver *v, double a0, double a1, double s
     }
   }
   return ASCR_OK;
-}
-
-/* 1 where a converged result differs from the point's state (issue 11's tolerances). */
-static int differs(const ascr_visc_result *r, const ascr_polar_point *p)
-{
-  return fabs(r->cl - p->cl) > BISTABLE_DCL ||
-         fabs(r->cd - p->cd) > BISTABLE_DCD_REL * fmin(r->cd, p->cd);
-}
-
-static void set_other(ascr_polar_point *p, const ascr_visc_result *r)
-{
-  p->bistable = 1;
-  p->other_cl = r->cl;
-  p->other_cd = r->cd;
-  p->other_cm = r->cm;
 }
 
 /* The second branch continued from point i (its state in slot 2) towards dir, point by point
