@@ -96,7 +96,22 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
     vstate s[3];
     for (int q = 0; q < nsts; q++) s[q] = visc_get_state(v, st[q]);
     double R0[3], ftr[3] = {1.0, INFINITY, 0.0};
-    if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
+    /* forward-difference steps of theta, m, the third unknown and ue of each station */
+    double hs[3][4];
+    for (int q = 0; q < nsts; q++) {
+      for (int var = 0; var < 4; var++) {
+        double x = var == 0 ? s[q].th : var == 1 ? s[q].m : var == 2 ? s[q].c : s[q].ue;
+        hs[q][var] = var < 2 ? FD_STEP * fabs(x) + 1e-14 : FD_STEP * (fabs(x) > 1e-3 ? fabs(x) : 1e-3);
+      }
+    }
+    int plain = kind == VR_LAM || kind == VR_TURB || kind == VR_WAKE;
+    /* the stagnation offset's step (surface stations) */
+    int offset = v->side[k] < 2 && kind != VR_MERGE;
+    double hx = 1e-7 * fmax(v->xi[v->side[k] == 0 ? 0 : v->nu], 1e-9);
+    double Rp[2][4][3], Rx[3];
+    if (plain) visc_residual_plain_fd(kind, cx, &s[0], &s[1], (const double(*)[4])hs, hx, R0, Rp,
+                                      offset ? Rx : NULL);
+    else if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
     else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
     else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, ftr);
     if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr[0];
@@ -106,14 +121,18 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
     }
     /* derivative with respect to the stagnation offset of this side (surface stations): the
      * offsets depend on the two first-station edge velocities, which depend on all m */
-    if (v->side[k] < 2 && kind != VR_MERGE) {
-      vstate sp[3];
-      for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
-      double h = 1e-7 * fmax(v->xi[v->side[k] == 0 ? 0 : v->nu], 1e-9);
-      for (int qq = 0; qq < nsts; qq++) sp[qq].xi += h;
-      double R1[3];
-      if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
-      else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+    if (offset) {
+      double h = hx, R1s[3];
+      const double *R1 = R1s;
+      if (plain) {
+        R1 = Rx;
+      } else {
+        vstate sp[3];
+        for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+        for (int qq = 0; qq < nsts; qq++) sp[qq].xi += h;
+        if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1s, NULL);
+        else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1s, NULL);
+      }
       double ueu = fmax(v->ue[0], 1e-7), uel = fmax(v->ue[v->nu], 1e-7), sum = ueu + uel;
       /* d xoff / d ue_u0 and d ue_l0 for this side */
       double du, dl;
@@ -131,8 +150,11 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
         add_ue(v, k, (size_t)e, v->nu, d * dl);
       }
     }
-    /* derivative with respect to the stagnation-flow gradient a = (ue_u1 + ue_l1)/span */
-    if (v->side[k] < 2 && kind != VR_MERGE) {
+    /* derivative with respect to the stagnation-flow gradient a = (ue_u1 + ue_l1)/span: it
+     * enters through the first station of a surface only (its view, residual.c), elsewhere
+     * the difference is zero */
+    if (v->side[k] < 2 && kind != VR_MERGE &&
+        (kind == VR_STAG || s[0].first || s[1].first)) {
       vctx cp2 = *cx;
       double h = 1e-7 * cx->stag_a;
       cp2.stag_a += h;
@@ -149,16 +171,19 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
     /* derivatives with respect to theta, m, c, ue of each involved station */
     for (int q = 0; q < nsts; q++) {
       for (int var = 0; var < 4; var++) {
-        vstate sp[3];
-        for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
-        double *x = var == 0 ? &sp[q].th : var == 1 ? &sp[q].m : var == 2 ? &sp[q].c : &sp[q].ue;
-        double h = FD_STEP * (fabs(*x) > 1e-3 ? fabs(*x) : 1e-3);
-        if (var == 0 || var == 1) h = FD_STEP * fabs(*x) + 1e-14;
-        *x += h;
-        double R1[3];
-        if (kind == VR_MERGE) visc_residual(kind, cx, &sp[0], &sp[1], &sp[2], R1, NULL);
-        else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1, NULL);
-        else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1, NULL);
+        double h = hs[q][var], R1s[3];
+        const double *R1 = R1s;
+        if (plain) {
+          R1 = Rp[q][var];
+        } else {
+          vstate sp[3];
+          for (int qq = 0; qq < nsts; qq++) sp[qq] = s[qq];
+          double *x = var == 0 ? &sp[q].th : var == 1 ? &sp[q].m : var == 2 ? &sp[q].c : &sp[q].ue;
+          *x += h;
+          if (kind == VR_MERGE) visc_residual(kind, cx, &sp[0], &sp[1], &sp[2], R1s, NULL);
+          else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sp[0], NULL, R1s, NULL);
+          else visc_residual(kind, cx, &sp[0], &sp[1], NULL, R1s, NULL);
+        }
         for (int e = 0; e < 3; e++) {
           double d = (R1[e] - R0[e]) / h;
           if (d == 0.0) continue;

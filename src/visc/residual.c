@@ -160,6 +160,20 @@ static vstate first_view(const vctx *cx, const vstate *s)
   return t;
 }
 
+/* R of a laminar, turbulent or wake interval a -> b from the two ends' evaluated closures. */
+static void plain_interval(int kind, const vctx *cx, const vstate *a, const vev *ea,
+                           const vstate *b, const vev *eb, double *R)
+{
+  two_eq(a, ea, b, eb, &R[0], &R[1]);
+  if (kind != VR_LAM) {
+    R[2] = (b->c - a->c) - (b->xi - a->xi) * eb->lag;
+  } else {
+    /* exact formulation: amplification at the rate of the interval's upstream end, the
+     * rule of the transition interval below (why: there) */
+    R[2] = b->c - a->c - bl_interval_integral(ea->amp, cx->exact_tr ? ea->amp : eb->amp, a->xi, b->xi);
+  }
+}
+
 void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b_in,
                    const vstate *w, double *R, double *f_tr)
 {
@@ -199,14 +213,7 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     vev ea, eb;
     eval(cx, a, turb, wake, &ea);
     eval(cx, b, turb, wake, &eb);
-    two_eq(a, &ea, b, &eb, &R[0], &R[1]);
-    if (turb) {
-      R[2] = (b->c - a->c) - dxi * eb.lag;
-    } else {
-      /* exact formulation: amplification at the rate of the interval's upstream end, the
-       * rule of the transition interval below (why: there) */
-      R[2] = b->c - a->c - bl_interval_integral(ea.amp, cx->exact_tr ? ea.amp : eb.amp, a->xi, b->xi);
-    }
+    plain_interval(kind, cx, a, &ea, b, &eb, R);
     return;
   }
   /* transition interval: a laminar, b turbulent. N grows from a at the rate of station a
@@ -265,4 +272,53 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   R[0] = r0a + r0b;
   R[1] = r1a + r1b;
   R[2] = (b->c - tt.c) - (1.0 - f) * dxi * eb.lag;
+}
+
+/* A laminar, turbulent or wake interval and its forward differences (visc_impl.h): each end's
+ * closure is evaluated once for its own state and once per perturbation of that end, where
+ * visc_residual on the perturbed pair would evaluate both ends again; the numbers are the
+ * same to the last bit (the unperturbed end's evaluation is the same computation, and the
+ * closures do not depend on xi). */
+void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const vstate *b_in,
+                            const double h[2][4], double hx, double R0[3], double R1[2][4][3],
+                            double Rx[3])
+{
+  int turb = kind != VR_LAM, wake = kind == VR_WAKE;
+  const vstate *in[2] = {a_in, b_in};
+  vstate v0[2];
+  vev e0[2];
+  for (int q = 0; q < 2; q++) {
+    v0[q] = first_view(cx, in[q]);
+    eval(cx, &v0[q], turb, wake, &e0[q]);
+  }
+  plain_interval(kind, cx, &v0[0], &e0[0], &v0[1], &e0[1], R0);
+  if (Rx != NULL) {
+    /* both ends moved along the surface: the closures do not see xi, except through a first
+     * station's view */
+    vstate vx[2];
+    vev ex[2];
+    for (int q = 0; q < 2; q++) {
+      vstate sp = *in[q];
+      sp.xi += hx;
+      vx[q] = first_view(cx, &sp);
+      if (in[q]->first) eval(cx, &vx[q], turb, wake, &ex[q]);
+      else ex[q] = e0[q];
+    }
+    plain_interval(kind, cx, &vx[0], &ex[0], &vx[1], &ex[1], Rx);
+  }
+  for (int q = 0; q < 2; q++) {
+    for (int var = 0; var < 4; var++) {
+      vstate sp = *in[q];
+      double *x = var == 0 ? &sp.th : var == 1 ? &sp.m : var == 2 ? &sp.c : &sp.ue;
+      *x += h[q][var];
+      vstate vp = first_view(cx, &sp);
+      vev ep;
+      eval(cx, &vp, turb, wake, &ep);
+      if (q == 0) {
+        plain_interval(kind, cx, &vp, &ep, &v0[1], &e0[1], R1[q][var]);
+      } else {
+        plain_interval(kind, cx, &v0[0], &e0[0], &vp, &ep, R1[q][var]);
+      }
+    }
+  }
 }

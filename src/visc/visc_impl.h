@@ -58,6 +58,15 @@ typedef struct vctx {
 void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, const vstate *w,
                    double *R, double *f_tr);
 
+/* For VR_LAM, VR_TURB and VR_WAKE: R0 = the residual of a -> b, R1[q][var] the residual with
+ * variable var (0 theta, 1 m, 2 the third unknown, 3 ue) of end q (0 a, 1 b) raised by
+ * h[q][var], and (Rx not NULL) Rx the residual with xi of both ends raised by hx — the numbers
+ * visc_residual gives for those states, at about half the closure evaluations (the Newton
+ * matrix's forward differences, jacobian.c). */
+void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a, const vstate *b,
+                            const double h[2][4], double hx, double R0[3], double R1[2][4][3],
+                            double Rx[3]);
+
 /* sqrt(Ctau) at the start of turbulent flow for the (laminar) state s: bl_ctau_initial at the
  * shape parameter of s. */
 double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
