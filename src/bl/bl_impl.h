@@ -89,8 +89,13 @@ double bl_amplification_rate(double hk, double theta, double rth);
 double bl_ctau_initial(double hk, double ctau_eq);
 
 /* Similarity (Falkner-Skan) start: laminar state at xi for ue = C xi^m, closures included.
- * Returns 0, or -1 if no shape parameter in (1.5, 6) satisfies the equations. */
+ * Returns 0, or -1 if no shape parameter in [1.8, 3.9] satisfies the equations. In two parts:
+ * the shape parameter H and f = Re_theta Cf/2 of the similar layer, which depend on m alone
+ * (bl_similarity_shape; a caller that needs them often keeps them), and theta at xi from them
+ * (bl_similarity_theta). */
 int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h);
+int bl_similarity_shape(double m, double *h, double *f);
+double bl_similarity_theta(double m, double h, double f, double re, double ue, double xi);
 
 /* Integral of f over [xa, xb] from its end values. With xa > 0 the trapezoidal rule is taken
  * in ln(xi): 0.5 (fa xa + fb xb) ln(xb/xa), exact for f ~ 1/xi, which is how the source terms of

@@ -180,11 +180,10 @@ double bl_interval_integral(double fa, double fb, double xa, double xb)
   return 0.5 * (fa + fb) * (xb - xa);
 }
 
-int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h)
+int bl_similarity_shape(double m, double *h, double *f)
 {
-  /* Falkner-Skan: theta^2 = f xi / (Re ue [(1-m)/2 + (2+H) m]) and
-   * (1 - H) m f / [(1-m)/2 + (2+H) m] = d - f, with f = Re_theta Cf/2, d = Re_theta 2 CD / H*
-   * from the laminar closure. Bisection on H in [1.8, 3.9]. */
+  /* Falkner-Skan: (1 - H) m f / [(1-m)/2 + (2+H) m] = d - f, with f = Re_theta Cf/2,
+   * d = Re_theta 2 CD / H* from the laminar closure. Bisection on H in [1.8, 3.9]. */
   double lo = 1.8, hi = 3.9;
   double glo = similarity_g(m, lo, NULL), ghi = similarity_g(m, hi, NULL);
   if (glo * ghi > 0.0) return -1;
@@ -197,10 +196,22 @@ int bl_similarity_start(double m, double re, double ue, double xi, double *theta
       hi = mid;
     }
   }
-  double f;
   *h = 0.5 * (lo + hi);
-  similarity_g(m, *h, &f);
-  *theta = sqrt(f * xi / (re * ue * (0.5 * (1.0 - m) + (2.0 + *h) * m)));
+  similarity_g(m, *h, f);
+  return 0;
+}
+
+double bl_similarity_theta(double m, double h, double f, double re, double ue, double xi)
+{
+  /* Falkner-Skan: theta^2 = f xi / (Re ue [(1-m)/2 + (2+H) m]) */
+  return sqrt(f * xi / (re * ue * (0.5 * (1.0 - m) + (2.0 + h) * m)));
+}
+
+int bl_similarity_start(double m, double re, double ue, double xi, double *theta, double *h)
+{
+  double f;
+  if (bl_similarity_shape(m, h, &f) != 0) return -1;
+  *theta = bl_similarity_theta(m, *h, f, re, ue, xi);
   return 0;
 }
 

@@ -205,8 +205,7 @@ void visc_initial_state_exact(ascr_visc_solver *v)
     size_t k0 = side == 0 ? 0 : v->nu, cnt = side == 0 ? v->nu : v->nl;
     vctx cx = visc_context(v, side);
     vstate f;
-    double hh = visc_hiemenz_h(), thh, h2;
-    bl_similarity_start(1.0, v->p.re, cx.stag_a, 1.0, &thh, &h2);
+    double hh = cx.hiem_h, thh = visc_hiemenz_theta(&cx);
     f.th = thh;
     f.xi = v->xi[k0];
     f.ue = cx.stag_a * fmax(f.xi, cx.xi_min);

@@ -173,8 +173,7 @@ ascr_status visc_run_start(ascr_visc_solver *v, double alpha_rad, int warm, int 
     visc_update_ue(v);
     visc_set_xi(v);
     vctx c0 = visc_context(v, 0);
-    double hh = visc_hiemenz_h(), thh, h2;
-    bl_similarity_start(1.0, v->p.re, c0.stag_a, 1.0, &thh, &h2);
+    double hh = c0.hiem_h, thh = visc_hiemenz_theta(&c0);
     size_t firsts[2] = {0, v->nu};
     for (int q = 0; q < 2; q++) {
       size_t k = firsts[q];

@@ -81,11 +81,9 @@ double visc_sqrt_ctau_start(const vctx *cx, const vstate *s)
   return sqrt(bl_ctau_initial(e.c.hk, e.c.ctau_eq));
 }
 
-double visc_hiemenz_h(void)
+double visc_hiemenz_theta(const vctx *cx)
 {
-  double th, h;
-  if (bl_similarity_start(1.0, 1.0, 1.0, 1.0, &th, &h) != 0) return 2.24;
-  return h;
+  return bl_similarity_theta(1.0, cx->hiem_h, cx->hiem_f, cx->re, cx->stag_a, 1.0);
 }
 
 /* State at fraction f of the interval a -> b (linear in theta, dstar, ue). */
@@ -180,8 +178,7 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   R[0] = R[1] = R[2] = 0.0;
   if (kind == VR_STAG) {
     /* Hiemenz state of the closure for ue = stag_a xi: theta independent of xi */
-    double hh = visc_hiemenz_h(), thh, h2;
-    bl_similarity_start(1.0, cx->re, cx->stag_a, 1.0, &thh, &h2);
+    double hh = cx->hiem_h, thh = visc_hiemenz_theta(cx);
     vstate bf = first_view(cx, b_in);
     double h = bf.m / (bf.ue * fmax(bf.th, 1e-12));
     R[0] = log(fmax(b_in->th, 1e-12) / thh);

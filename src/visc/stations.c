@@ -206,6 +206,8 @@ vctx visc_context(const ascr_visc_solver *v, int side)
   if (!(c.stag_a > 1e-6)) c.stag_a = 1e-6;
   c.xi_min = 0.25 * v->dsp;
   c.exact_tr = v->exact_phase;
+  c.hiem_h = v->hiem_h;
+  c.hiem_f = v->hiem_f;
   double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
   if (side < 2 && xt >= 0.0 && xt <= 1.0) {
     /* xi of the trip: first node on this side at or behind x = xt */
@@ -277,8 +279,7 @@ int visc_relocate_stagnation(ascr_visc_solver *v)
     visc_update_ue(v);
     visc_set_xi(v);
     vctx c0 = visc_context(v, 0);
-    double hh = visc_hiemenz_h(), thh, h2;
-    bl_similarity_start(1.0, v->p.re, c0.stag_a, 1.0, &thh, &h2);
+    double hh = c0.hiem_h, thh = visc_hiemenz_theta(&c0);
     for (size_t k = 0; k < v->nu + v->nl; k++) {
       size_t i = v->node[k];
       int upper = k < v->nu;

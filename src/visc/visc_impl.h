@@ -48,6 +48,7 @@ typedef struct vctx {
   double stag_a;  /* edge-velocity gradient at the stagnation point, d ue / d xi */
   double xi_min;  /* least distance of a first station from the stagnation point */
   int exact_tr;   /* 1: the exact rule places transition (0: placement phase of a start) */
+  double hiem_h, hiem_f; /* the closure's Hiemenz layer (bl_similarity_shape, m = 1) */
 } vctx;
 
 /* Residuals R[0..2] of one station (kinds above). For VR_MERGE, a = upper TE, b = lower TE,
@@ -77,8 +78,9 @@ double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
 int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue,
                     const vstate *first, double *th, double *m, double *c, int *turb);
 
-/* Station with the stagnation similarity start: the Hiemenz shape parameter of the closure. */
-double visc_hiemenz_h(void);
+/* Station with the stagnation similarity start: theta of the closure's Hiemenz layer for the
+ * context's stagnation-flow gradient (its H is cx->hiem_h). */
+double visc_hiemenz_theta(const vctx *cx);
 
 /* The run under way (driver.c): one start's Newton iteration. */
 enum {
@@ -141,6 +143,7 @@ struct ascr_visc_solver {
   double *xi;                /* nst: distance from the stagnation point (surfaces), from the TE (wake) */
   double *dfirst;            /* nst: distance from the side's first node (surfaces) */
   double dsp;                /* length of the panel holding the stagnation point */
+  double hiem_h, hiem_f;   /* the Hiemenz layer's H and Re_theta Cf/2, once (vctx) */
   bl_turb_fit turb_fit;    /* how the turbulent fits are evaluated: as published
                               * (bl_turb_fit_published), changed only inside a start (solver.c) */
   double *D;                 /* nst x nst row-major */

@@ -41,6 +41,11 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   v->nw = nw;
   v->np = np;
   v->nst = nst;
+  /* the Hiemenz layer of the laminar closure (the first stations' state): fixed numbers */
+  if (bl_similarity_shape(1.0, &v->hiem_h, &v->hiem_f) != 0) {
+    free(v);
+    return NULL;
+  }
   size_t wcols = (n - 1 > nw - 1) ? n - 1 : nw - 1;
   int ok = 1;
 #define ALLOC(ptr, cnt) ok = ok && ((ptr) = core_calloc((cnt), sizeof *(ptr))) != NULL
