@@ -111,12 +111,7 @@ int visc_solve_structured(ascr_visc_solver *v)
   /* w = L^-1 (-R), y from M y = D Q w */
   for (size_t i = 0; i < N; i++) v->wv[i] = -v->R[i];
   lsolve(v, v->wv, 0);
-  for (size_t j = 0; j < nst; j++) {
-    double t = 0.0;
-    const double *dr = v->D + j * nst;
-    for (size_t kk = 0; kk < nst; kk++) t += dr[kk] * v->wv[3 * kk + 1];
-    v->yv[j] = t;
-  }
+  visc_d_times(v, NULL, v->wv + 1, 3, v->yv);
   /* mmat is row-major M, i.e. column-major M^T: factor that and solve with the transpose */
   lapack_int info = LAPACKE_dgetrf_work(LAPACK_COL_MAJOR, (lapack_int)nst, (lapack_int)nst, v->mmat,
                                    (lapack_int)nst, v->ipiv2);
@@ -130,12 +125,7 @@ int visc_solve_structured(ascr_visc_solver *v)
               v->dx, 1);
   /* check: L dx + U D Q dx + R = 0 */
   double rmax = 0.0, emax = 0.0;
-  for (size_t j = 0; j < nst; j++) {
-    double t = 0.0;
-    const double *dr = v->D + j * nst;
-    for (size_t kk = 0; kk < nst; kk++) t += dr[kk] * v->dx[3 * kk + 1];
-    v->wv[j] = t; /* the edge-velocity change */
-  }
+  visc_d_times(v, NULL, v->dx + 1, 3, v->wv); /* the edge-velocity change */
   for (size_t k = 0; k < nst; k++) {
     const size_t *ls = v->lst + 3 * k;
     for (size_t e = 0; e < 3; e++) {

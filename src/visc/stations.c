@@ -119,15 +119,37 @@ int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *i
   return 0;
 }
 
-void visc_update_ue(ascr_visc_solver *v)
+/* y[r] = y0[r] (0 where y0 is NULL) + sum over k of D[r][k] x[stride k], each row's terms added
+ * in the order of k, so that the numbers do not depend on how rows are grouped: eight rows at a
+ * time, whose independent sums the processor overlaps (a row at a time waits for each
+ * addition; a BLAS product would change the order of the sums, and with it which state some
+ * thin-plate starts reach: docs/theory/viscous.md). */
+void visc_d_times(const ascr_visc_solver *v, const double *y0, const double *x, size_t stride,
+                  double *y)
 {
   const size_t nst = v->nst;
-  for (size_t r = 0; r < nst; r++) {
-    double u = v->ue_inv[r];
-    const double *dr = v->D + r * nst;
-    for (size_t k = 0; k < nst; k++) u += dr[k] * v->mm[k];
-    v->ue[r] = u;
+  size_t r = 0;
+  for (; r + 8 <= nst; r += 8) {
+    const double *d = v->D + r * nst;
+    double u[8];
+    for (int q = 0; q < 8; q++) u[q] = y0 ? y0[r + (size_t)q] : 0.0;
+    for (size_t k = 0; k < nst; k++) {
+      double xk = x[stride * k];
+      for (int q = 0; q < 8; q++) u[q] += d[(size_t)q * nst + k] * xk;
+    }
+    for (int q = 0; q < 8; q++) y[r + (size_t)q] = u[q];
   }
+  for (; r < nst; r++) {
+    const double *dr = v->D + r * nst;
+    double u = y0 ? y0[r] : 0.0;
+    for (size_t k = 0; k < nst; k++) u += dr[k] * x[stride * k];
+    y[r] = u;
+  }
+}
+
+void visc_update_ue(ascr_visc_solver *v)
+{
+  visc_d_times(v, v->ue_inv, v->mm, 1, v->ue);
 }
 
 /* Stagnation point between the first stations of the two sides, where the edge velocity,

@@ -239,6 +239,9 @@ void visc_restage(ascr_visc_solver *v, size_t is, double s_stag); /* stations, D
 int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *is,
                          double *s_stag);                      /* 0, or -1 if none */
 void visc_update_ue(ascr_visc_solver *v);                      /* ue = ue_inv + D m */
+/* y = y0 + D x[0::stride] (y0 NULL: 0), the terms of each row summed in order (stations.c). */
+void visc_d_times(const ascr_visc_solver *v, const double *y0, const double *x, size_t stride,
+                  double *y);
 void visc_set_xi(ascr_visc_solver *v);                         /* xi from the stagnation offsets */
 vstate visc_get_state(const ascr_visc_solver *v, size_t k);
 int visc_station_kind(const ascr_visc_solver *v, size_t k, size_t *a, size_t *b, size_t *w);
