@@ -66,6 +66,36 @@ static void lsolve(const ascr_visc_solver *v, double *x, size_t k0)
   }
 }
 
+/* lsolve on LCOLS columns of ld doubles at once (x + c ld, each zero above its own station
+ * k0[c]): every column takes the same operations in the same order as lsolve alone (the same
+ * numbers); the columns' independent substitutions overlap in the processor. */
+enum { LCOLS = 4 };
+static void lsolve_cols(const ascr_visc_solver *v, double *x, size_t ld, const size_t k0[LCOLS])
+{
+  size_t kmin = k0[0];
+  for (int c = 1; c < LCOLS; c++) kmin = k0[c] < kmin ? k0[c] : kmin;
+  for (size_t k = kmin; k < v->nst; k++) {
+    const size_t *ls = v->lst + 3 * k;
+    const double *d = v->dinv + 9 * k;
+    for (int c = 0; c < LCOLS; c++) {
+      if (k < k0[c]) continue;
+      double *xc = x + (size_t)c * ld;
+      double r0 = xc[3 * k], r1 = xc[3 * k + 1], r2 = xc[3 * k + 2];
+      for (int q = 0; q < 3 && ls[q] != SIZE_MAX; q++) {
+        if (ls[q] == k) continue;
+        const double *blk = v->lblk + (3 * k + (size_t)q) * 9;
+        const double *xs = xc + 3 * ls[q];
+        r0 -= blk[0] * xs[0] + blk[1] * xs[1] + blk[2] * xs[2];
+        r1 -= blk[3] * xs[0] + blk[4] * xs[1] + blk[5] * xs[2];
+        r2 -= blk[6] * xs[0] + blk[7] * xs[1] + blk[8] * xs[2];
+      }
+      xc[3 * k] = d[0] * r0 + d[1] * r1 + d[2] * r2;
+      xc[3 * k + 1] = d[3] * r0 + d[4] * r1 + d[5] * r2;
+      xc[3 * k + 2] = d[6] * r0 + d[7] * r1 + d[8] * r2;
+    }
+  }
+}
+
 /* Solve J dx = -R (unscaled unknowns) in structured form; 1 on success. */
 int visc_solve_structured(ascr_visc_solver *v)
 {
@@ -83,9 +113,15 @@ int visc_solve_structured(ascr_visc_solver *v)
       if ((double)(row / 3) < v->yv[j]) v->yv[j] = (double)(row / 3);
     }
   }
-  for (size_t j = 0; j < nst; j++) {
-    size_t k0 = (size_t)v->yv[j];
-    if (k0 < nst) lsolve(v, zf + j * N, k0);
+  size_t jc = 0;
+  for (; jc + LCOLS <= nst; jc += LCOLS) {
+    size_t k0[LCOLS];
+    for (int c = 0; c < LCOLS; c++) k0[c] = (size_t)v->yv[jc + (size_t)c];
+    lsolve_cols(v, zf + jc * N, N, k0);
+  }
+  for (; jc < nst; jc++) {
+    size_t k0 = (size_t)v->yv[jc];
+    if (k0 < nst) lsolve(v, zf + jc * N, k0);
   }
   /* zm = Q L^-1 U (row-major nst x nst) */
   for (size_t kk = 0; kk < nst; kk++) {
