@@ -103,6 +103,10 @@ double bl_similarity_theta(double m, double h, double f, double re, double ue, d
  * intervals next to a stagnation point, where ue changes by a factor of ten, accurate. With
  * xa <= 0 (wake from the trailing edge) the ordinary trapezoidal rule. */
 double bl_interval_integral(double fa, double fb, double xa, double xb);
+/* The same in two parts, for callers that integrate several quantities over one interval:
+ * ln(xb/xa) where the rule in ln xi applies (NaN elsewhere), and the integral given it. */
+double bl_interval_log(double xa, double xb);
+double bl_interval_integral_lx(double fa, double fb, double xa, double xb, double lx);
 
 /* Laminar march from a given state (theta0, h0, N0 at s[0]) over stations s[1..n-1] with edge
  * velocities ue[0..n-1]. Stops at the first station where N reaches ncrit, where Hk passes

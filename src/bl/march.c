@@ -172,12 +172,22 @@ static double similarity_g(double m, double hh, double *f_out)
   return (1.0 - hh) * m * f / den - (d - f);
 }
 
-double bl_interval_integral(double fa, double fb, double xa, double xb)
+double bl_interval_log(double xa, double xb)
+{
+  return xa > 0.0 && xb > xa ? log(xb / xa) : NAN;
+}
+
+double bl_interval_integral_lx(double fa, double fb, double xa, double xb, double lx)
 {
   if (xa > 0.0 && xb > xa) {
-    return 0.5 * (fa * xa + fb * xb) * log(xb / xa);
+    return 0.5 * (fa * xa + fb * xb) * lx;
   }
   return 0.5 * (fa + fb) * (xb - xa);
+}
+
+double bl_interval_integral(double fa, double fb, double xa, double xb)
+{
+  return bl_interval_integral_lx(fa, fb, xa, xb, bl_interval_log(xa, xb));
 }
 
 int bl_similarity_shape(double m, double *h, double *f)

@@ -59,17 +59,17 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
   e->ke = (2.0 * e->c.cd / e->c.hs - 0.5 * e->c.cf) / th;
 }
 
-/* R0, R1 over the interval between two evaluated states. */
-static void two_eq(const vstate *a, const vev *ea, const vstate *b, const vev *eb,
+/* R0, R1 over the interval between two evaluated states (lx = bl_interval_log of it). */
+static void two_eq(const vstate *a, const vev *ea, const vstate *b, const vev *eb, double lx,
                    double *r0, double *r1)
 {
   double lue = log(fmax(b->ue, 1e-6) / fmax(a->ue, 1e-6));
   double hm = 0.5 * (ea->h + eb->h);
   double mm = 0.5 * (ea->me * ea->me + eb->me * eb->me);
   *r0 = log(fmax(b->th, 1e-12) / fmax(a->th, 1e-12)) + (2.0 + hm - mm) * lue -
-        bl_interval_integral(ea->mom, eb->mom, a->xi, b->xi);
+        bl_interval_integral_lx(ea->mom, eb->mom, a->xi, b->xi, lx);
   *r1 = log(eb->c.hs / ea->c.hs) + (1.0 - hm) * lue -
-        bl_interval_integral(ea->ke, eb->ke, a->xi, b->xi);
+        bl_interval_integral_lx(ea->ke, eb->ke, a->xi, b->xi, lx);
 }
 
 double visc_sqrt_ctau_start(const vctx *cx, const vstate *s)
@@ -158,17 +158,19 @@ static vstate first_view(const vctx *cx, const vstate *s)
   return t;
 }
 
-/* R of a laminar, turbulent or wake interval a -> b from the two ends' evaluated closures. */
+/* R of a laminar, turbulent or wake interval a -> b from the two ends' evaluated closures
+ * (lx = bl_interval_log of it). */
 static void plain_interval(int kind, const vctx *cx, const vstate *a, const vev *ea,
-                           const vstate *b, const vev *eb, double *R)
+                           const vstate *b, const vev *eb, double lx, double *R)
 {
-  two_eq(a, ea, b, eb, &R[0], &R[1]);
+  two_eq(a, ea, b, eb, lx, &R[0], &R[1]);
   if (kind != VR_LAM) {
     R[2] = (b->c - a->c) - (b->xi - a->xi) * eb->lag;
   } else {
     /* exact formulation: amplification at the rate of the interval's upstream end, the
      * rule of the transition interval below (why: there) */
-    R[2] = b->c - a->c - bl_interval_integral(ea->amp, cx->exact_tr ? ea->amp : eb->amp, a->xi, b->xi);
+    R[2] = b->c - a->c -
+           bl_interval_integral_lx(ea->amp, cx->exact_tr ? ea->amp : eb->amp, a->xi, b->xi, lx);
   }
 }
 
@@ -210,7 +212,7 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     vev ea, eb;
     eval(cx, a, turb, wake, &ea);
     eval(cx, b, turb, wake, &eb);
-    plain_interval(kind, cx, a, &ea, b, &eb, R);
+    plain_interval(kind, cx, a, &ea, b, &eb, bl_interval_log(a->xi, b->xi), R);
     return;
   }
   /* transition interval: a laminar, b turbulent. N grows from a at the rate of station a
@@ -258,14 +260,14 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
   t = interp(a, b, f);
   eval(cx, &t, 0, 0, &et);
   double r0a, r1a, r0b, r1b;
-  two_eq(a, &ea, &t, &et, &r0a, &r1a);
+  two_eq(a, &ea, &t, &et, bl_interval_log(a->xi, t.xi), &r0a, &r1a);
   vstate tt = t;
   tt.turb = 1;
   tt.c = visc_sqrt_ctau_start(cx, &t);
   vev ett, eb;
   eval(cx, &tt, 1, 0, &ett);
   eval(cx, b, 1, 0, &eb);
-  two_eq(&tt, &ett, b, &eb, &r0b, &r1b);
+  two_eq(&tt, &ett, b, &eb, bl_interval_log(tt.xi, b->xi), &r0b, &r1b);
   R[0] = r0a + r0b;
   R[1] = r1a + r1b;
   R[2] = (b->c - tt.c) - (1.0 - f) * dxi * eb.lag;
@@ -288,7 +290,9 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
     v0[q] = first_view(cx, in[q]);
     eval(cx, &v0[q], turb, wake, &e0[q]);
   }
-  plain_interval(kind, cx, &v0[0], &e0[0], &v0[1], &e0[1], R0);
+  /* the perturbations move no station along the surface: one logarithm for all but Rx */
+  double lx = bl_interval_log(v0[0].xi, v0[1].xi);
+  plain_interval(kind, cx, &v0[0], &e0[0], &v0[1], &e0[1], lx, R0);
   if (Rx != NULL) {
     /* both ends moved along the surface: the closures do not see xi, except through a first
      * station's view */
@@ -301,7 +305,8 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
       if (in[q]->first) eval(cx, &vx[q], turb, wake, &ex[q]);
       else ex[q] = e0[q];
     }
-    plain_interval(kind, cx, &vx[0], &ex[0], &vx[1], &ex[1], Rx);
+    plain_interval(kind, cx, &vx[0], &ex[0], &vx[1], &ex[1], bl_interval_log(vx[0].xi, vx[1].xi),
+                   Rx);
   }
   for (int q = 0; q < 2; q++) {
     for (int var = 0; var < 4; var++) {
@@ -312,9 +317,9 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
       vev ep;
       eval(cx, &vp, turb, wake, &ep);
       if (q == 0) {
-        plain_interval(kind, cx, &vp, &ep, &v0[1], &e0[1], R1[q][var]);
+        plain_interval(kind, cx, &vp, &ep, &v0[1], &e0[1], lx, R1[q][var]);
       } else {
-        plain_interval(kind, cx, &v0[0], &e0[0], &vp, &ep, R1[q][var]);
+        plain_interval(kind, cx, &v0[0], &e0[0], &vp, &ep, lx, R1[q][var]);
       }
     }
   }
