@@ -72,6 +72,9 @@ static inline bl_turb_fit bl_turb_fit_published(void)
  * wake = 1 sets Cf = 0 and doubles the outer-layer dissipation scale as for a free shear layer. */
 void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_turb_fit fl,
                           bl_closure *c);
+/* Its dissipation CD = (Cf/2) Us + Ctau (1 - Us) (doubled in a wake), the one part that depends
+ * on Ctau. */
+double bl_closure_turbulent_cd(double cf, double us, double ctau, int wake);
 
 /* Lag equation of the turbulent layer (Green, Weeks & Brooman 1977, ARC R&M 3791, in the form of
  * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta with

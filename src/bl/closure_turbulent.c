@@ -27,6 +27,15 @@
 
 #include <math.h>
 
+double bl_closure_turbulent_cd(double cf, double us, double ctau, int wake)
+{
+  double cd = 0.5 * cf * us + ctau * (1.0 - us);
+  if (wake) {
+    cd *= 2.0;
+  }
+  return cd;
+}
+
 void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake, bl_turb_fit fl,
                           bl_closure *c)
 {
@@ -60,10 +69,7 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
   if (us > 0.95) us = 0.95;
   if (us < 0.0) us = 0.0;
   double ctau_eq = hs * 0.015 / (1.0 - us) * (hk - 1.0) * (hk - 1.0) * (hk - 1.0) / (hk * hk * h);
-  double cd = 0.5 * cf * us + ctau * (1.0 - us);
-  if (wake) {
-    cd *= 2.0;
-  }
+  double cd = bl_closure_turbulent_cd(cf, us, ctau, wake);
   c->hk = hk;
   c->hs = hs;
   c->cf = cf;

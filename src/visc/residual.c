@@ -32,6 +32,26 @@ typedef struct vev {
   double mom, ke, lag, amp;
 } vev;
 
+/* Source of the kinetic-energy (shape-parameter) equation per unit xi: (2 CD/H* - Cf/2)/theta. */
+static double ke_source(const bl_closure *c, double th)
+{
+  return (2.0 * c->cd / c->hs - 0.5 * c->cf) / th;
+}
+
+/* The parts of a turbulent evaluation that depend on the third unknown sqrt(Ctau): the
+ * dissipation, the lag rate and the energy equation's source. */
+static void eval_stress(const vctx *cx, double th, double sc, int wake, vev *e)
+{
+  e->c.cd = bl_closure_turbulent_cd(e->c.cf, e->c.us, sc * sc, wake);
+  /* the wake's shorter dissipation length (bl_lag_rate) goes with the exact formulation for
+   * now: measured on the robustness grid it lifts the exact formulation from 980 to 1068
+   * converged points of 1125 and takes the banded iteration from 1080 to 1053, whose states
+   * it moves along their path (docs/theory/viscous.md, "The wake") */
+  e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, e->c.cf, wake && cx->exact_tr,
+                       cx->turb_fit.coles);
+  e->ke = ke_source(&e->c, th);
+}
+
 static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
 {
   double ue = s->ue > 1e-6 ? s->ue : 1e-6;
@@ -43,20 +63,16 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
   if (turb) {
     double sc = s->c > 1e-5 ? s->c : 1e-5;
     bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, cx->turb_fit, &e->c);
-    /* the wake's shorter dissipation length (bl_lag_rate) goes with the exact formulation for
-     * now: measured on the robustness grid it lifts the exact formulation from 980 to 1068
-     * converged points of 1125 and takes the banded iteration from 1080 to 1053, whose states
-     * it moves along their path (docs/theory/viscous.md, "The wake") */
-    e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, e->c.cf, wake && cx->exact_tr,
-                         cx->turb_fit.coles);
     e->amp = 0.0;
+    e->mom = 0.5 * e->c.cf / th;
+    eval_stress(cx, th, sc, wake, e);
   } else {
     bl_closure_laminar(e->h, e->rth, e->me, &e->c);
     e->lag = 0.0;
     e->amp = bl_amplification_rate(e->c.hk, th, e->rth);
+    e->mom = 0.5 * e->c.cf / th;
+    e->ke = ke_source(&e->c, th);
   }
-  e->mom = 0.5 * e->c.cf / th;
-  e->ke = (2.0 * e->c.cd / e->c.hs - 0.5 * e->c.cf) / th;
 }
 
 /* R0, R1 over the interval between two evaluated states (lx = bl_interval_log of it). */
@@ -315,7 +331,14 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
       *x += h[q][var];
       vstate vp = first_view(cx, &sp);
       vev ep;
-      eval(cx, &vp, turb, wake, &ep);
+      if (var == 2) {
+        /* the third unknown: a laminar closure does not see N, a turbulent one sees sqrt(Ctau)
+         * in its dissipation only */
+        ep = e0[q];
+        if (turb) eval_stress(cx, vp.th > 1e-12 ? vp.th : 1e-12, vp.c > 1e-5 ? vp.c : 1e-5, wake, &ep);
+      } else {
+        eval(cx, &vp, turb, wake, &ep);
+      }
       if (q == 0) {
         plain_interval(kind, cx, &vp, &ep, &v0[1], &e0[1], lx, R1[q][var]);
       } else {
