@@ -176,6 +176,7 @@ struct ascr_visc_solver {
   double *dinv;              /* nst x 9: inverses of the diagonal blocks of L */
   int *iscratch;              /* 2 nst, for carrying flags over a restage */
   double *cp;                /* surface Cp, n */
+  double *sig;               /* np: panel source strengths (visc_relocate_stagnation) */
   double *march_s, *march_ue; /* n: one side's arc lengths and velocities (coupled-march start) */
   ascr_bl_station *march_out; /* n: its marched stations */
   /* saved converged states (visc_snapshot / visc_restore): slots 0, 2 and 3 for callers
@@ -234,7 +235,6 @@ void visc_restore(ascr_visc_solver *v, int slot);
 ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *err);
 
 /* stations.c */
-double visc_node_gamma(const ascr_visc_solver *v, size_t i);    /* surface gamma at node i */
 void visc_restage(ascr_visc_solver *v, size_t is, double s_stag); /* stations, D, ue_inv */
 int visc_find_stagnation(const ascr_visc_solver *v, const double *gam, size_t *is,
                          double *s_stag);                      /* 0, or -1 if none */

@@ -97,6 +97,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->ipiv, 3 * nst);
   ALLOC(v->iscratch, 2 * nst);
   ALLOC(v->cp, n);
+  ALLOC(v->sig, np);
   ALLOC(v->march_s, n);
   ALLOC(v->march_ue, n);
   ALLOC(v->march_out, n);
@@ -131,7 +132,7 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   free(v->qmid_g); free(v->qmid_inv); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
-  free(v->ipiv); free(v->iscratch); free(v->cp);
+  free(v->ipiv); free(v->iscratch); free(v->cp); free(v->sig);
   free(v->march_s);
   free(v->march_ue);
   free(v->march_out);
