@@ -45,25 +45,29 @@ static int invert_diagonal(ascr_visc_solver *v)
   return 1;
 }
 
+/* One station k of the substitution x <- L^-1 x (the stations before it done). */
+static inline void lsolve_station(const ascr_visc_solver *v, double *x, size_t k)
+{
+  const size_t *ls = v->lst + 3 * k;
+  double r0 = x[3 * k], r1 = x[3 * k + 1], r2 = x[3 * k + 2];
+  for (int q = 0; q < 3 && ls[q] != SIZE_MAX; q++) {
+    if (ls[q] == k) continue;
+    const double *blk = v->lblk + (3 * k + (size_t)q) * 9;
+    const double *xs = x + 3 * ls[q];
+    r0 -= blk[0] * xs[0] + blk[1] * xs[1] + blk[2] * xs[2];
+    r1 -= blk[3] * xs[0] + blk[4] * xs[1] + blk[5] * xs[2];
+    r2 -= blk[6] * xs[0] + blk[7] * xs[1] + blk[8] * xs[2];
+  }
+  const double *d = v->dinv + 9 * k;
+  x[3 * k] = d[0] * r0 + d[1] * r1 + d[2] * r2;
+  x[3 * k + 1] = d[3] * r0 + d[4] * r1 + d[5] * r2;
+  x[3 * k + 2] = d[6] * r0 + d[7] * r1 + d[8] * r2;
+}
+
 /* x <- L^-1 x, forward over stations from k0 (x is zero above station k0). */
 static void lsolve(const ascr_visc_solver *v, double *x, size_t k0)
 {
-  for (size_t k = k0; k < v->nst; k++) {
-    const size_t *ls = v->lst + 3 * k;
-    double r0 = x[3 * k], r1 = x[3 * k + 1], r2 = x[3 * k + 2];
-    for (int q = 0; q < 3 && ls[q] != SIZE_MAX; q++) {
-      if (ls[q] == k) continue;
-      const double *blk = v->lblk + (3 * k + (size_t)q) * 9;
-      const double *xs = x + 3 * ls[q];
-      r0 -= blk[0] * xs[0] + blk[1] * xs[1] + blk[2] * xs[2];
-      r1 -= blk[3] * xs[0] + blk[4] * xs[1] + blk[5] * xs[2];
-      r2 -= blk[6] * xs[0] + blk[7] * xs[1] + blk[8] * xs[2];
-    }
-    const double *d = v->dinv + 9 * k;
-    x[3 * k] = d[0] * r0 + d[1] * r1 + d[2] * r2;
-    x[3 * k + 1] = d[3] * r0 + d[4] * r1 + d[5] * r2;
-    x[3 * k + 2] = d[6] * r0 + d[7] * r1 + d[8] * r2;
-  }
+  for (size_t k = k0; k < v->nst; k++) lsolve_station(v, x, k);
 }
 
 /* lsolve on LCOLS columns of ld doubles at once (x + c ld, each zero above its own station
@@ -75,23 +79,8 @@ static void lsolve_cols(const ascr_visc_solver *v, double *x, size_t ld, const s
   size_t kmin = k0[0];
   for (int c = 1; c < LCOLS; c++) kmin = k0[c] < kmin ? k0[c] : kmin;
   for (size_t k = kmin; k < v->nst; k++) {
-    const size_t *ls = v->lst + 3 * k;
-    const double *d = v->dinv + 9 * k;
     for (int c = 0; c < LCOLS; c++) {
-      if (k < k0[c]) continue;
-      double *xc = x + (size_t)c * ld;
-      double r0 = xc[3 * k], r1 = xc[3 * k + 1], r2 = xc[3 * k + 2];
-      for (int q = 0; q < 3 && ls[q] != SIZE_MAX; q++) {
-        if (ls[q] == k) continue;
-        const double *blk = v->lblk + (3 * k + (size_t)q) * 9;
-        const double *xs = xc + 3 * ls[q];
-        r0 -= blk[0] * xs[0] + blk[1] * xs[1] + blk[2] * xs[2];
-        r1 -= blk[3] * xs[0] + blk[4] * xs[1] + blk[5] * xs[2];
-        r2 -= blk[6] * xs[0] + blk[7] * xs[1] + blk[8] * xs[2];
-      }
-      xc[3 * k] = d[0] * r0 + d[1] * r1 + d[2] * r2;
-      xc[3 * k + 1] = d[3] * r0 + d[4] * r1 + d[5] * r2;
-      xc[3 * k + 2] = d[6] * r0 + d[7] * r1 + d[8] * r2;
+      if (k >= k0[c]) lsolve_station(v, x + (size_t)c * ld, k);
     }
   }
 }
