@@ -23,6 +23,9 @@ void *core_calloc(size_t n, size_t sz);
 /* Solve a x = b for a small dense system, n <= 3 (a row-major n x n, destroyed; b receives x).
  * Returns 1, or 0 if a is singular to working precision. solve_small.c. */
 int core_solve_small(double *a, double *b, int n);
+/* The same for nrhs right-hand sides at once (b row-major n x nrhs; each column takes the
+ * operations core_solve_small takes alone, in the same order). solve_small.c. */
+int core_solve_small_multi(double *a, double *b, int n, int nrhs);
 
 /* Brent's method (GSL's solver) for a root of f in [lo, hi], where f changes sign: until the
  * bracket is within epsabs + epsrel |x|, for at most maxit steps, or until *stop is set (by f,

@@ -8,7 +8,7 @@
 
 #include <math.h>
 
-int core_solve_small(double *a, double *b, int n)
+int core_solve_small_multi(double *a, double *b, int n, int nrhs)
 {
   for (int c = 0; c < n; c++) {
     int p = c;
@@ -22,20 +22,29 @@ int core_solve_small(double *a, double *b, int n)
         a[c * n + q] = a[p * n + q];
         a[p * n + q] = t;
       }
-      double t = b[c];
-      b[c] = b[p];
-      b[p] = t;
+      for (int j = 0; j < nrhs; j++) {
+        double t = b[c * nrhs + j];
+        b[c * nrhs + j] = b[p * nrhs + j];
+        b[p * nrhs + j] = t;
+      }
     }
     for (int r = c + 1; r < n; r++) {
       double f = a[r * n + c] / a[c * n + c];
       for (int q = c; q < n; q++) a[r * n + q] -= f * a[c * n + q];
-      b[r] -= f * b[c];
+      for (int j = 0; j < nrhs; j++) b[r * nrhs + j] -= f * b[c * nrhs + j];
     }
   }
   for (int c = n - 1; c >= 0; c--) {
-    double t = b[c];
-    for (int q = c + 1; q < n; q++) t -= a[c * n + q] * b[q];
-    b[c] = t / a[c * n + c];
+    for (int j = 0; j < nrhs; j++) {
+      double t = b[c * nrhs + j];
+      for (int q = c + 1; q < n; q++) t -= a[c * n + q] * b[q * nrhs + j];
+      b[c * nrhs + j] = t / a[c * n + c];
+    }
   }
   return 1;
+}
+
+int core_solve_small(double *a, double *b, int n)
+{
+  return core_solve_small_multi(a, b, n, 1);
 }

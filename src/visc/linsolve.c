@@ -31,16 +31,11 @@ static int invert_diagonal(ascr_visc_solver *v)
       if (ls[q] == k) qs = q;
     }
     if (qs < 0) return 0;
-    const double *blk = v->lblk + (3 * k + (size_t)qs) * 9;
-    double *inv = v->dinv + 9 * k;
-    for (int c = 0; c < 3; c++) {
-      double a[9], b[3] = {c == 0, c == 1, c == 2};
-      memcpy(a, blk, sizeof a);
-      if (!core_solve_small(a, b, 3)) return 0;
-      inv[0 * 3 + c] = b[0];
-      inv[1 * 3 + c] = b[1];
-      inv[2 * 3 + c] = b[2];
-    }
+    double a[9], *inv = v->dinv + 9 * k;
+    memcpy(a, v->lblk + (3 * k + (size_t)qs) * 9, sizeof a);
+    /* the inverse's columns solved together: inv starts as the identity (row-major) */
+    for (int e = 0; e < 9; e++) inv[e] = e % 4 == 0;
+    if (!core_solve_small_multi(a, inv, 3, 3)) return 0;
   }
   return 1;
 }
