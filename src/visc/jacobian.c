@@ -13,24 +13,6 @@
 
 #define FD_STEP 1e-7
 
-/* Sum of squared residuals of all stations at the current state (R and J untouched). */
-double visc_residual_norm2(ascr_visc_solver *v, const vctx cxs[3])
-{
-  double sum = 0.0;
-  for (size_t k = 0; k < v->nst; k++) {
-    const vctx *cx = &cxs[v->side[k]];
-    size_t a, b, w;
-    int kind = visc_station_kind(v, k, &a, &b, &w);
-    vstate sa = visc_get_state(v, a), sb = visc_get_state(v, b), sw = visc_get_state(v, w);
-    double R[3];
-    if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
-    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
-    else visc_residual(kind, cx, &sa, &sb, NULL, R, NULL);
-    for (int e = 0; e < 3; e++) sum += isfinite(R[e]) ? R[e] * R[e] : 1e300;
-  }
-  return sum;
-}
-
 /* Writers of the Newton matrix: dense (J, column-major) or structured (L blocks, U entries). */
 static void add_local(ascr_visc_solver *v, size_t k, size_t e, size_t col_station, int var, double d)
 {
@@ -86,6 +68,9 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
     memset(v->ucnt, 0, 3 * nst * sizeof *v->ucnt);
   }
   double rmax = 0.0;
+  /* the evaluations of the previous interval's downstream end (residual.c) */
+  visc_end_evals ends;
+  ends.k = SIZE_MAX;
   for (size_t k = 0; k < nst; k++) {
     const vctx *cx = &cxs[v->side[k]];
     size_t a, b, w;
@@ -109,11 +94,15 @@ double visc_assemble(ascr_visc_solver *v, const vctx cxs[3])
     int offset = v->side[k] < 2 && kind != VR_MERGE;
     double hx = 1e-7 * fmax(v->xi[v->side[k] == 0 ? 0 : v->nu], 1e-9);
     double Rp[2][4][3], Rx[3];
-    if (plain) visc_residual_plain_fd(kind, cx, &s[0], &s[1], (const double(*)[4])hs, hx, R0, Rp,
-                                      offset ? Rx : NULL);
-    else if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
-    else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
-    else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, ftr);
+    if (plain) {
+      visc_residual_plain_fd(kind, cx, &s[0], &s[1], (const double(*)[4])hs, hx, R0, Rp,
+                             offset ? Rx : NULL, a, b, &ends);
+    } else {
+      ends.k = SIZE_MAX;
+      if (kind == VR_MERGE) visc_residual(kind, cx, &s[0], &s[1], &s[2], R0, ftr);
+      else if (kind == VR_STAG) visc_residual(kind, cx, NULL, &s[0], NULL, R0, NULL);
+      else visc_residual(kind, cx, &s[0], &s[1], NULL, R0, ftr);
+    }
     if (kind == VR_TRANS) v->f_tr[v->side[k]] = ftr[0];
     for (int e = 0; e < 3; e++) {
       v->R[3 * k + e] = R0[e];

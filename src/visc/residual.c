@@ -26,11 +26,7 @@
  * its interval; it lies below min(f, 1) by at most TR_SMOOTH/2 of the interval */
 #define TR_SMOOTH 0.1
 
-typedef struct vev {
-  double h, rth, me;
-  bl_closure c;
-  double mom, ke, lag, amp;
-} vev;
+typedef visc_vev vev;
 
 /* Source of the kinetic-energy (shape-parameter) equation per unit xi: (2 CD/H* - Cf/2)/theta. */
 static double ke_source(const bl_closure *c, double th)
@@ -190,6 +186,67 @@ static void plain_interval(int kind, const vctx *cx, const vstate *a, const vev 
   }
 }
 
+/* The transition interval (a laminar, b turbulent; both seen through first_view) from the
+ * laminar closure ea of a; eb receives b's turbulent closure. */
+static void transition_interval(const vctx *cx, const vstate *a, const vev *ea, const vstate *b,
+                                vev *eb, double *R, double *f_tr)
+{
+  /* transition interval: a laminar, b turbulent. N grows from a at the rate of station a
+   * (an explicit step: b carries a turbulent state, so a rate interpolated toward it would
+   * mix in a turbulent shape parameter and make N non-monotonic in the crossing point) */
+  double f = 1.0, f_nb = NAN, dxi = b->xi - a->xi;
+  /* Exact formulation (exact_tr). The crossing point t = a + f (b - a) solves
+   *     g(f) = N_a + I(rate_a, rate_a, xi_a, xi_t) - N_crit = 0,
+   * the amplification equation of the laminar stations integrated from a to the transition
+   * point (Drela & Giles 1987, transition interval; Drela 1989, LNE 54). The rate is that of
+   * the interval's upstream end, in the laminar intervals as here: station b carries a
+   * turbulent state, and a rate taken there would see a turbulent shape parameter. With the
+   * same rule on both sides of a switch, N at b predicted here is exactly the N that station b
+   * gets when it turns laminar, so the interval rule of the driver cannot cycle between two
+   * neighbours. f is found to round-off by a bracketing iteration, so it is a smooth function
+   * of the end states and its derivatives enter the Jacobian through the residual's
+   * differences. Where g(1) < 0 the amplification does not reach N_crit in this interval:
+   * f = 1 and f_tr[1] < N_crit tells the caller to move the interval downstream; where
+   * g(0) >= 0 (N_a >= N_crit) f = 0 and the caller moves it upstream. */
+  if (cx->exact_tr) {
+    f = crossing(cx, a, ea, b, &f_nb);
+  } else if (ea->amp > 0.0 && dxi > 0.0) {
+    /* the crossing point, held inside the interval by a smooth minimum: a hard clamp at the
+     * interval's end puts a kink in the residual across which the Newton iteration cycles
+     * (when the interval ends at a laminar separation, N need not reach N_crit in it) */
+    double fr = (cx->ncrit - a->c) / (ea->amp * dxi);
+    f = 0.5 * (fr + 1.0 - sqrt((fr - 1.0) * (fr - 1.0) + TR_SMOOTH * TR_SMOOTH));
+  }
+  vstate t;
+  vev et;
+  if (cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi) {
+    double ft = (cx->xi_trip - a->xi) / dxi;
+    if (ft < f) f = ft;
+  }
+  if (f < 1e-6) f = 1e-6;
+  if (f_tr) {
+    int tripped = cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi;
+    f_tr[0] = f;
+    /* N at b at the rate of a (exact formulation: by the laminar amplification equation) */
+    f_tr[1] = tripped ? INFINITY : cx->exact_tr ? f_nb : a->c + ea->amp * dxi;
+    f_tr[2] = ea->c.hk;
+  }
+  t = interp(a, b, f);
+  eval(cx, &t, 0, 0, &et);
+  double r0a, r1a, r0b, r1b;
+  two_eq(a, ea, &t, &et, bl_interval_log(a->xi, t.xi), &r0a, &r1a);
+  vstate tt = t;
+  tt.turb = 1;
+  tt.c = visc_sqrt_ctau_start(cx, &t);
+  vev ett;
+  eval(cx, &tt, 1, 0, &ett);
+  eval(cx, b, 1, 0, eb);
+  two_eq(&tt, &ett, b, eb, bl_interval_log(tt.xi, b->xi), &r0b, &r1b);
+  R[0] = r0a + r0b;
+  R[1] = r1a + r1b;
+  R[2] = (b->c - tt.c) - (1.0 - f) * dxi * eb->lag;
+}
+
 void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b_in,
                    const vstate *w, double *R, double *f_tr)
 {
@@ -222,7 +279,6 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     R[2] = w->c - (a->th * sca + b->th * scb) / (a->th + b->th);
     return;
   }
-  double dxi = b->xi - a->xi;
   if (kind == VR_LAM || kind == VR_TURB || kind == VR_WAKE) {
     int turb = kind != VR_LAM, wake = kind == VR_WAKE;
     vev ea, eb;
@@ -231,62 +287,56 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
     plain_interval(kind, cx, a, &ea, b, &eb, bl_interval_log(a->xi, b->xi), R);
     return;
   }
-  /* transition interval: a laminar, b turbulent. N grows from a at the rate of station a
-   * (an explicit step: b carries a turbulent state, so a rate interpolated toward it would
-   * mix in a turbulent shape parameter and make N non-monotonic in the crossing point) */
-  vev ea;
+  vev ea, eb;
   eval(cx, a, 0, 0, &ea);
-  double f = 1.0, f_nb = NAN;
-  /* Exact formulation (exact_tr). The crossing point t = a + f (b - a) solves
-   *     g(f) = N_a + I(rate_a, rate_a, xi_a, xi_t) - N_crit = 0,
-   * the amplification equation of the laminar stations integrated from a to the transition
-   * point (Drela & Giles 1987, transition interval; Drela 1989, LNE 54). The rate is that of
-   * the interval's upstream end, in the laminar intervals as here: station b carries a
-   * turbulent state, and a rate taken there would see a turbulent shape parameter. With the
-   * same rule on both sides of a switch, N at b predicted here is exactly the N that station b
-   * gets when it turns laminar, so the interval rule of the driver cannot cycle between two
-   * neighbours. f is found to round-off by a bracketing iteration, so it is a smooth function
-   * of the end states and its derivatives enter the Jacobian through the residual's
-   * differences. Where g(1) < 0 the amplification does not reach N_crit in this interval:
-   * f = 1 and f_tr[1] < N_crit tells the caller to move the interval downstream; where
-   * g(0) >= 0 (N_a >= N_crit) f = 0 and the caller moves it upstream. */
-  if (cx->exact_tr) {
-    f = crossing(cx, a, &ea, b, &f_nb);
-  } else if (ea.amp > 0.0 && dxi > 0.0) {
-    /* the crossing point, held inside the interval by a smooth minimum: a hard clamp at the
-     * interval's end puts a kink in the residual across which the Newton iteration cycles
-     * (when the interval ends at a laminar separation, N need not reach N_crit in it) */
-    double fr = (cx->ncrit - a->c) / (ea.amp * dxi);
-    f = 0.5 * (fr + 1.0 - sqrt((fr - 1.0) * (fr - 1.0) + TR_SMOOTH * TR_SMOOTH));
+  transition_interval(cx, a, &ea, b, &eb, R, f_tr);
+}
+
+/* Sum of squared residuals of all stations at the current state (R and J untouched). Each
+ * station's closure is evaluated once where visc_residual station by station would evaluate it
+ * twice (as the downstream end of its own interval and the upstream end of the next one, with
+ * the same view and regime): the same numbers to the last bit. */
+double visc_residual_norm2(ascr_visc_solver *v, const vctx cxs[3])
+{
+  double sum = 0.0;
+  vev prev;
+  size_t prev_k = SIZE_MAX;
+  int prev_turb = -1, prev_wake = -1;
+  const vctx *prev_cx = NULL;
+  for (size_t k = 0; k < v->nst; k++) {
+    const vctx *cx = &cxs[v->side[k]];
+    size_t a, b, w;
+    int kind = visc_station_kind(v, k, &a, &b, &w);
+    vstate sa = visc_get_state(v, a), sb = visc_get_state(v, b);
+    double R[3];
+    int plain = kind == VR_LAM || kind == VR_TURB || kind == VR_WAKE;
+    if (plain || kind == VR_TRANS) {
+      int turb = kind != VR_LAM && kind != VR_TRANS, wake = kind == VR_WAKE;
+      vstate av = first_view(cx, &sa), bv = first_view(cx, &sb);
+      vev ea, eb;
+      if (prev_k == a && prev_cx == cx && prev_turb == turb && prev_wake == wake) ea = prev;
+      else eval(cx, &av, turb, wake, &ea);
+      if (plain) {
+        eval(cx, &bv, turb, wake, &eb);
+        plain_interval(kind, cx, &av, &ea, &bv, &eb, bl_interval_log(av.xi, bv.xi), R);
+      } else {
+        transition_interval(cx, &av, &ea, &bv, &eb, R, NULL);
+        turb = 1;
+      }
+      prev = eb;
+      prev_k = b;
+      prev_cx = cx;
+      prev_turb = turb;
+      prev_wake = wake;
+    } else {
+      vstate sw = visc_get_state(v, w);
+      if (kind == VR_MERGE) visc_residual(kind, cx, &sa, &sb, &sw, R, NULL);
+      else visc_residual(kind, cx, NULL, &sw, NULL, R, NULL);
+      prev_k = SIZE_MAX;
+    }
+    for (int e = 0; e < 3; e++) sum += isfinite(R[e]) ? R[e] * R[e] : 1e300;
   }
-  vstate t;
-  vev et;
-  if (cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi) {
-    double ft = (cx->xi_trip - a->xi) / dxi;
-    if (ft < f) f = ft;
-  }
-  if (f < 1e-6) f = 1e-6;
-  if (f_tr) {
-    int tripped = cx->xi_trip >= 0.0 && cx->xi_trip > a->xi && cx->xi_trip <= b->xi;
-    f_tr[0] = f;
-    /* N at b at the rate of a (exact formulation: by the laminar amplification equation) */
-    f_tr[1] = tripped ? INFINITY : cx->exact_tr ? f_nb : a->c + ea.amp * dxi;
-    f_tr[2] = ea.c.hk;
-  }
-  t = interp(a, b, f);
-  eval(cx, &t, 0, 0, &et);
-  double r0a, r1a, r0b, r1b;
-  two_eq(a, &ea, &t, &et, bl_interval_log(a->xi, t.xi), &r0a, &r1a);
-  vstate tt = t;
-  tt.turb = 1;
-  tt.c = visc_sqrt_ctau_start(cx, &t);
-  vev ett, eb;
-  eval(cx, &tt, 1, 0, &ett);
-  eval(cx, b, 1, 0, &eb);
-  two_eq(&tt, &ett, b, &eb, bl_interval_log(tt.xi, b->xi), &r0b, &r1b);
-  R[0] = r0a + r0b;
-  R[1] = r1a + r1b;
-  R[2] = (b->c - tt.c) - (1.0 - f) * dxi * eb.lag;
+  return sum;
 }
 
 /* A laminar, turbulent or wake interval and its forward differences (visc_impl.h): each end's
@@ -296,15 +346,47 @@ void visc_residual(int kind, const vctx *cx, const vstate *a_in, const vstate *b
  * closures do not depend on xi). */
 void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const vstate *b_in,
                             const double h[2][4], double hx, double R0[3], double R1[2][4][3],
-                            double Rx[3])
+                            double Rx[3], size_t ka, size_t kb, visc_end_evals *ends)
 {
   int turb = kind != VR_LAM, wake = kind == VR_WAKE;
   const vstate *in[2] = {a_in, b_in};
-  vstate v0[2];
-  vev e0[2];
+  vstate v0[2], vp[2][4];
+  vev e0[2], ep[2][4];
+  int held = ends != NULL && ends->k == ka && ends->turb == turb && ends->wake == wake &&
+             ends->cx == cx;
   for (int q = 0; q < 2; q++) {
     v0[q] = first_view(cx, in[q]);
+    for (int var = 0; var < 4; var++) {
+      vstate sp = *in[q];
+      double *x = var == 0 ? &sp.th : var == 1 ? &sp.m : var == 2 ? &sp.c : &sp.ue;
+      *x += h[q][var];
+      vp[q][var] = first_view(cx, &sp);
+    }
+    if (q == 0 && held) {
+      e0[0] = ends->e0;
+      for (int var = 0; var < 4; var++) ep[0][var] = ends->ep[var];
+      continue;
+    }
     eval(cx, &v0[q], turb, wake, &e0[q]);
+    for (int var = 0; var < 4; var++) {
+      const vstate *t = &vp[q][var];
+      if (var == 2) {
+        /* the third unknown: a laminar closure does not see N, a turbulent one sees sqrt(Ctau)
+         * in its dissipation only */
+        ep[q][var] = e0[q];
+        if (turb) eval_stress(cx, t->th > 1e-12 ? t->th : 1e-12, t->c > 1e-5 ? t->c : 1e-5, wake, &ep[q][var]);
+      } else {
+        eval(cx, t, turb, wake, &ep[q][var]);
+      }
+    }
+  }
+  if (ends != NULL) {
+    ends->k = kb;
+    ends->turb = turb;
+    ends->wake = wake;
+    ends->cx = cx;
+    ends->e0 = e0[1];
+    for (int var = 0; var < 4; var++) ends->ep[var] = ep[1][var];
   }
   /* the perturbations move no station along the surface: one logarithm for all but Rx */
   double lx = bl_interval_log(v0[0].xi, v0[1].xi);
@@ -324,26 +406,8 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
     plain_interval(kind, cx, &vx[0], &ex[0], &vx[1], &ex[1], bl_interval_log(vx[0].xi, vx[1].xi),
                    Rx);
   }
-  for (int q = 0; q < 2; q++) {
-    for (int var = 0; var < 4; var++) {
-      vstate sp = *in[q];
-      double *x = var == 0 ? &sp.th : var == 1 ? &sp.m : var == 2 ? &sp.c : &sp.ue;
-      *x += h[q][var];
-      vstate vp = first_view(cx, &sp);
-      vev ep;
-      if (var == 2) {
-        /* the third unknown: a laminar closure does not see N, a turbulent one sees sqrt(Ctau)
-         * in its dissipation only */
-        ep = e0[q];
-        if (turb) eval_stress(cx, vp.th > 1e-12 ? vp.th : 1e-12, vp.c > 1e-5 ? vp.c : 1e-5, wake, &ep);
-      } else {
-        eval(cx, &vp, turb, wake, &ep);
-      }
-      if (q == 0) {
-        plain_interval(kind, cx, &vp, &ep, &v0[1], &e0[1], lx, R1[q][var]);
-      } else {
-        plain_interval(kind, cx, &v0[0], &e0[0], &vp, &ep, lx, R1[q][var]);
-      }
-    }
+  for (int var = 0; var < 4; var++) {
+    plain_interval(kind, cx, &vp[0][var], &ep[0][var], &v0[1], &e0[1], lx, R1[0][var]);
+    plain_interval(kind, cx, &v0[0], &e0[0], &vp[1][var], &ep[1][var], lx, R1[1][var]);
   }
 }

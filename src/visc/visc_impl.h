@@ -59,14 +59,32 @@ typedef struct vctx {
 void visc_residual(int kind, const vctx *cx, const vstate *a, const vstate *b, const vstate *w,
                    double *R, double *f_tr);
 
+/* A station's closure evaluations as one end of a laminar, turbulent or wake interval: at its
+ * state and with each of its four variables raised by its forward-difference step (residual.c).
+ * They depend on the station's state, its steps, the regime and the context only, so the
+ * downstream end of one interval serves as the upstream end of the next. */
+typedef struct visc_vev {
+  double h, rth, me;
+  bl_closure c;
+  double mom, ke, lag, amp;
+} visc_vev;
+typedef struct visc_end_evals {
+  size_t k;         /* the station (SIZE_MAX: nothing held) */
+  int turb, wake;   /* the regime it was evaluated in */
+  const vctx *cx;
+  visc_vev e0, ep[4];
+} visc_end_evals;
+
 /* For VR_LAM, VR_TURB and VR_WAKE: R0 = the residual of a -> b, R1[q][var] the residual with
  * variable var (0 theta, 1 m, 2 the third unknown, 3 ue) of end q (0 a, 1 b) raised by
  * h[q][var], and (Rx not NULL) Rx the residual with xi of both ends raised by hx — the numbers
  * visc_residual gives for those states, at about half the closure evaluations (the Newton
- * matrix's forward differences, jacobian.c). */
+ * matrix's forward differences, jacobian.c). a and b are stations ka and kb; ends (may be
+ * NULL) holds the evaluations of the previous interval's downstream end: used for a when it is
+ * station ka in the same regime and context, then replaced by b's. */
 void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a, const vstate *b,
                             const double h[2][4], double hx, double R0[3], double R1[2][4][3],
-                            double Rx[3]);
+                            double Rx[3], size_t ka, size_t kb, visc_end_evals *ends);
 
 /* sqrt(Ctau) at the start of turbulent flow for the (laminar) state s: bl_ctau_initial at the
  * shape parameter of s. */
@@ -249,7 +267,8 @@ double visc_stag_span(const ascr_visc_solver *v);
 vctx visc_context(const ascr_visc_solver *v, int side);        /* side 0, 1, 2 (wake) */
 int visc_relocate_stagnation(ascr_visc_solver *v);             /* 1 moved, 0 not, -1 none */
 
-/* jacobian.c: residual norm^2 at the current state; R and the Newton matrix (largest |R|). */
+/* residual.c: residual norm^2 at the current state; jacobian.c: R and the Newton matrix
+ * (largest |R|). */
 double visc_residual_norm2(ascr_visc_solver *v, const vctx cxs[3]);
 double visc_assemble(ascr_visc_solver *v, const vctx cxs[3]);
 
