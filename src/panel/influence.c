@@ -18,6 +18,18 @@
 
 #include <math.h>
 
+/* Panel-local coordinates of a point for a panel from (ax, ay) with length L and unit tangent
+ * (tx, ty). */
+static void frame_point(double ax, double ay, double tx, double ty, double px, double py,
+                        double *X, double *Y)
+{
+  double rx = px - ax, ry = py - ay;
+  *X = rx * tx + ry * ty;
+  *Y = -rx * ty + ry * tx;
+}
+
+/* The panel's frame (the expressions of the panel solver's set-up, linvort.c) and the point in
+ * it. */
 static void local_frame(double ax, double ay, double bx, double by, double px, double py,
                         double *X, double *Y, double *L, double *tx, double *ty)
 {
@@ -25,9 +37,7 @@ static void local_frame(double ax, double ay, double bx, double by, double px, d
   *L = hypot(dx, dy);
   *tx = dx / *L;
   *ty = dy / *L;
-  double rx = px - ax, ry = py - ay;
-  *X = rx * *tx + ry * *ty;
-  *Y = -rx * *ty + ry * *tx;
+  frame_point(ax, ay, *tx, *ty, px, py, X, Y);
 }
 
 /* I1 and I2 for a point; on the panel line I1 is 0 outside the span and 0 (mean) inside. */
@@ -51,8 +61,9 @@ void panel_velocity_coeffs(const ascr_panel_solver *w, double px, double py, dou
     cv[j] = 0.0;
   }
   for (size_t j = 0; j + 1 < n; j++) {
-    double X, Y, L, tx, ty, i1, i2;
-    local_frame(w->x[j], w->y[j], w->x[j + 1], w->y[j + 1], px, py, &X, &Y, &L, &tx, &ty);
+    /* the body panels' frames as the set-up computed them (the same numbers) */
+    double X, Y, L = w->plen[j], tx = w->ptx[j], ty = w->pty[j], i1, i2;
+    frame_point(w->x[j], w->y[j], tx, ty, px, py, &X, &Y);
     angles_logs(X, Y, L, &i1, &i2);
     double jy1 = X * i1 - Y * i2;         /* int xi Y / r^2 */
     double jx1 = X * i2 - L + Y * i1;     /* int xi (X - xi) / r^2 */
@@ -81,8 +92,16 @@ void panel_velocity_coeffs(const ascr_panel_solver *w, double px, double py, dou
 void panel_source_velocity(double ax, double ay, double bx, double by, double px, double py,
                            double *u, double *v)
 {
-  double X, Y, L, tx, ty, i1, i2;
+  double X, Y, L, tx, ty;
   local_frame(ax, ay, bx, by, px, py, &X, &Y, &L, &tx, &ty);
+  panel_source_velocity_frame(ax, ay, L, tx, ty, px, py, u, v);
+}
+
+void panel_source_velocity_frame(double ax, double ay, double L, double tx, double ty, double px,
+                                 double py, double *u, double *v)
+{
+  double X, Y, i1, i2;
+  frame_point(ax, ay, tx, ty, px, py, &X, &Y);
   angles_logs(X, Y, L, &i1, &i2);
   const double k = 1.0 / (2.0 * ASCR_PI);
   double ul = k * i2, vl = k * i1;
@@ -95,6 +114,14 @@ double panel_source_psi(double ax, double ay, double bx, double by, double px, d
 {
   double X, Y, L, tx, ty;
   local_frame(ax, ay, bx, by, px, py, &X, &Y, &L, &tx, &ty);
+  return panel_source_psi_frame(ax, ay, L, tx, ty, px, py, forward_cut);
+}
+
+double panel_source_psi_frame(double ax, double ay, double L, double tx, double ty, double px,
+                              double py, int forward_cut)
+{
+  double X, Y;
+  frame_point(ax, ay, tx, ty, px, py, &X, &Y);
   double r1s = X * X + Y * Y, r2s = (X - L) * (X - L) + Y * Y;
   double lr1 = r1s > 0.0 ? 0.5 * log(r1s) : 0.0, lr2 = r2s > 0.0 ? 0.5 * log(r2s) : 0.0;
   double q;

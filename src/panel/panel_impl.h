@@ -21,7 +21,8 @@ struct ascr_panel_solver {
   double te_len;   /* trailing-edge panel length */
   double te_sn;    /* b . n_out of the trailing-edge panel */
   double te_tb;    /* b . t_TE */
-  double *ptx, *pty, *plen; /* panel unit tangents and lengths, n-1 each (set-up scratch) */
+  double *ptx, *pty, *plen; /* panel unit tangents and lengths, n-1 each (set at _set; read by
+                               panel_velocity_coeffs) */
   double *lnr, *rsq;        /* ln r and r^2 from one field node to every node (scratch) */
 };
 
@@ -47,6 +48,11 @@ void panel_velocity_coeffs(const ascr_panel_solver *w, double px, double py, dou
  * mean of the two sides). */
 void panel_source_velocity(double ax, double ay, double bx, double by, double px, double py,
                            double *u, double *v);
+/* The same for a panel given by its start (ax, ay), length L and unit tangent (tx, ty) as
+ * hypot and division give them (the numbers of panel_source_velocity, without recomputing the
+ * frame for every point). */
+void panel_source_velocity_frame(double ax, double ay, double L, double tx, double ty, double px,
+                                 double py, double *u, double *v);
 
 /* Stream function at (px, py) of a uniform source of unit strength on the panel from (ax,ay)
  * to (bx,by), including the 1/(2 pi). forward_cut = 0 puts the branch cut to the right of the
@@ -54,6 +60,9 @@ void panel_source_velocity(double ax, double ay, double bx, double by, double px
  * end (downstream for a wake panel). Defined up to a constant. */
 double panel_source_psi(double ax, double ay, double bx, double by, double px, double py,
                         int forward_cut);
+/* The same with the panel's frame given (see panel_source_velocity_frame). */
+double panel_source_psi_frame(double ax, double ay, double L, double tx, double ty, double px,
+                              double py, int forward_cut);
 
 /* Add the force (fx, fy, body axes) and moment about (0.25, 0) of a panel from a to b with
  * linear Cp from cpa to cpb (outward normal to the right of a -> b). */

@@ -85,10 +85,14 @@ ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *e
   for (size_t k = 0; k + 1 < nw; k++) v->plen[ns + k] = hypot(v->xw[k + 1] - v->xw[k], v->yw[k + 1] - v->yw[k]);
   /* wake source panels on the surface: -A^-1 B_wake */
   double *W = v->work;
+  double *wtx = v->wtx, *wty = v->wty;
   for (size_t k = 0; k + 1 < nw; k++) {
+    /* the wake panel's frame, once (the expressions of panel_source_psi's own) */
+    wtx[k] = (v->xw[k + 1] - v->xw[k]) / v->plen[ns + k];
+    wty[k] = (v->yw[k + 1] - v->yw[k]) / v->plen[ns + k];
     for (size_t i = 0; i < n; i++) {
-      W[i + k * m] = -panel_source_psi(v->xw[k], v->yw[k], v->xw[k + 1], v->yw[k + 1], ps->x[i],
-                                       ps->y[i], 1);
+      W[i + k * m] = -panel_source_psi_frame(v->xw[k], v->yw[k], v->plen[ns + k], wtx[k], wty[k],
+                                             ps->x[i], ps->y[i], 1);
     }
     if (ps->sharp) W[(n - 1) + k * m] = 0.0;
     W[n + k * m] = 0.0;
@@ -101,7 +105,7 @@ ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *e
   }
   /* tangential speed at the wake panel midpoints */
   for (size_t k = 0; k + 1 < nw; k++) {
-    double tx = (v->xw[k + 1] - v->xw[k]) / v->plen[ns + k], ty = (v->yw[k + 1] - v->yw[k]) / v->plen[ns + k];
+    double tx = wtx[k], ty = wty[k];
     double mx = 0.5 * (v->xw[k] + v->xw[k + 1]), my = 0.5 * (v->yw[k] + v->yw[k + 1]);
     panel_velocity_coeffs(ps, mx, my, v->cu, v->cv);
     double qi = cos(alpha) * tx + sin(alpha) * ty;
@@ -111,14 +115,17 @@ ascr_status visc_prepare_alpha(ascr_visc_solver *v, double alpha, ascr_errbuf *e
     }
     v->qmid_inv[k] = qi;
     for (size_t pp = 0; pp < np; pp++) {
-      double ax, ay, bx2, by2, su, sv;
+      /* each panel's frame as computed once: the body panels' by the panel solver's set-up, the
+       * wake panels' above (the numbers panel_source_velocity computes from the end points) */
+      double su, sv;
       if (pp < ns) {
-        ax = ps->x[pp]; ay = ps->y[pp]; bx2 = ps->x[pp + 1]; by2 = ps->y[pp + 1];
+        panel_source_velocity_frame(ps->x[pp], ps->y[pp], ps->plen[pp], ps->ptx[pp], ps->pty[pp],
+                                    mx, my, &su, &sv);
       } else {
         size_t kk = pp - ns;
-        ax = v->xw[kk]; ay = v->yw[kk]; bx2 = v->xw[kk + 1]; by2 = v->yw[kk + 1];
+        panel_source_velocity_frame(v->xw[kk], v->yw[kk], v->plen[ns + kk], wtx[kk], wty[kk], mx,
+                                    my, &su, &sv);
       }
-      panel_source_velocity(ax, ay, bx2, by2, mx, my, &su, &sv);
       v->qmid[k * np + pp] = su * tx + sv * ty;
     }
   }

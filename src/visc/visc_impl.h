@@ -151,6 +151,7 @@ struct ascr_visc_solver {
   double *qmid;              /* (nw-1) x np */
   double *qmid_g;            /* (nw-1) x n */
   double *qmid_inv;          /* nw-1 */
+  double *wtx, *wty;         /* unit tangents of the wake panels, nw-1 */
   /* stations */
   size_t is;                 /* stagnation between node is (upper) and is+1 (lower) */
   double s_stag;

@@ -63,6 +63,8 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->qmid, (nw - 1) * np);
   ALLOC(v->qmid_g, (nw - 1) * n);
   ALLOC(v->qmid_inv, nw - 1);
+  ALLOC(v->wtx, nw - 1);
+  ALLOC(v->wty, nw - 1);
   ALLOC(v->node, nst);
   ALLOC(v->side, nst);
   ALLOC(v->sgn, nst);
@@ -129,7 +131,7 @@ void ascr_visc_solver_free(ascr_visc_solver *v)
   if (v == NULL) return;
   free(v->snode); free(v->xw); free(v->yw); free(v->sw); free(v->E); free(v->gam_inv);
   free(v->qw_inv); free(v->plen); free(v->work); free(v->cu); free(v->cv); free(v->qmid);
-  free(v->qmid_g); free(v->qmid_inv); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
+  free(v->qmid_g); free(v->qmid_inv); free(v->wtx); free(v->wty); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp); free(v->sig);
