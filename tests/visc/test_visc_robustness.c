@@ -6,8 +6,10 @@
  * spreads them over the cores (about 60-150 s each in a release build). Every point must be
  * either converged, with finite numbers and a final update below the tolerance, or flagged
  * unconverged (no NaN is ever reported as a result).
- * usage: test_visc_robustness main INDEX   (writes robustness-main-INDEX.txt: "Re points
- * converged" per line, read by test_visc_robustness_summary.c, which checks the share)
+ * The same for issue 11's low-Reynolds-number grid of thin plates ("lowre", robustness_grid.h).
+ * usage: test_visc_robustness GRID INDEX   (GRID main or lowre; writes
+ * robustness-GRID-INDEX.txt: "Re points converged" per line, read by
+ * test_visc_robustness_summary.c, which checks the shares)
  */
 #include "ascr_test.h"
 #include "robustness_grid.h"
@@ -87,7 +89,7 @@ int main(int argc, char **argv)
   char *end = NULL;
   section_index = argc == 3 ? strtoul(argv[2], &end, 10) : 0;
   if (grid == NULL || end == argv[2] || *end != '\0' || section_index >= grid->n_sections) {
-    fprintf(stderr, "usage: test_visc_robustness main INDEX\n");
+    fprintf(stderr, "usage: test_visc_robustness main|lowre INDEX\n");
     return 2;
   }
   const struct CMUnitTest tests[] = {
