@@ -101,6 +101,20 @@ static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, pola
   pl->n_conv = sum.n_converged;
 }
 
+/* cm of the converged polar at alpha (linear between neighbouring converged points), NaN outside */
+static double cm_at_alpha(const polar *pl, double alpha)
+{
+  for (size_t i = 0; i + 1 < pl->n; i++) {
+    const ascr_polar_point *a = &pl->p[i], *b = &pl->p[i + 1];
+    if (!a->converged || !b->converged || !(b->alpha_deg > a->alpha_deg)) continue;
+    if (a->alpha_deg <= alpha && alpha <= b->alpha_deg) {
+      double f = (alpha - a->alpha_deg) / (b->alpha_deg - a->alpha_deg);
+      return a->cm + f * (b->cm - a->cm);
+    }
+  }
+  return NAN;
+}
+
 /* least-squares slope of y on x (n >= 4) and its standard error */
 static double ls_slope(const double *x, const double *y, size_t n, double *se)
 {
@@ -154,7 +168,7 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
   o->cd_mean = o->cd_n ? sd / (double)o->cd_n : NAN;
   o->cd_max = o->cd_n ? md : NAN;
   o->cd_bias = o->cd_n ? bd / (double)o->cd_n : NAN;
-  double sl = 0.0, ml = 0.0, bl = 0.0;
+  double sl = 0.0, ml = 0.0, bl = 0.0, sm = 0.0, bm = 0.0;
   double xa[64], ym[64], yc[64];
   size_t ns = 0;
   /* the loop's up-going branch: the rows up to the one at the largest angle (the angle is set
@@ -181,6 +195,12 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
     bl += c - clm;
     ml = fmax(ml, fabs(c - clm));
     o->cl_n++;
+    double cmm = lift->v[r][3], cmc = cm_at_alpha(pl, a);
+    if (isfinite(cmm) && isfinite(cmc)) {
+      sm += fabs(cmc - cmm);
+      bm += cmc - cmm;
+      o->cm_n++;
+    }
     if (a <= 5.0 && ns < 64) {
       xa[ns] = a;
       ym[ns] = clm;
@@ -191,6 +211,8 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
   o->cl_mean = o->cl_n ? sl / (double)o->cl_n : NAN;
   o->cl_max_err = o->cl_n ? ml : NAN;
   o->cl_bias = o->cl_n ? bl / (double)o->cl_n : NAN;
+  o->cm_mean = o->cm_n ? sm / (double)o->cm_n : NAN;
+  o->cm_bias = o->cm_n ? bm / (double)o->cm_n : NAN;
   o->slope_calc = o->slope_meas = o->slope_meas_se = NAN;
   if (ns >= 4) {
     o->slope_meas = ls_slope(xa, ym, ns, &o->slope_meas_se);

@@ -12,6 +12,9 @@
  *   - lift slope: least-squares dcl/dalpha over the measured angles from -2 to 5 deg of that
  *     run, measured and computed at the same angles, with the measured fit's standard error;
  *   - cl_max: measured (up-going branch) against the sweep's largest converged cl;
+ *   - pitching moment, where the lift file has one (Clark Y; the SD files carry a placeholder
+ *     that is not reproduced): mean and signed mean cm_c/4 error at the measured angle over the
+ *     lift comparison's angles (printed by the study; not one of issue 12's checks);
  *   - converged points of the sweep.
  * Polars: 160 panels, N_crit 9, -4 to 16 deg by 0.5 deg, at the run's average Re.
  */
@@ -30,6 +33,8 @@ typedef struct uiuc_result {
   size_t cl_n;
   double slope_calc, slope_meas, slope_meas_se; /* per deg; NaN where fewer than 4 angles */
   double clmax_calc, clmax_meas;
+  double cm_mean, cm_bias;        /* absolute; NaN where cm_n = 0 */
+  size_t cm_n;
 } uiuc_result;
 
 /* Run every Reynolds number of section name ("sd7003", "sd8000", "clarky") from folder dir;
