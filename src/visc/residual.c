@@ -17,6 +17,12 @@
  * the closure with a = ue/xi (stagnation flow, bl_similarity_start with m = 1). The first wake
  * station takes the sum of the two trailing-edge momentum and displacement thicknesses and the
  * theta-weighted mean of their sqrt(Ctau) (a laminar side contributes its initial Ctau).
+ *
+ * Besides the residual of one interval (visc_residual), two paths for all stations in turn: the
+ * forward differences of an interval (visc_residual_plain_fd, for the Newton matrix) and the
+ * line search's residual norm (visc_residual_norm2). Both evaluate each station's closures once,
+ * holding the downstream end of one interval for the next, with the numbers visc_residual gives
+ * (tests/visc/test_visc_residual.c).
  */
 #include "visc/visc_impl.h"
 
