@@ -79,7 +79,18 @@ typedef struct ascr_rotor_params {
   size_t n_elements;        /* blade elements, sine-spaced: fine at the tip (default 40) */
   int tip_loss, hub_loss;   /* Prandtl factors (default on) */
   int swirl;                /* swirl (tangential induction) in the momentum balance (default on) */
+  int stall_delay;          /* rotational stall delay of the section lift: ASCR_STALL_DELAY_NONE
+                               (default) or ASCR_STALL_DELAY_SNEL */
 } ascr_rotor_params;
+
+/** Stall-delay models (ascr_rotor_params.stall_delay). SNEL: the lift of a rotating section
+ *  rises towards the attached-flow line by 3 (c/r)^2 of the gap,
+ *  cl = cl_2D + 3 (c/r)^2 (cl_lin - cl_2D) where cl_lin > cl_2D (H. Snel, R. Houwink and
+ *  J. Bosschers, "Sectional prediction of lift coefficients on rotating wind turbine blades in
+ *  stall", ECN-C--93-052, 1994; form from memory), the factor held at most 1 and the correction
+ *  faded out from 25 to 45 deg above the zero-lift angle (our choice: the model is not claimed
+ *  in deep stall); drag unchanged. docs/theory/rotor.md, "Rotational stall delay". */
+enum { ASCR_STALL_DELAY_NONE = 0, ASCR_STALL_DELAY_SNEL = 1 };
 
 /** Defaults as documented above. */
 ASCR_EXPORT ascr_rotor_params ascr_rotor_params_defaults(void);

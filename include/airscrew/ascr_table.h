@@ -66,6 +66,10 @@ typedef struct ascr_table_sample {
   int region;     /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED, at the nearer curve */
   int re_outside; /* 1 if Re lay outside the table's range (nearest curve used) */
   int stalled;    /* 1 if alpha lies beyond the angle of cl_max (or of cl_min) */
+  double cl_lin;  /* the attached-flow lift line of thin-airfoil theory at this angle,
+                     2 pi (alpha - alpha0) / sqrt(1 - M^2), alpha0 the zero-lift angle of the
+                     curves (interpolated in log Re as cl is): the reference of stall-delay
+                     models (ascr_rotor_params.stall_delay) */
 } ascr_table_sample;
 
 /** Build a table from n_curves computed polars (distinct Re, any order). A curve needs at

@@ -52,6 +52,16 @@ int cli_rotor_opts_parse(cli_rotor_opts *o, int c, char *arg)
   case 'c': o->cache_dir = arg; return 0;
   case 'X': o->no_cache = 1; return 0;
   case 'e': return cli_parse_size("--elements", arg, 8, 400, &o->rp.n_elements);
+  case CLI_OPT_STALL_DELAY:
+    if (strcmp(arg, "none") == 0) {
+      o->rp.stall_delay = ASCR_STALL_DELAY_NONE;
+    } else if (strcmp(arg, "snel") == 0) {
+      o->rp.stall_delay = ASCR_STALL_DELAY_SNEL;
+    } else {
+      cli_error("--stall-delay: '%s' is not a model (none or snel)", arg);
+      return 1;
+    }
+    return 0;
   default: return -1;
   }
 }

@@ -8,7 +8,9 @@
 #include "cli.h"
 #include "cli_tables.h"
 
-/* getopt_long entries of the shared options (codes A D V S K Y i N T W U L a p P c X e) */
+/* getopt_long entries of the shared options (codes A D V S K Y i N T W U L a p P c X e, and
+ * CLI_OPT_STALL_DELAY) */
+#define CLI_OPT_STALL_DELAY 257
 #define CLI_ROTOR_LONGOPTS                                                                      \
   {"inflow", required_argument, NULL, 'i'}, {"altitude", required_argument, NULL, 'A'},         \
       {"density", required_argument, NULL, 'D'}, {"viscosity", required_argument, NULL, 'V'},   \
@@ -21,7 +23,8 @@
       {"trip-lower", required_argument, NULL, 'L'},                                             \
       {"table-alpha", required_argument, NULL, 'a'}, {"panels", required_argument, NULL, 'p'},  \
       {"polar-table", required_argument, NULL, 'P'}, {"cache-dir", required_argument, NULL, 'c'}, \
-      {"no-cache", no_argument, NULL, 'X'}, {"elements", required_argument, NULL, 'e'}
+      {"no-cache", no_argument, NULL, 'X'}, {"elements", required_argument, NULL, 'e'},     \
+      {"stall-delay", required_argument, NULL, CLI_OPT_STALL_DELAY}
 
 /* The help lines of the shared options. */
 #define CLI_ROTOR_OPTS_HELP                                                                     \
@@ -44,7 +47,10 @@
   "                          or ~/.cache/airscrew)\n"                                         \
   "      --no-cache          neither read nor write the cache\n"                              \
   "model:\n"                                                                                \
-  "  -e, --elements N        blade elements (default 40)\n"
+  "  -e, --elements N        blade elements (default 40)\n"                                  \
+  "      --stall-delay MODEL none (default) or snel: the inner sections' lift raised towards\n" \
+  "                          the attached-flow line by 3 (c/r)^2 of the gap (Snel et al.\n"  \
+  "                          1994; rotational stall delay, an estimate)\n"
 
 typedef struct cli_rotor_opts {
   double altitude, density, viscosity, sound, temp_c, press; /* NaN: not given */

@@ -387,6 +387,7 @@ int cmd_rotor(int argc, char **argv)
     json_object_set_new(o, "blade", json_string(bname));
     json_object_set_new(o, "blade_file", json_string(argv[optind]));
     json_object_set_new(o, "inflow", json_string(inflow));
+    json_object_set_new(o, "stall_delay", json_string(rp.stall_delay == ASCR_STALL_DELAY_SNEL ? "snel" : "none"));
     json_object_set_new(o, "blades", json_integer(blade->n_blades));
     json_object_set_new(o, "diameter_m", json_real(2.0 * blade->r_tip_m));
     json_object_set_new(o, "solidity", npt > 0 && pts[0].solved ? json_real(pts[0].r.solidity) : json_null());
@@ -500,7 +501,8 @@ int cmd_rotor(int argc, char **argv)
     fputc('\n', fp);
     json_decref(o);
   } else if (csv) {
-    fprintf(fp, "# blade: %s\n# inflow: %s\n", bname, inflow);
+    fprintf(fp, "# blade: %s\n# inflow: %s\n# stall delay: %s\n", bname, inflow,
+            rp.stall_delay == ASCR_STALL_DELAY_SNEL ? "snel" : "none");
     for (size_t i = 0; rotor_cautions[i] != NULL; i++) fprintf(fp, "# caution: %s\n", rotor_cautions[i]);
     fputs("rpm,speed_m_s,J,thrust_N,torque_Nm,power_W,CT,CP,efficiency,figure_of_merit,tip_mach,converged,"
           "confidence,flagged_thrust_share,CT_rotor,CP_rotor,CT_over_sigma,re_075,thrust_band_lo_N,"
@@ -535,8 +537,9 @@ int cmd_rotor(int argc, char **argv)
     }
   } else {
     fprintf(fp, "blade    %s\n", bname);
-    fprintf(fp, "rotor    %d blades, diameter %.1f mm, solidity %.4f, inflow model %s\n",
-            blade->n_blades, 2000.0 * blade->r_tip_m, npt > 0 ? pts[0].r.solidity : NAN, inflow);
+    fprintf(fp, "rotor    %d blades, diameter %.1f mm, solidity %.4f, inflow model %s%s\n",
+            blade->n_blades, 2000.0 * blade->r_tip_m, npt > 0 ? pts[0].r.solidity : NAN, inflow,
+            rp.stall_delay == ASCR_STALL_DELAY_SNEL ? ", stall delay (Snel)" : "");
     fprintf(fp, "         CT, CP propeller convention (n rev/s, D); CT/sig = T/(rho A (Omega R)^2)"
             " / solidity\n");
     fprintf(fp, "air      density %.4f kg/m3, viscosity %.4g Pa s, speed of sound %.1f m/s\n",

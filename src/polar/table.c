@@ -23,6 +23,8 @@ typedef struct table_curve {
   double a_clmax, a_clmin; /* angles of the largest / smallest converged cl, deg */
   double a_ns;             /* negative stall angle of the extension, deg (<= a_lo, < 0) */
   double slope_lo;         /* lift slope used from a_lo down to a_ns, per deg */
+  double alpha0;           /* zero-lift angle, deg: where the converged lift first turns
+                              from negative to positive, else the line of slope_lo */
   size_t ngap;
   double *gap;             /* ngap pairs (lo, hi), deg */
 } table_curve;
@@ -214,6 +216,13 @@ static int curve_prepare(const ascr_table_curve *in, table_curve *c, curve_fit *
     double a0 = f->a[0] - f->cl[0] / sl;
     double ans = fmin(a0 - 4.0, -2.0);
     c->a_ns = fmin(c->a_lo, fmax(ans, -30.0));
+    c->alpha0 = f->cl[0] > 0.0 ? a0 : f->a[n - 1] - f->cl[n - 1] / sl;
+    for (size_t i = 1; i < n; i++) {
+      if (f->cl[i - 1] <= 0.0 && f->cl[i] > 0.0) {
+        c->alpha0 = f->a[i - 1] - f->cl[i - 1] * (f->a[i] - f->a[i - 1]) / (f->cl[i] - f->cl[i - 1]);
+        break;
+      }
+    }
   }
   f->icl = gsl_interp_alloc(gsl_interp_steffen, n);
   f->icd = gsl_interp_alloc(gsl_interp_steffen, n);
@@ -511,6 +520,7 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
   memset(out, 0, sizeof *out);
   if (t->linear) {
     out->cl = t->slope * (a - t->alpha0);
+    out->cl_lin = 2.0 * ASCR_PI * (a - t->alpha0) / sqrt(1.0 - fmin(mach * mach, 0.64));
     out->cd = t->cd0;
     out->cm = 0.0;
     out->region = ASCR_TABLE_COMPUTED;
@@ -589,6 +599,8 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
   double dist = a_deg > hi ? a_deg - hi : (a_deg < lo ? lo - a_deg : 0.0);
   double w = dist >= 10.0 ? 0.0 : 1.0 - dist / 10.0;
   out->cl *= 1.0 + w * (f - 1.0);
+  double a0 = (c0->alpha0 + u * (c1->alpha0 - c0->alpha0)) * DEG;
+  out->cl_lin = 2.0 * ASCR_PI * (a - a0) / sqrt(1.0 - m * m);
 }
 
 size_t ascr_polar_table_curves(const ascr_polar_table *t)

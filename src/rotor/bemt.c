@@ -39,6 +39,7 @@ ascr_rotor_params ascr_rotor_params_defaults(void)
   p.tip_loss = 1;
   p.hub_loss = 1;
   p.swirl = 1;
+  p.stall_delay = ASCR_STALL_DELAY_NONE;
   return p;
 }
 
@@ -47,6 +48,7 @@ typedef struct elem_ctx {
   const ascr_polar_table *const *tables;
   const ascr_rotor_params *p;
   double r, chord, theta, sigma, vx, vy;
+  double sd; /* stall-delay factor (rotor_stall_delay_factor) */
   size_t s0, s1;
   double w;
   double re, mach; /* fixed during one pass */
@@ -57,7 +59,7 @@ typedef struct elem_ctx {
 
 static void lookup(elem_ctx *e, double alpha)
 {
-  rotor_sample(e->tables, e->s0, e->s1, e->w, alpha, e->re, e->mach, &e->smp);
+  rotor_sample(e->tables, e->s0, e->s1, e->w, alpha, e->re, e->mach, e->sd, &e->smp);
 }
 
 static double residual(double phi, void *ctx)
@@ -198,6 +200,10 @@ static ascr_status check_inputs(const ascr_blade *b, const ascr_polar_table *con
   if (p->n_elements < 4 || p->n_elements > 2000) {
     return core_fail(err, ASCR_EINVAL, "rotor: %zu blade elements, must be 4 .. 2000", p->n_elements);
   }
+  if (p->stall_delay != ASCR_STALL_DELAY_NONE && p->stall_delay != ASCR_STALL_DELAY_SNEL) {
+    return core_fail(err, ASCR_EINVAL, "rotor: stall-delay model %d unknown (0 none, 1 Snel)",
+                     p->stall_delay);
+  }
   if (!(isfinite(rpm) && rpm > 0.0 && rpm <= 1e6)) {
     return core_fail(err, ASCR_EINVAL, "rotor: rpm %g must be > 0 and at most 1e6", rpm);
   }
@@ -240,6 +246,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
     e.r = 0.5 * (ea + eb);
     double twist;
     rotor_blade_at(b, e.r, &e.chord, &twist, &e.s0, &e.s1, &e.w);
+    e.sd = rotor_stall_delay_factor(&p, e.chord, e.r);
     e.theta = twist * DEG;
     e.sigma = b->n_blades * e.chord / (2.0 * ASCR_PI * e.r);
     e.vx = speed_m_s;

@@ -127,19 +127,41 @@ double rotor_sample_cm(const ascr_polar_table *const *tables, size_t s0, size_t 
   return cm;
 }
 
+double rotor_stall_delay_factor(const ascr_rotor_params *p, double chord, double r)
+{
+  if (p->stall_delay != ASCR_STALL_DELAY_SNEL || !(r > 0.0)) return 0.0;
+  double f = 3.0 * (chord / r) * (chord / r);
+  return f < 1.0 ? f : 1.0;
+}
+
+/* Snel's correction (ascr_rotor.h) on a blended sample: where the lift lies below the
+ * attached-flow line on the positive side, a share sd of the gap is added, faded out linearly
+ * between 25 and 45 deg above the zero-lift angle; continuous in alpha (no jump at stall). */
+static void stall_delay(double sd, double mach, ascr_table_sample *s)
+{
+  double m = mach > 0.8 ? 0.8 : (mach > 0.0 ? mach : 0.0);
+  double da = s->cl_lin * sqrt(1.0 - m * m) / (2.0 * ASCR_PI) * (180.0 / ASCR_PI); /* deg above alpha0 */
+  double gap = s->cl_lin - s->cl;
+  if (!(da > 0.0) || !(gap > 0.0)) return;
+  double fade = da <= 25.0 ? 1.0 : (da >= 45.0 ? 0.0 : (45.0 - da) / 20.0);
+  s->cl += sd * fade * gap;
+}
+
 void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
-                  double alpha, double re, double mach, ascr_table_sample *out)
+                  double alpha, double re, double mach, double sd, ascr_table_sample *out)
 {
   polar_table_lookup(tables[s0], alpha, re, mach, 0, out);
   if (s1 != s0 && w > 0.0) {
     ascr_table_sample q;
     polar_table_lookup(tables[s1], alpha, re, mach, 0, &q);
     out->cl = (1.0 - w) * out->cl + w * q.cl;
+    out->cl_lin = (1.0 - w) * out->cl_lin + w * q.cl_lin;
     out->cd = (1.0 - w) * out->cd + w * q.cd;
     out->region = q.region > out->region ? q.region : out->region;
     out->stalled |= q.stalled;
     out->re_outside |= q.re_outside;
   }
+  if (sd > 0.0) stall_delay(sd, mach, out);
 }
 
 static double prandtl(double b_half, double dist, double rref, double sphi)

@@ -52,7 +52,7 @@ static void eval(ann *a, double v, double u, double *f1, double *f2)
     double phi = atan2(up, ut), sp = up / (wr > 0.0 ? wr : 1.0), cp = ut / (wr > 0.0 ? wr : 1.0);
     ascr_table_sample q;
     rotor_sample(a->tables, a->s0, a->s1, a->w, a->theta - phi, p->density_kg_m3 * wr * a->chord / p->viscosity_pa_s,
-                 wr / p->sound_speed_m_s, &q);
+                 wr / p->sound_speed_m_s, rotor_stall_delay_factor(p, a->chord, a->r), &q);
     double qc = 0.5 * p->density_kg_m3 * w2 * a->chord * a->b->n_blades;
     double cn = q.cl * cp - q.cd * sp, ct = q.cl * sp + q.cd * cp;
     dt += qc * cn;

@@ -14,9 +14,13 @@ void rotor_blade_at(const ascr_blade *b, double r, double *chord, double *twist_
 
 /* The blended section coefficients at an element: section s0's table, blended with weight w
  * towards section s1's (rotor_blade_at), at angle of attack alpha (rad), Re and Mach; the flags
- * of either (blade.c). */
+ * of either; the lift raised by the stall-delay factor sd of the element
+ * (rotor_stall_delay_factor; 0: none) (blade.c). */
 void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,
-                  double alpha, double re, double mach, ascr_table_sample *out);
+                  double alpha, double re, double mach, double sd, ascr_table_sample *out);
+/* The stall-delay factor of an element of chord c at radius r under p's model: 3 (c/r)^2
+ * held at most 1 for Snel's, 0 without a model (blade.c; ascr_rotor.h says the model). */
+double rotor_stall_delay_factor(const ascr_rotor_params *p, double chord, double r);
 /* The blended pitching-moment coefficient there (the look-ups above skip cm for speed; this
  * one is for the reported elements) (blade.c). */
 double rotor_sample_cm(const ascr_polar_table *const *tables, size_t s0, size_t s1, double w,

@@ -186,7 +186,8 @@ static double local_g(const vx *s, size_t i, double ua, double ut, ascr_table_sa
   double ph = atan2(va, vt);
   double re = s->p->density_kg_m3 * w * s->chord[i] / s->p->viscosity_pa_s;
   double mach = w / s->p->sound_speed_m_s;
-  rotor_sample(s->tables, s->s0[i], s->s1[i], s->w[i], s->theta[i] - ph, re, mach, smp);
+  rotor_sample(s->tables, s->s0[i], s->s1[i], s->w[i], s->theta[i] - ph, re, mach,
+               rotor_stall_delay_factor(s->p, s->chord[i], s->rc[i]), smp);
   if (wrel != NULL) *wrel = w;
   if (phi != NULL) *phi = ph;
   return 0.5 * w * s->chord[i] * smp->cl;

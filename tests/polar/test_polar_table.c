@@ -298,6 +298,35 @@ static void test_refusals(void **state)
   assert_non_null(strstr(err.msg, "twice"));
 }
 
+/* The attached-flow line a stall-delay model measures the lift against (ascr_table_sample.cl_lin):
+ * 2 pi (alpha - alpha0) / sqrt(1 - M^2) through the curve's zero-lift angle (-2 deg here, where
+ * the converged lift turns positive), at any angle, stall included; between two curves of
+ * different zero-lift angles, alpha0 interpolated in log Re. */
+static void test_attached_flow_line(void **state)
+{
+  (void)state;
+  synth s, s2;
+  make(&s, 0.9, 0.02);
+  make(&s2, 0.9, 0.02);
+  for (int i = 0; i < NA; i++) s2.cl[i] += 0.9 * 2.0 * PI * 1.0 * DEG; /* zero lift at -3 deg */
+  ascr_table_curve c[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv},
+                           {4e5, NA, s2.al, s2.cl, s2.cd, s2.cm, s2.conv}};
+  ascr_polar_table *t = NULL;
+  assert_int_equal(ascr_polar_table_build(c, 2, NULL, &t, NULL), ASCR_OK);
+  ascr_table_sample q;
+  const double al[3] = {3.0, 14.0, 40.0};
+  for (int k = 0; k < 3; k++) {
+    ascr_polar_table_eval(t, al[k] * DEG, 1e5, 0.0, &q);
+    ascr_assert_close(q.cl_lin, 2.0 * PI * (al[k] + 2.0) * DEG, 1e-9, 1e-12, "cl_lin, first curve");
+    ascr_polar_table_eval(t, al[k] * DEG, 4e5, 0.3, &q);
+    ascr_assert_close(q.cl_lin, 2.0 * PI * (al[k] + 3.0) * DEG / sqrt(1.0 - 0.09), 1e-9, 1e-12,
+                      "cl_lin, second curve, Mach 0.3");
+    ascr_polar_table_eval(t, al[k] * DEG, 2e5, 0.0, &q);
+    ascr_assert_close(q.cl_lin, 2.0 * PI * (al[k] + 2.5) * DEG, 1e-9, 1e-12, "cl_lin, half-way in log Re");
+  }
+  ascr_polar_table_free(t);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -307,6 +336,7 @@ int main(void)
       cmocka_unit_test(test_post_stall_against_sheldahl_klimas),
       cmocka_unit_test(test_negative_side_extension),
       cmocka_unit_test(test_refusals),
+      cmocka_unit_test(test_attached_flow_line),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }

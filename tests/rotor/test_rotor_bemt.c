@@ -260,6 +260,52 @@ static void test_element_pitching_moment(void **state)
   ascr_polar_table_free(tab);
 }
 
+/* Snel's stall delay (ascr_rotor.h) on an analytic section whose lift line, 4 per rad from
+ * -2 deg, lies below thin-airfoil theory's 2 pi: every element's lift is the section's plus
+ * min(1, 3 (c/r)^2) of the gap to 2 pi (alpha - alpha0) / sqrt(1 - M^2), faded out from 25 to
+ * 45 deg above the zero-lift angle; without the model, the section's lift. An unknown model is
+ * refused. */
+static void test_stall_delay(void **state)
+{
+  (void)state;
+  ascr_polar_table *tab = NULL;
+  assert_int_equal(ascr_polar_table_linear(4.0, -2.0 * DEG, 0.01, &tab, NULL), ASCR_OK);
+  const ascr_polar_table *tabs[1] = {tab};
+  test_blade a;
+  small_prop(&a, 1.0);
+  enum { NE = 40 };
+  ascr_rotor_params p = ascr_rotor_params_defaults(), ps = p;
+  p.n_elements = ps.n_elements = NE;
+  ps.stall_delay = ASCR_STALL_DELAY_SNEL;
+  ascr_rotor_element e0[NE], e1[NE];
+  ascr_rotor_result r0, r1;
+  assert_int_equal(ascr_rotor_bemt(&a.b, tabs, &p, 12000.0, 0.0, &r0, e0, NULL), ASCR_OK);
+  assert_int_equal(ascr_rotor_bemt(&a.b, tabs, &ps, 12000.0, 0.0, &r1, e1, NULL), ASCR_OK);
+  assert_true(r0.converged && r1.converged);
+  int raised = 0;
+  for (int i = 0; i < NE; i++) {
+    double da = e1[i].alpha_deg + 2.0;
+    double cl2 = 4.0 * da * DEG;
+    ascr_assert_close(e0[i].cl, 4.0 * (e0[i].alpha_deg + 2.0) * DEG, 1e-12, 1e-12, "no model");
+    double lin = 2.0 * PI * da * DEG / sqrt(1.0 - e1[i].mach * e1[i].mach);
+    double f = 3.0 * pow(e1[i].chord_m / e1[i].r_m, 2.0);
+    f = f < 1.0 ? f : 1.0;
+    double fade = da <= 25.0 ? 1.0 : (da >= 45.0 ? 0.0 : (45.0 - da) / 20.0);
+    double want = da > 0.0 && lin > cl2 ? cl2 + f * fade * (lin - cl2) : cl2;
+    /* 1e-7: the reported angle and Mach number come from the converged inflow angle, the lift
+     * from the solver's last evaluation, within the root finder's tolerance */
+    ascr_assert_close(e1[i].cl, want, 1e-7, 1e-12, "element lift with Snel's stall delay");
+    raised += e1[i].cl > cl2 + 1e-6;
+  }
+  assert_true(raised > NE / 2);
+  assert_true(r1.thrust_N > r0.thrust_N);
+  ps.stall_delay = 7;
+  ascr_errbuf err;
+  assert_int_equal(ascr_rotor_bemt(&a.b, tabs, &ps, 12000.0, 0.0, &r1, NULL, &err), ASCR_EINVAL);
+  assert_non_null(strstr(err.msg, "stall-delay"));
+  ascr_polar_table_free(tab);
+}
+
 /* Thrust grows as rpm^2 when the section coefficients do not depend on Re or Mach (the
  * linear model) in hover (blade-element scaling, common practice). */
 static void test_thrust_rpm_squared(void **state)
@@ -455,7 +501,7 @@ int main(void)
       cmocka_unit_test(test_thrust_rpm_squared), cmocka_unit_test(test_windmill),
       cmocka_unit_test(test_bad_input),          cmocka_unit_test(test_isa),
       cmocka_unit_test(test_confidence),        cmocka_unit_test(test_band),
-      cmocka_unit_test(test_element_pitching_moment),
+      cmocka_unit_test(test_element_pitching_moment), cmocka_unit_test(test_stall_delay),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
