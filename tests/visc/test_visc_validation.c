@@ -2,8 +2,13 @@
  * The coupled viscous analysis against measured section data (reference/, each file with its
  * source header): NACA 0012 at Re 6e6 smooth (Abbott & von Doenhoff) and tripped (Ladson,
  * NASA TM-4074), the NACA 0012 lift slope (McCroskey 1987), and SD7003 at Re 1e5 (UIUC
- * low-speed airfoil tests). Polars are computed with the library's sweep at the default
- * 160 panels and N_crit 9.
+ * low-speed airfoil tests); NACA 0012 at every other condition reference/ holds it: free
+ * transition at Re 5.97e6, Mach 0.15 (Ladson, TM-4074 Table I), lift against angle at Re 6e6
+ * (Abbott & von Doenhoff), lift and upper-surface pressure at Re 2.88e6 tripped (Gregory &
+ * O'Reilly, ARC R&M 3726), each against issue 12's targets. Polars are computed with the
+ * library's sweep at the default 160 panels and N_crit 9. usage: test_visc_validation [naca0012]
+ * (the second group, through stall at Re 3e6-6e6, takes about two minutes and is a CTest test of
+ * its own, left out of the sanitizer stage).
  */
 #include "ascr_test.h"
 
@@ -20,8 +25,8 @@ typedef struct polar {
   ascr_polar_summary sum;
 } polar;
 
-static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, double da,
-                       double trip)
+static polar run_polar_mach(ascr_geom_section *raw, double re, double mach, double a0, double a1,
+                            double da, double trip)
 {
   ascr_geom_section *s = NULL;
   ascr_errbuf e;
@@ -33,6 +38,7 @@ static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, 
   assert_non_null(v);
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
+  p.mach = mach;
   if (trip <= 1.0) {
     p.trip_upper = trip;
     p.trip_lower = trip;
@@ -46,6 +52,12 @@ static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, 
   ascr_panel_solver_free(w);
   ascr_geom_section_free(s);
   return pl;
+}
+
+static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, double da,
+                       double trip)
+{
+  return run_polar_mach(raw, re, 0.0, a0, a1, da, trip);
 }
 
 /* cd of the converged polar at lift coefficient cl, linear between neighbouring points
@@ -185,9 +197,223 @@ static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
   ascr_geom_section_free(raw);
 }
 
-int main(void)
+/* ---- NACA 0012 against issue 12's targets -------------------------------------------------
+ * The targets (issue 12), each with its reason: lift at a given angle below stall within 0.03
+ * (a balance's or a pressure integration's repeatability, about 0.005, and +-0.1 deg of angle
+ * setting, 0.011); cl_max within 0.08 (stall is where the method is least sure); mean |cd
+ * error| over the low-drag range (cd at most 1.5 times the smallest measured) within 10 %;
+ * mean |Cp error| over a digitised upper-surface distribution within 0.05 (the digitising,
+ * "approximate", about +-0.02, and the pressure-tap scatter). A target held (1) fails the test
+ * when it is no longer met; an open one (0) is reported, never asserted, until a change meets
+ * it (as in test_visc_uiuc.c). Held/open as measured 2026-12-05 (twentieth session). */
+static int target(const char *what, double err, double tol, int held, size_t n, size_t m,
+                  int *failed)
+{
+  int met = isfinite(err) && err <= tol;
+  print_message("NACA 0012 %-44s %.4f (target %.4f; %zu of %zu compared) %s\n", what, err, tol, n,
+                m, met ? (held ? "met" : "met (open: may be held now)")
+                       : (held ? "FAILED" : "open"));
+  if (held && !met) *failed = 1;
+  return met;
+}
+
+/* largest |cl error| at the measured angles up to the measured cl_max (which it returns in
+ * *clmax_meas); sign > 0: angles as given; the symmetric section lets negative angles be
+ * compared as positive ones with the sign of cl changed (|alpha| folded). */
+static double cl_error_below_stall(const polar *pl, const double *al, const double *cl, size_t nr,
+                                   size_t *n, double *clmax_meas)
+{
+  size_t im = 0;
+  for (size_t i = 0; i < nr; i++) im = cl[i] > cl[im] ? i : im;
+  *clmax_meas = cl[im];
+  double worst = 0.0;
+  *n = 0;
+  for (size_t i = 0; i < nr; i++) {
+    double a = fabs(al[i]), c = al[i] < 0.0 ? -cl[i] : cl[i];
+    if (a > al[im] + 1e-9 || (al[i] < 0.0 && c > *clmax_meas)) continue;
+    double ours = ascr_polar_cl_at_alpha(pl->p, pl->n, a);
+    if (!isfinite(ours)) continue;
+    print_message("  alpha %6.2f: cl airscrew %.4f, measured %.4f\n", al[i], al[i] < 0.0 ? -ours : ours, cl[i]);
+    worst = fmax(worst, fabs(ours - c));
+    (*n)++;
+  }
+  return worst;
+}
+
+/* Free transition, Re 5.97e6, Mach 0.15: Ladson, NASA TM-4074 (1988) Table I
+ * (reference/naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv; cl, cm from integrated
+ * pressures, cd from a wake rake). The tunnel's free-transition drag near zero lift (0.0065)
+ * lies 10 % above the smooth-model drag of Abbott & von Doenhoff at Re 6e6 (0.0059): two
+ * facilities, one section. */
+static void test_visc_naca0012_free_transition_against_ladson(void **state)
+{
+  (void)state;
+  ascr_geom_section *raw = NULL;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
+  polar pl = run_polar_mach(raw, 5.97e6, 0.15, -4.5, 18.0, 0.5, 2.0);
+  double al[40], cl[40], al2[40], cd[40];
+  size_t nr = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 1, al, cl, 40);
+  size_t nd = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 2, al2, cd, 40);
+  assert_true(nr >= 16 && nd >= 14);
+  int failed = 0;
+  size_t n = 0;
+  double clmax_meas;
+  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
+  target("Re 5.97e6 M 0.15 free: cl below stall, largest", e, 0.03, 0, n, nr - 2, &failed);
+  /* drag over the low-drag range at the measured angle (rows with cd given) */
+  double cdmin = HUGE_VAL;
+  /* the post-stall rows have no cd (blank in the file; read_ref then takes the next column):
+   * the low-drag range is read from the rows up to the measured cl_max */
+  size_t im = 0;
+  for (size_t i = 0; i < nr; i++) im = cl[i] > cl[im] ? i : im;
+  nd = nd < im + 1 ? nd : im + 1;
+  for (size_t i = 0; i < nd; i++) cdmin = fmin(cdmin, cd[i]);
+  double sum = 0.0;
+  size_t k = 0, m = 0;
+  for (size_t i = 0; i < nd; i++) {
+    if (cd[i] > 1.5 * cdmin) continue;
+    m++;
+    for (size_t j = 0; j + 1 < pl.n; j++) {
+      const ascr_polar_point *a = &pl.p[j], *b = &pl.p[j + 1];
+      if (!a->converged || !b->converged || al2[i] < a->alpha_deg || al2[i] > b->alpha_deg) continue;
+      double c = a->cd + (al2[i] - a->alpha_deg) / (b->alpha_deg - a->alpha_deg) * (b->cd - a->cd);
+      print_message("  alpha %6.2f: cd airscrew %.5f, measured %.5f (%+.1f %%)\n", al2[i], c, cd[i],
+                    100.0 * (c / cd[i] - 1.0));
+      ascr_validation_row("naca0012_re5.97e6_free", "Ladson, NASA TM-4074 (1988) Table I, NACA 0012 Re 5.97e6 M 0.15 free transition",
+                          "alpha_deg,cd_reference,cd_airscrew,difference_percent",
+                          "%.2f,%.5f,%.5f,%+.1f", al2[i], cd[i], c, 100.0 * (c / cd[i] - 1.0));
+      sum += fabs(c / cd[i] - 1.0);
+      k++;
+      break;
+    }
+  }
+  target("Re 5.97e6 M 0.15 free: cd low-drag range, mean", k ? sum / (double)k : NAN, 0.10, 0, k, m, &failed);
+  target("Re 5.97e6 M 0.15 free: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 0, 1, 1, &failed);
+  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
+                pl.sum.alpha_cl_max_deg, clmax_meas);
+  assert_false(failed);
+  free(pl.p);
+  ascr_geom_section_free(raw);
+}
+
+/* Lift against angle at Re 6e6, smooth model: Abbott & von Doenhoff (1959) as digitised
+ * (reference/naca0012_abbott_vondoenhoff_re6e6_cl_alpha_digitized.csv, "approximate": about
+ * +-0.02 in cl from the digitising, within the 0.03 target's allowance for it). Both signs of
+ * angle, folded onto the positive sweep (a symmetric section). */
+static void test_visc_naca0012_lift_against_abbott(void **state)
+{
+  (void)state;
+  ascr_geom_section *raw = NULL;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
+  polar pl = run_polar(raw, 6e6, 0.0, 17.5, 0.5, 2.0);
+  double al[60], cl[60];
+  size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cl_alpha_digitized.csv", -1, 0, 0, 1, al, cl, 60);
+  assert_true(nr >= 20);
+  int failed = 0;
+  size_t n = 0;
+  double clmax_meas;
+  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
+  target("Re 6e6 smooth: cl below stall, largest", e, 0.03, 0, n, nr, &failed);
+  target("Re 6e6 smooth: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 0, 1, 1, &failed);
+  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
+                pl.sum.alpha_cl_max_deg, clmax_meas);
+  assert_false(failed);
+  free(pl.p);
+  ascr_geom_section_free(raw);
+}
+
+/* Re 2.88e6, transition tripped: Gregory & O'Reilly, ARC R&M 3726 (1970), as digitised
+ * (reference/naca0012_gregory_oreilly_re2.88e6_{cl,cp_upper}_digitized.csv, "approximate").
+ * The trip position is not in the files: x/c 0.05 on both surfaces here, an assumption of ours
+ * (as for Ladson's tripped rows above). Upper-surface Cp at 0 and 10 deg (15 deg is at stall):
+ * the viscous surface pressure interpolated at the tap positions. */
+static void test_visc_naca0012_tripped_against_gregory(void **state)
+{
+  (void)state;
+  ascr_geom_section *raw = NULL, *s = NULL;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
+  polar pl = run_polar(raw, 2.88e6, 0.0, 17.0, 0.5, 0.05);
+  double al[40], cl[40];
+  size_t nr = read_ref("naca0012_gregory_oreilly_re2.88e6_cl_digitized.csv", -1, 0, 0, 1, al, cl, 40);
+  assert_true(nr >= 10);
+  int failed = 0;
+  size_t n = 0;
+  double clmax_meas;
+  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
+  target("Re 2.88e6 tripped: cl below stall, largest", e, 0.03, 0, n, nr - 2, &failed);
+  target("Re 2.88e6 tripped: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 1, 1, 1, &failed);
+  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
+                pl.sum.alpha_cl_max_deg, clmax_meas);
+  /* upper-surface pressure */
+  assert_int_equal(ascr_geom_section_repanel(raw, NULL, &s, NULL), ASCR_OK);
+  size_t nn = ascr_geom_section_size(s), le = ascr_geom_section_le_index(s);
+  const double *x = ascr_geom_section_x(s);
+  ascr_panel_solver *w = ascr_panel_solver_alloc(nn);
+  assert_int_equal(ascr_panel_solver_set(w, s, NULL), ASCR_OK);
+  ascr_visc_solver *v = ascr_visc_solver_alloc(nn, ascr_visc_default_wake_nodes(nn));
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = 2.88e6;
+  p.trip_upper = p.trip_lower = 0.05;
+  assert_int_equal(ascr_visc_solver_set(v, w, &p, NULL), ASCR_OK);
+  double *cp = calloc(nn, sizeof *cp);
+  const double cases[2] = {0.0, 10.0};
+  const char *keys[2] = {"alpha=0", "alpha=10"};
+  for (int c = 0; c < 2; c++) {
+    ascr_visc_result r;
+    int warm = 0;
+    for (double a = 0.0; a <= cases[c] + 1e-9; a += 1.0) {
+      warm = ascr_visc_solver_solve(v, a * M_PI / 180.0, warm, &r, NULL) == ASCR_OK;
+    }
+    assert_true(warm);
+    ascr_visc_solver_cp(v, cp);
+    /* the tap rows of this angle */
+    char path[512], line[256];
+    snprintf(path, sizeof path, "%s/%s", ASCR_REFERENCE_DIR, "naca0012_gregory_oreilly_re2.88e6_cp_upper_digitized.csv");
+    FILE *fp = fopen(path, "r");
+    assert_non_null(fp);
+    double sum = 0.0;
+    size_t k = 0;
+    while (fgets(line, sizeof line, fp) != NULL) {
+      char key[32];
+      double xc, cpm;
+      if (sscanf(line, "%31[^,],%lf,%lf", key, &xc, &cpm) != 3 || strcmp(key, keys[c]) != 0) continue;
+      if (xc < 0.01 || xc > 0.99) continue; /* the stagnation tap and the trailing edge */
+      /* upper surface: nodes le down to 0, x increasing */
+      for (size_t i = le; i > 0; i--) {
+        if (x[i] <= xc && x[i - 1] >= xc) {
+          double f = (xc - x[i]) / (x[i - 1] - x[i]);
+          double cpo = cp[i] + f * (cp[i - 1] - cp[i]);
+          sum += fabs(cpo - cpm);
+          k++;
+          break;
+        }
+      }
+    }
+    fclose(fp);
+    char what[64];
+    snprintf(what, sizeof what, "Re 2.88e6 tripped: upper Cp at %s, mean", keys[c]);
+    target(what, k ? sum / (double)k : NAN, 0.05, 1, k, k, &failed);
+  }
+  free(cp);
+  ascr_visc_solver_free(v);
+  ascr_panel_solver_free(w);
+  ascr_geom_section_free(s);
+  assert_false(failed);
+  free(pl.p);
+  ascr_geom_section_free(raw);
+}
+
+int main(int argc, char **argv)
 {
   gsl_set_error_handler_off();
+  if (argc > 1 && strcmp(argv[1], "naca0012") == 0) {
+    const struct CMUnitTest high_re[] = {
+        cmocka_unit_test(test_visc_naca0012_free_transition_against_ladson),
+        cmocka_unit_test(test_visc_naca0012_lift_against_abbott),
+        cmocka_unit_test(test_visc_naca0012_tripped_against_gregory),
+    };
+    return cmocka_run_group_tests(high_re, NULL, NULL);
+  }
   const struct CMUnitTest tests[] = {
     cmocka_unit_test(test_visc_naca0012_re6e6_drag_matches_abbott),
     cmocka_unit_test(test_visc_naca0012_tripped_drag_matches_ladson),
