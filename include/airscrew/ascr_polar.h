@@ -29,6 +29,7 @@ typedef struct ascr_polar_point {
   int converged;
   int iterations;
   double residual;
+  int trip_not_applied; /* as ascr_visc_result.trip_not_applied (bit 0 upper, bit 1 lower) */
   int bistable;      /* 1 if the sweep, reaching this angle from the other side (or a fresh
                         start, ascr_polar_check_fresh), converged to a second state
                         (|dcl| > 0.005 or |dcd| > 1 %); its values below, NaN otherwise */

@@ -69,6 +69,11 @@ typedef struct ascr_visc_result {
   double x_transition_upper; /* x/c of transition, upper surface (NaN if laminar to the TE) */
   double x_transition_lower;
   int forced_upper;          /* 1 if the upper transition is the trip */
+  int trip_not_applied;      /* bit 0 upper, bit 1 lower surface: a trip was asked for there but
+                                lies between the leading edge and the stagnation point (at
+                                incidence the stagnation point moves onto that surface, behind
+                                the trip), ahead of the layer it was meant for, so it binds
+                                nothing: that layer's transition is free */
   double x_separation_upper; /* x/c where Cf first turns negative on the upper surface (NaN if none) */
   double x_reattach_upper;   /* x/c where it turns positive again (NaN if it does not) */
   double x_separation_lower;

@@ -346,6 +346,13 @@ int cmd_polar(int argc, char **argv)
           json_object_set_new(pt, "converged", json_boolean(ok));
           json_object_set_new(pt, "iterations", json_integer(q->iterations));
           json_object_set_new(pt, "bistable", json_boolean(ok && q->bistable));
+          if (vp.trip_upper <= 1.0 || vp.trip_lower <= 1.0) {
+            /* a trip ahead of the stagnation point binds nothing: said per point */
+            json_t *tn = json_array();
+            if (ok && (q->trip_not_applied & 1)) json_array_append_new(tn, json_string("upper"));
+            if (ok && (q->trip_not_applied & 2)) json_array_append_new(tn, json_string("lower"));
+            json_object_set_new(pt, "trip_not_applied", tn);
+          }
           if (banded) {
             const ascr_polar_band *bq = &bands[k * npts + i];
             json_t *cb = json_array(), *db = json_array(), *mb = json_array();
@@ -416,6 +423,9 @@ int cmd_polar(int argc, char **argv)
     fputs("re,mach,ncrit,alpha_deg,cl,cd,ld,cm,x_transition_upper,x_transition_lower,cdf,cdp,"
           "converged,bistable", fp);
     if (banded) fputs(",ncrit_lo,ncrit_hi,cl_lo,cl_hi,cd_lo,cd_hi,band_complete", fp);
+    ascr_visc_params vp0 = cli_visc_params(&vo, res[0], machs[0]);
+    int tripped = vp0.trip_upper <= 1.0 || vp0.trip_lower <= 1.0;
+    if (tripped) fputs(",trip_not_applied", fp);
     fputc('\n', fp);
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
@@ -443,6 +453,10 @@ int cmd_polar(int argc, char **argv)
               fputs(",,,", fp);
             }
             fputs(bq->n_converged == bq->n_runs ? ",true" : ",false", fp);
+          }
+          if (tripped) {
+            static const char *const which[4] = {"", "upper", "lower", "upper lower"};
+            fprintf(fp, ",%s", q->converged ? which[q->trip_not_applied & 3] : "");
           }
           fputc('\n', fp);
         }
@@ -485,6 +499,12 @@ int cmd_polar(int argc, char **argv)
           if (q->bistable) {
             fprintf(fp, "%8s two states: the other converges to cl %.4f, cd %.5f, cm %.4f\n",
                     "", q->other_cl, q->other_cd, q->other_cm);
+          }
+          for (int sd = 0; sd < 2; sd++) {
+            if (q->trip_not_applied & (1 << sd)) {
+              fprintf(fp, "%8s the %s trip lies ahead of the stagnation point: not applied, "
+                      "transition there is free\n", "", sd == 0 ? "upper" : "lower");
+            }
           }
         }
         if (sums[k].n_converged > 0) {

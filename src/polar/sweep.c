@@ -57,6 +57,7 @@ static void fill(ascr_polar_point *p, double alpha_deg, const ascr_visc_result *
   p->x_separation_lower = r->x_separation_lower;
   p->x_reattach_lower = r->x_reattach_lower;
   p->converged = r->converged;
+  p->trip_not_applied = r->trip_not_applied;
   p->iterations = r->iterations;
   p->residual = r->residual;
   p->bistable = 0;

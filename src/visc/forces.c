@@ -53,6 +53,7 @@ void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
   r->x_separation_upper = r->x_separation_lower = NAN;
   r->x_reattach_upper = r->x_reattach_lower = NAN;
   r->forced_upper = 0;
+  r->trip_not_applied = 0;
   for (int side = 0; side < 2; side++) {
     size_t k0 = side == 0 ? 0 : v->nu, k1 = side == 0 ? v->nu : v->nu + v->nl;
     double cfprev = 0.0, xprev = 0.0;
@@ -81,6 +82,10 @@ void visc_results(ascr_visc_solver *v, const vctx cxs[3], ascr_visc_result *r)
       xprev = x;
     }
     double xtr = visc_x_transition(v, side);
+    {
+      double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;
+      if (xt >= 0.0 && xt <= 1.0 && !(cxs[side].xi_trip >= 0.0)) r->trip_not_applied |= 1 << side;
+    }
     int forced = 0;
     if (!isnan(xtr) && cxs[side].xi_trip >= 0.0) {
       double xt = side == 0 ? v->p.trip_upper : v->p.trip_lower;

@@ -136,6 +136,39 @@ static void test_visc_stepped_run_reports_the_limit(void **state)
   teardown(&f);
 }
 
+/* A trip between the leading edge and the stagnation point binds nothing and the result says
+ * so: NACA 0012 at Re 1e6 with both trips at x/c 0.02. At 2 deg both are applied (the layers
+ * start ahead of them, transition forced there); at 10 deg the stagnation point lies near
+ * x/c 0.025 on the lower surface, behind the lower trip, which the result flags (bit 1) while
+ * the upper one stays applied. (Near 8 deg, where the stagnation point passes the trip, the
+ * model itself jumps from a tripped to a free lower layer; the walk steps over it.) */
+static void test_visc_trip_ahead_of_stagnation_is_flagged(void **state)
+{
+  (void)state;
+  fixture f;
+  setup(&f, "naca0012", 1e6);
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = 1e6;
+  p.trip_upper = p.trip_lower = 0.02;
+  assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, NULL), ASCR_OK);
+  ascr_visc_result r;
+  int warm = 0;
+  const int walk[6] = {0, 2, 4, 6, 9, 10};
+  for (int k = 0; k < 6; k++) {
+    int a = walk[k];
+    assert_int_equal(ascr_visc_solver_solve(f.v, a * M_PI / 180.0, warm, &r, NULL), ASCR_OK);
+    warm = 1;
+    if (a == 2) {
+      assert_int_equal(r.trip_not_applied, 0);
+      assert_true(r.forced_upper);
+      ascr_assert_close(r.x_transition_lower, 0.02, 0.0, 1e-6, "lower transition at its trip");
+    }
+  }
+  assert_int_equal(r.trip_not_applied, 2);
+  assert_true(r.forced_upper || r.x_transition_upper < 0.02);
+  teardown(&f);
+}
+
 int main(void)
 {
   gsl_set_error_handler_off();
@@ -143,6 +176,7 @@ int main(void)
     cmocka_unit_test(test_visc_stepped_run_matches_solve),
     cmocka_unit_test(test_visc_stepping_refuses_misuse),
     cmocka_unit_test(test_visc_stepped_run_reports_the_limit),
+    cmocka_unit_test(test_visc_trip_ahead_of_stagnation_is_flagged),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
