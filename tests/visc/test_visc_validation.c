@@ -240,6 +240,23 @@ static double cl_error_below_stall(const polar *pl, const double *al, const doub
   return worst;
 }
 
+/* The lift targets of one set: cl below stall (largest error over the measured angles up to
+ * the measured cl_max; m of them in the set) and cl_max (held if clmax_held). */
+static void lift_targets(const polar *pl, const double *al, const double *cl, size_t nr, size_t m,
+                         const char *label, int clmax_held, int *failed)
+{
+  size_t n = 0;
+  double clmax_meas;
+  double e = cl_error_below_stall(pl, al, cl, nr, &n, &clmax_meas);
+  char what[96];
+  snprintf(what, sizeof what, "%s: cl below stall, largest", label);
+  target(what, e, 0.03, 0, n, m, failed);
+  snprintf(what, sizeof what, "%s: cl_max", label);
+  target(what, fabs(pl->sum.cl_max - clmax_meas), 0.08, clmax_held, 1, 1, failed);
+  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl->sum.cl_max,
+                pl->sum.alpha_cl_max_deg, clmax_meas);
+}
+
 /* Free transition, Re 5.97e6, Mach 0.15: Ladson, NASA TM-4074 (1988) Table I
  * (reference/naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv; cl, cm from integrated
  * pressures, cd from a wake rake). The tunnel's free-transition drag near zero lift (0.0065)
@@ -256,10 +273,7 @@ static void test_visc_naca0012_free_transition_against_ladson(void **state)
   size_t nd = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 2, al2, cd, 40);
   assert_true(nr >= 16 && nd >= 14);
   int failed = 0;
-  size_t n = 0;
-  double clmax_meas;
-  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
-  target("Re 5.97e6 M 0.15 free: cl below stall, largest", e, 0.03, 0, n, nr - 2, &failed);
+  lift_targets(&pl, al, cl, nr, nr - 2, "Re 5.97e6 M 0.15 free", 0, &failed);
   /* drag over the low-drag range at the measured angle (rows with cd given) */
   double cdmin = HUGE_VAL;
   /* the post-stall rows have no cd (blank in the file; read_ref then takes the next column):
@@ -288,9 +302,6 @@ static void test_visc_naca0012_free_transition_against_ladson(void **state)
     }
   }
   target("Re 5.97e6 M 0.15 free: cd low-drag range, mean", k ? sum / (double)k : NAN, 0.10, 0, k, m, &failed);
-  target("Re 5.97e6 M 0.15 free: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 0, 1, 1, &failed);
-  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
-                pl.sum.alpha_cl_max_deg, clmax_meas);
   assert_false(failed);
   free(pl.p);
   ascr_geom_section_free(raw);
@@ -310,13 +321,7 @@ static void test_visc_naca0012_lift_against_abbott(void **state)
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cl_alpha_digitized.csv", -1, 0, 0, 1, al, cl, 60);
   assert_true(nr >= 20);
   int failed = 0;
-  size_t n = 0;
-  double clmax_meas;
-  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
-  target("Re 6e6 smooth: cl below stall, largest", e, 0.03, 0, n, nr, &failed);
-  target("Re 6e6 smooth: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 0, 1, 1, &failed);
-  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
-                pl.sum.alpha_cl_max_deg, clmax_meas);
+  lift_targets(&pl, al, cl, nr, nr, "Re 6e6 smooth", 0, &failed);
   assert_false(failed);
   free(pl.p);
   ascr_geom_section_free(raw);
@@ -337,13 +342,7 @@ static void test_visc_naca0012_tripped_against_gregory(void **state)
   size_t nr = read_ref("naca0012_gregory_oreilly_re2.88e6_cl_digitized.csv", -1, 0, 0, 1, al, cl, 40);
   assert_true(nr >= 10);
   int failed = 0;
-  size_t n = 0;
-  double clmax_meas;
-  double e = cl_error_below_stall(&pl, al, cl, nr, &n, &clmax_meas);
-  target("Re 2.88e6 tripped: cl below stall, largest", e, 0.03, 0, n, nr - 2, &failed);
-  target("Re 2.88e6 tripped: cl_max", fabs(pl.sum.cl_max - clmax_meas), 0.08, 1, 1, 1, &failed);
-  print_message("  cl_max airscrew %.4f at %.2f deg, measured %.4f\n", pl.sum.cl_max,
-                pl.sum.alpha_cl_max_deg, clmax_meas);
+  lift_targets(&pl, al, cl, nr, nr - 2, "Re 2.88e6 tripped", 1, &failed);
   /* upper-surface pressure */
   assert_int_equal(ascr_geom_section_repanel(raw, NULL, &s, NULL), ASCR_OK);
   size_t nn = ascr_geom_section_size(s), le = ascr_geom_section_le_index(s);
