@@ -6,7 +6,8 @@
  * transition at Re 5.97e6, Mach 0.15 (Ladson, TM-4074 Table I), lift against angle at Re 6e6
  * (Abbott & von Doenhoff), lift and upper-surface pressure at Re 2.88e6 tripped (Gregory &
  * O'Reilly, ARC R&M 3726), each against issue 12's targets. Polars are computed with the
- * library's sweep at the default 160 panels and N_crit 9. usage: test_visc_validation [naca0012]
+ * library's sweep at the default 160 panels and N_crit 9 (the Re 3e6-6e6 sets of the second
+ * group at HIGH_RE_PANELS, below). usage: test_visc_validation [naca0012]
  * (the second group, through stall at Re 3e6-6e6, takes about two minutes and is a CTest test of
  * its own, left out of the sanitizer stage).
  */
@@ -25,12 +26,15 @@ typedef struct polar {
   ascr_polar_summary sum;
 } polar;
 
+/* panels 0: the default count */
 static polar run_polar_mach(ascr_geom_section *raw, double re, double mach, double a0, double a1,
-                            double da, double trip)
+                            double da, double trip, size_t panels)
 {
   ascr_geom_section *s = NULL;
   ascr_errbuf e;
-  assert_int_equal(ascr_geom_section_repanel(raw, NULL, &s, &e), ASCR_OK);
+  ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
+  if (panels > 0) rp.n_panels = panels;
+  assert_int_equal(ascr_geom_section_repanel(raw, &rp, &s, &e), ASCR_OK);
   size_t n = ascr_geom_section_size(s);
   ascr_panel_solver *w = ascr_panel_solver_alloc(n);
   assert_int_equal(ascr_panel_solver_set(w, s, &e), ASCR_OK);
@@ -57,7 +61,7 @@ static polar run_polar_mach(ascr_geom_section *raw, double re, double mach, doub
 static polar run_polar(ascr_geom_section *raw, double re, double a0, double a1, double da,
                        double trip)
 {
-  return run_polar_mach(raw, re, 0.0, a0, a1, da, trip);
+  return run_polar_mach(raw, re, 0.0, a0, a1, da, trip, 0);
 }
 
 /* cd of the converged polar at lift coefficient cl, linear between neighbouring points
@@ -197,6 +201,16 @@ static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
   ascr_geom_section_free(raw);
 }
 
+/* Panels at Re 3e6-6e6: there the upper layer's transition sits within 2-3 % of the chord
+ * behind the leading edge, and at 160 panels the one interval that holds it under-resolves
+ * the turbulent start (the layer just behind it runs to the closure's floor, Hk 1.05, and
+ * the Newton iteration stalls: 12 of 37 points from 8.5 deg fail at Re 6e6). With 240 and 320
+ * panels every point from 6 to 12 deg converges and cl agrees to 0.002 between the two
+ * (docs/theory/viscous.md, "NACA 0012 at every condition reference/ holds"). The tripped set
+ * at 2.88e6 stays at the default: at 240 panels its sweep spends 2.5 minutes on the angles
+ * where the stagnation point passes the lower trip (14-14.5 deg), which fail either way. */
+#define HIGH_RE_PANELS 240
+
 /* ---- NACA 0012 against issue 12's targets -------------------------------------------------
  * The targets (issue 12), each with its reason: lift at a given angle below stall within 0.03
  * (a balance's or a pressure integration's repeatability, about 0.005, and +-0.1 deg of angle
@@ -267,13 +281,13 @@ static void test_visc_naca0012_free_transition_against_ladson(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar_mach(raw, 5.97e6, 0.15, -4.5, 18.0, 0.5, 2.0);
+  polar pl = run_polar_mach(raw, 5.97e6, 0.15, -4.5, 18.0, 0.5, 2.0, HIGH_RE_PANELS);
   double al[40], cl[40], al2[40], cd[40];
   size_t nr = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 1, al, cl, 40);
   size_t nd = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 2, al2, cd, 40);
   assert_true(nr >= 16 && nd >= 14);
   int failed = 0;
-  lift_targets(&pl, al, cl, nr, nr - 2, "Re 5.97e6 M 0.15 free", 0, &failed);
+  lift_targets(&pl, al, cl, nr, nr - 2, "Re 5.97e6 M 0.15 free", 1, &failed);
   /* drag over the low-drag range at the measured angle (rows with cd given) */
   double cdmin = HUGE_VAL;
   /* the post-stall rows have no cd (blank in the file; read_ref then takes the next column):
@@ -316,7 +330,7 @@ static void test_visc_naca0012_lift_against_abbott(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 6e6, 0.0, 17.5, 0.5, 2.0);
+  polar pl = run_polar_mach(raw, 6e6, 0.0, 0.0, 17.5, 0.5, 2.0, HIGH_RE_PANELS);
   double al[60], cl[60];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cl_alpha_digitized.csv", -1, 0, 0, 1, al, cl, 60);
   assert_true(nr >= 20);
