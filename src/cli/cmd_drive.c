@@ -415,6 +415,7 @@ int cmd_drive(int argc, char **argv)
     json_object_set_new(o, "powertrain", json_string(pname));
     json_object_set_new(o, "powertrain_file", json_string(pfile));
     json_object_set_new(o, "inflow", json_string(ro.inflow));
+    json_object_set_new(o, "stall_delay", json_string(ro.rp.stall_delay == ASCR_STALL_DELAY_SNEL ? "snel" : "none"));
     json_object_set_new(o, "battery_state", json_string(state_names[state]));
     json_object_set_new(o, "battery_open_voltage_V", json_real(voc));
     json_t *air = json_object();
@@ -522,8 +523,9 @@ int cmd_drive(int argc, char **argv)
   } else {
     const ascr_motor *m = &pt->motor;
     const ascr_battery *b = &pt->battery;
-    fprintf(fp, "blade       %s (%d blades, diameter %.1f mm), inflow model %s\n", bname, blade->n_blades,
-            2000.0 * blade->r_tip_m, ro.inflow);
+    fprintf(fp, "blade       %s (%d blades, diameter %.1f mm), inflow model %s%s\n", bname, blade->n_blades,
+            2000.0 * blade->r_tip_m, ro.inflow,
+            ro.rp.stall_delay == ASCR_STALL_DELAY_SNEL ? ", stall delay (Snel)" : "");
     fprintf(fp, "powertrain  %s: motor %g rpm/V, %.4g ohm, no-load %.3g A; pack %dS%dP, %.2f / %.2f / "
             "%.2f V per cell, %.3g Ah\n", pname, m->kv_rpm_per_V, m->resistance_ohm,
             m->no_load_current_A, b->cells_series, b->cells_parallel, b->cell_voltage_full_V,
