@@ -162,15 +162,14 @@ static int read_polars(const char *file, json_t *root, plot_data *d)
     }
     if (rc != 0) break;
     json_t *sec = json_object_get(po, "section");
-    int n0 = json_is_string(sec) ? snprintf(f[k].label, sizeof f[k].label, "%.40s, ", json_string_value(sec)) : 0;
-    double mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
-    int n1 = snprintf(f[k].label + n0, sizeof f[k].label - (size_t)n0, "Re %.0f", jnum(po, "re"));
-    if (isfinite(mach) && mach > 0.0) {
-      n1 += snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", M %.2g", mach);
-    }
-    if (isfinite(ncrit)) {
-      snprintf(f[k].label + n0 + n1, sizeof f[k].label - (size_t)(n0 + n1), ", N#dcrit#u %.3g", ncrit);
-    }
+    double re = jnum(po, "re"), mach = jnum(po, "mach"), ncrit = jnum(po, "ncrit");
+    char r[32], m[32] = "", nc[40] = "";
+    snprintf(r, sizeof r, fabs(re) < 1e15 ? "%.0f" : "%.3g", re);
+    if (isfinite(mach) && mach > 0.0) snprintf(m, sizeof m, ", M %.2g", mach);
+    if (isfinite(ncrit)) snprintf(nc, sizeof nc, ", N#dcrit#u %.3g", ncrit);
+    /* one bounded write: whatever the file holds, the label is cut, never overrun */
+    snprintf(f[k].label, sizeof f[k].label, "%.40s%sRe %s%s%s", json_is_string(sec) ? json_string_value(sec) : "",
+             json_is_string(sec) ? ", " : "", r, m, nc);
   }
   return rc;
 }
