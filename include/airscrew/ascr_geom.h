@@ -133,6 +133,18 @@ typedef struct ascr_geom_repanel_params {
 /** Defaults: ASCR_GEOM_DEFAULT_PANELS panels and the documented clustering. */
 ASCR_EXPORT ascr_geom_repanel_params ascr_geom_repanel_defaults(void);
 
+/** The panel count of a viscous analysis at chord Reynolds number re: ASCR_GEOM_DEFAULT_PANELS
+ *  up to Re 1e6, 240 above it and 320 above 6.5e6. A leading-edge transition at high Re falls
+ *  within a few hundredths of the chord, and 160 panels leave its interval too long for the
+ *  young turbulent layer (it runs to the closure's floor and the Newton iteration stalls).
+ *  Measured, converged points of 41 (NACA 0012 -2..18 deg, NACA 4412 and 2412 -4..16 deg):
+ *  NACA 0012 at 2e6 / 3e6 / 6e6: 36 / 37 / 29 at 160 panels, 41 / 41 / 38 at 240; at 8e6 and
+ *  1e7, 38 and 36 at 240, 40 and 39 at 320; NACA 4412 at 3e6 and 6e6: 37 and 35 at 160, 41 and
+ *  41 at 240; NACA 2412 at 3e6: 39 and 41; SD7003 at 2e6: 38 and 41 (docs/theory/viscous.md,
+ *  "Known limits"). Up to 1e6 the count stays at the default and every result there is the
+ *  one of the convergence study. A NaN or non-positive re gives the default. */
+ASCR_EXPORT size_t ascr_geom_panels_for_re(double re);
+
 /** Respace the nodes of a section along a cubic spline of its arc length, with nodes clustered
  *  where the curvature is high and near the trailing edge, and one node at the leading edge.
  *  *out is new (caller frees); the input is unchanged. */

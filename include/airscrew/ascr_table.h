@@ -121,7 +121,7 @@ typedef struct ascr_curve_request {
   double re, mach, ncrit;          /* ncrit default 9 */
   double trip_upper, trip_lower;   /* x/c; > 1 for none */
   double alpha_lo_deg, alpha_hi_deg, alpha_step_deg; /* default -8 .. 16 by 1 */
-  size_t n_panels;                 /* default ASCR_GEOM_DEFAULT_PANELS */
+  size_t n_panels;                 /* 0 (the default): ascr_geom_panels_for_re(re) */
 } ascr_curve_request;
 
 /** Defaults as documented above, at Re re. */

@@ -154,8 +154,12 @@ typedef struct cli_analysis {
   ascr_geom_section *raw, *section;
   ascr_panel_solver *panel;
   ascr_visc_solver *visc;
+  size_t n_panels;
 } cli_analysis;
 int cli_analysis_open(cli_analysis *a, const char *arg, size_t panels);
+/* The section respaced on another panel count, the solvers sized anew (message printed on
+ * failure, the analysis then closed). */
+int cli_analysis_repanel(cli_analysis *a, size_t panels);
 void cli_analysis_close(cli_analysis *a);
 
 #endif

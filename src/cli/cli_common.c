@@ -598,6 +598,18 @@ int cli_analysis_open(cli_analysis *a, const char *arg, size_t panels)
   int from_file;
   int rc = cli_load_section(arg, &a->raw, NULL, &from_file);
   if (rc) return rc;
+  return cli_analysis_repanel(a, panels);
+}
+
+int cli_analysis_repanel(cli_analysis *a, size_t panels)
+{
+  ascr_visc_solver_free(a->visc);
+  ascr_panel_solver_free(a->panel);
+  ascr_geom_section_free(a->section);
+  a->visc = NULL;
+  a->panel = NULL;
+  a->section = NULL;
+  a->n_panels = panels;
   ascr_errbuf err;
   ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
   rp.n_panels = panels;

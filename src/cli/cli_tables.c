@@ -20,7 +20,7 @@ void cli_table_opts_init(cli_table_opts *o)
   o->alpha_lo = d.alpha_lo_deg;
   o->alpha_hi = d.alpha_hi_deg;
   o->alpha_step = d.alpha_step_deg;
-  o->panels = d.n_panels;
+  o->panels = d.n_panels; /* 0: by Re */
 }
 
 const char *cli_default_cache_dir(void)

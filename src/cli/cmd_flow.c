@@ -35,7 +35,8 @@ static void flow_help(FILE *fp)
         "                         rotor-inflow 5, printed-rough 3 (common practice; user guide)\n"
         "      --trip-upper X    forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X    forced transition at x/c = X on the lower surface\n"
-        "  -p, --panels N        panels on the contour (default 160)\n"
+        "  -p, --panels N        panels on the contour (default 160; viscous above Re 1e6\n"
+        "                        240, above 6.5e6 320)\n"
         "      --json         JSON output\n"
         "      --csv          CSV output (surface table; summary in '#' lines)\n"
         "  -o, --output FILE  write to FILE (whole or not at all) instead of standard output\n"
@@ -432,7 +433,7 @@ int cmd_flow(int argc, char **argv)
   double re = NAN;
   int have_visc_opt = 0;
   double alpha_deg = NAN, mach = 0.0;
-  size_t panels = ASCR_GEOM_DEFAULT_PANELS;
+  size_t panels = 0; /* 0: the default (by Re in a viscous analysis) */
   int inviscid = 0, json = 0, csv = 0, force = 0, have_re = 0, history = 0;
   const char *outpath = NULL, *plotdir = NULL;
   int c;
@@ -512,6 +513,7 @@ int cmd_flow(int argc, char **argv)
       cli_error("flow: --alpha %g is outside the viscous range -60 .. 60", alpha_deg);
       return CLI_EXIT_USAGE;
     }
+    if (panels == 0) panels = ascr_geom_panels_for_re(re);
     if (panels < 40 || panels > 400) {
       cli_error("flow: --panels %zu is outside the viscous range 40 .. 400", panels);
       return CLI_EXIT_USAGE;
@@ -553,6 +555,7 @@ int cmd_flow(int argc, char **argv)
   if (rc) goto done;
   ascr_errbuf err;
   ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
+  if (panels == 0) panels = ASCR_GEOM_DEFAULT_PANELS;
   rp.n_panels = panels;
   ascr_status st = ascr_geom_section_repanel(raw, &rp, &s, &err);
   if (st == ASCR_OK) {

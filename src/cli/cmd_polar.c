@@ -39,7 +39,8 @@ static void polar_help(FILE *fp)
         "                         rotor-inflow 5, printed-rough 3 (common practice; user guide)\n"
         "      --trip-upper X     forced transition at x/c = X on the upper surface\n"
         "      --trip-lower X     forced transition at x/c = X on the lower surface\n"
-        "  -p, --panels N         panels on the contour (default 160)\n"
+        "  -p, --panels N         panels on the contour (default 160 up to Re 1e6, 240 above,\n"
+        "                         320 above 6.5e6: a leading-edge transition needs them)\n"
         "      --json, --csv      machine-readable output\n"
         "  -o, --output FILE      write to FILE (whole or not at all)\n"
         "      --plot DIR         also draw the polars (cl-alpha, drag polar, cm-alpha, L/D;\n"
@@ -69,6 +70,15 @@ static void progress(void *ctx, size_t done, size_t total)
   fflush(stderr);
 }
 
+/* 1 if every polar of the request has the same panel count (given, or the same by Re) */
+static int panels_uniform(size_t panels, const double *res, size_t nre)
+{
+  for (size_t i = 1; panels == 0 && i < nre; i++) {
+    if (ascr_geom_panels_for_re(res[i]) != ascr_geom_panels_for_re(res[0])) return 0;
+  }
+  return 1;
+}
+
 int cmd_polar(int argc, char **argv)
 {
   static const struct option opts[] = {
@@ -87,7 +97,7 @@ int cmd_polar(int argc, char **argv)
   double res[CLI_MAX_LIST], machs[CLI_MAX_LIST] = {0.0};
   size_t nre = 0, nmach = 1;
   double a0 = NAN, a1 = NAN, da = NAN, bubble_cl = 0.5, nc_lo = NAN, nc_hi = NAN;
-  size_t panels = ASCR_GEOM_DEFAULT_PANELS;
+  size_t panels = 0; /* 0: by Re (ascr_geom_panels_for_re) */
   int json = 0, csv = 0, force = 0, sweep_only = 0, c;
   const char *outpath = NULL, *tablepath = NULL, *plotdir = NULL;
   opterr = 0;
@@ -171,7 +181,7 @@ int cmd_polar(int argc, char **argv)
   int rc = cli_output_open(&out, outpath, force);
   if (rc) return rc;
   cli_analysis an;
-  rc = cli_analysis_open(&an, argv[optind], panels);
+  rc = cli_analysis_open(&an, argv[optind], panels ? panels : ascr_geom_panels_for_re(res[0]));
   if (rc) {
     cli_output_discard(&out);
     return rc;
@@ -200,6 +210,11 @@ int cmd_polar(int argc, char **argv)
   for (size_t im = 0; im < nmach && rc == 0; im++) {
     for (size_t ir = 0; ir < nre && rc == 0; ir++) {
       ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
+      size_t want = panels ? panels : ascr_geom_panels_for_re(res[ir]);
+      if (want != an.n_panels) {
+        rc = cli_analysis_repanel(&an, want);
+        if (rc != 0) break;
+      }
       ascr_errbuf err;
       ascr_status st = ascr_visc_solver_set(an.visc, an.panel, &vp, &err);
       if (st != ASCR_OK) {
@@ -248,12 +263,11 @@ int cmd_polar(int argc, char **argv)
       if (sums[k].n_converged < sums[k].n_points) {
         cli_warn("Re %.0f Mach %.3g: %zu of %zu points did not converge (flagged in the output)",
                  res[ir], machs[im], sums[k].n_points - sums[k].n_converged, sums[k].n_points);
-        /* NACA 0012, -2..18 deg: 160 panels lose 5 of 41 points at Re 2e6, 12 of 41 at 6e6
-         * (a leading-edge transition interval too coarse for the layer), 240 panels none to
-         * 6e6 and 320 to 1e7 (docs/theory/viscous.md, "Known limits") */
-        if (res[ir] >= 1.5e6 && panels < 240) {
-          cli_warn("at Re above 1.5e6 the leading edge needs finer panels: try --panels %s",
-                   res[ir] > 6.5e6 ? "320" : "240");
+        /* fewer panels asked for than the default at this Re (ascr_geom_panels_for_re: a
+         * leading-edge transition interval too coarse for the young turbulent layer) */
+        if (panels > 0 && panels < ascr_geom_panels_for_re(res[ir])) {
+          cli_warn("at Re %.3g the leading edge needs finer panels: try --panels %zu", res[ir],
+                   ascr_geom_panels_for_re(res[ir]));
         }
       }
     }
@@ -317,7 +331,11 @@ int cmd_polar(int argc, char **argv)
   if (json) {
     json_t *o = json_object(), *pl = json_array();
     json_object_set_new(o, "section", json_string(name));
-    json_object_set_new(o, "n_panels", json_integer((json_int_t)panels));
+    /* the panel count: per polar (it follows Re unless --panels is given), and at the top
+     * where every polar has the same */
+    if (panels_uniform(panels, res, nre)) {
+      json_object_set_new(o, "n_panels", json_integer((json_int_t)(panels ? panels : ascr_geom_panels_for_re(res[0]))));
+    }
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
@@ -326,6 +344,7 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "re", json_real(res[ir]));
         json_object_set_new(po, "mach", json_real(machs[im]));
         json_object_set_new(po, "ncrit", json_real(vp.ncrit));
+        json_object_set_new(po, "n_panels", json_integer((json_int_t)(panels ? panels : ascr_geom_panels_for_re(res[ir]))));
         if (banded) {
           json_t *nr = json_array();
           json_array_append_new(nr, json_real(nc_lo));
@@ -471,12 +490,15 @@ int cmd_polar(int argc, char **argv)
     }
   } else {
     size_t n_partial = 0;
-    fprintf(fp, "section   %s  (%zu panels)\n", name, panels);
+    int mixed = !panels_uniform(panels, res, nre);
+    if (mixed) fprintf(fp, "section   %s  (panels by Re: 160 up to 1e6, 240 above, 320 above 6.5e6)\n", name);
+    else fprintf(fp, "section   %s  (%zu panels)\n", name, panels ? panels : ascr_geom_panels_for_re(res[0]));
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
         ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
         fprintf(fp, "\nRe %.0f   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
+        if (mixed) fprintf(fp, "   %zu panels", ascr_geom_panels_for_re(res[ir]));
         if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);

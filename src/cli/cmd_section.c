@@ -183,7 +183,7 @@ int cmd_section(int argc, char **argv)
     /* the shape as given or generated is not what the analyses see (issue 17: 401 nodes here,
      * 160 panels in flow and polar, without a word on which is which) */
     if (panels == 0) {
-      fprintf(fp, "analyses     respace it on %d panels (flow, polar, rotor: --panels N)\n",
+      fprintf(fp, "analyses     respace it on %d panels, more above Re 1e6 (flow, polar, rotor: --panels N)\n",
               ASCR_GEOM_DEFAULT_PANELS);
     } else {
       fprintf(fp, "analyses     these %zu panels with flow, polar or rotor --panels %zu\n", n - 1,

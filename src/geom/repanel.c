@@ -30,6 +30,12 @@ ascr_geom_repanel_params ascr_geom_repanel_defaults(void)
   return p;
 }
 
+size_t ascr_geom_panels_for_re(double re)
+{
+  if (!(re > 1e6)) return ASCR_GEOM_DEFAULT_PANELS;
+  return re > 6.5e6 ? 320 : 240;
+}
+
 /* Place k+1 nodes at equal steps of W between indices a and b of the fine sample (s, W),
  * writing parameters into out[0..k]. */
 static void place(const double *s, const double *W, size_t a, size_t b, size_t k, double *out)

@@ -55,6 +55,13 @@ static int curve_alloc(ascr_curve_data *c, size_t n)
   return 1;
 }
 
+/* the panel count of a request: its own, or the one for its Re (0); the cache key holds the
+ * count used, so that a request by Re and one naming the same count share their entries */
+static size_t curve_panels(const ascr_curve_request *rq)
+{
+  return rq->n_panels > 0 ? rq->n_panels : ascr_geom_panels_for_re(rq->re);
+}
+
 ascr_curve_request ascr_curve_request_defaults(double re)
 {
   ascr_curve_request r;
@@ -66,7 +73,7 @@ ascr_curve_request ascr_curve_request_defaults(double re)
   r.alpha_lo_deg = -8.0;
   r.alpha_hi_deg = 16.0;
   r.alpha_step_deg = 1.0;
-  r.n_panels = ASCR_GEOM_DEFAULT_PANELS;
+  r.n_panels = 0; /* by Re: ascr_geom_panels_for_re */
   return r;
 }
 
@@ -83,7 +90,7 @@ ascr_status ascr_table_curve_compute(const ascr_geom_section *sec, const ascr_cu
                      rq->alpha_lo_deg, rq->alpha_hi_deg, rq->alpha_step_deg);
   }
   ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
-  rp.n_panels = rq->n_panels;
+  rp.n_panels = curve_panels(rq);
   ascr_geom_section *s = NULL;
   ascr_panel_solver *ps = NULL;
   ascr_visc_solver *vs = NULL;
@@ -210,7 +217,7 @@ void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq,
                    "airscrew %s numerics %d; section %s; Re %.6e; Mach %.4f; ncrit %.4f; trip upper %s; trip lower "
                    "%s; alpha %.4f:%.4f:%.4f deg; panels %zu",
                    ascr_version(), CURVE_NUMERICS_REVISION, fingerprint, rq->re, rq->mach, rq->ncrit, tu, tl,
-                   rq->alpha_lo_deg, rq->alpha_hi_deg, rq->alpha_step_deg, rq->n_panels);
+                   rq->alpha_lo_deg, rq->alpha_hi_deg, rq->alpha_step_deg, curve_panels(rq));
   if (k < 0) {
     k = 0;
   }

@@ -259,11 +259,17 @@ static void test_cli_polar_json_contract(void **state)
   assert_true(json_is_array(pl));
   assert_int_equal(json_array_size(pl), 2);
   const double res[2] = {1e6, 3e6};
+  assert_int_equal(ascr_geom_panels_for_re(1e6), ASCR_GEOM_DEFAULT_PANELS);
+  assert_true(ascr_geom_panels_for_re(3e6) > ASCR_GEOM_DEFAULT_PANELS);
+  assert_null(json_object_get(j, "n_panels"));
   for (size_t k = 0; k < 2; k++) {
     json_t *p = json_array_get(pl, k);
     ascr_assert_close(num(p, "re"), res[k], 1e-12, 0, "re");
     ascr_assert_close(num(p, "mach"), 0.0, 0, 0, "mach");
     ascr_assert_close(num(p, "ncrit"), 9.0, 0, 0, "ncrit");
+    /* each polar's panel count follows its own Re (ascr_geom_panels_for_re), so Re 1e6 is
+     * computed as it is alone; with two counts there is none at the top */
+    ascr_assert_close(num(p, "n_panels"), (double)ascr_geom_panels_for_re(res[k]), 0, 0, "n_panels");
     json_t *pts = json_object_get(p, "points");
     assert_int_equal(json_array_size(pts), 3);
     double prev = -1.0;

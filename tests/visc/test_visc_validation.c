@@ -6,8 +6,9 @@
  * transition at Re 5.97e6, Mach 0.15 (Ladson, TM-4074 Table I), lift against angle at Re 6e6
  * (Abbott & von Doenhoff), lift and upper-surface pressure at Re 2.88e6 tripped (Gregory &
  * O'Reilly, ARC R&M 3726), each against issue 12's targets. Polars are computed with the
- * library's sweep at the default 160 panels and N_crit 9 (the Re 3e6-6e6 sets of the second
- * group at HIGH_RE_PANELS, below). usage: test_visc_validation [naca0012]
+ * library's sweep at its panel count for the Re (ascr_geom_panels_for_re: 160 up to Re 1e6,
+ * 240 at the Re 2.88e6-6e6 sets, but for one, below) and N_crit 9. usage: test_visc_validation
+ * [naca0012]
  * (the second group, through stall at Re 3e6-6e6, takes about two minutes and is a CTest test of
  * its own, left out of the sanitizer stage).
  */
@@ -26,14 +27,15 @@ typedef struct polar {
   ascr_polar_summary sum;
 } polar;
 
-/* panels 0: the default count */
+/* panels 0: the library's count for the Re (ascr_geom_panels_for_re), as polar and the rotor
+ * tables take it */
 static polar run_polar_mach(ascr_geom_section *raw, double re, double mach, double a0, double a1,
                             double da, double trip, size_t panels)
 {
   ascr_geom_section *s = NULL;
   ascr_errbuf e;
   ascr_geom_repanel_params rp = ascr_geom_repanel_defaults();
-  if (panels > 0) rp.n_panels = panels;
+  rp.n_panels = panels > 0 ? panels : ascr_geom_panels_for_re(re);
   assert_int_equal(ascr_geom_section_repanel(raw, &rp, &s, &e), ASCR_OK);
   size_t n = ascr_geom_section_size(s);
   ascr_panel_solver *w = ascr_panel_solver_alloc(n);
@@ -206,10 +208,11 @@ static void test_visc_sd7003_low_re_drag_matches_uiuc(void **state)
  * the turbulent start (the layer just behind it runs to the closure's floor, Hk 1.05, and
  * the Newton iteration stalls: 12 of 37 points from 8.5 deg fail at Re 6e6). With 240 and 320
  * panels every point from 6 to 12 deg converges and cl agrees to 0.002 between the two
- * (docs/theory/viscous.md, "NACA 0012 at every condition reference/ holds"). The tripped set
- * at 2.88e6 stays at the default: at 240 panels its sweep spends 2.5 minutes on the angles
- * where the stagnation point passes the lower trip (14-14.5 deg), which fail either way. */
-#define HIGH_RE_PANELS 240
+ * (docs/theory/viscous.md, "NACA 0012 at every condition reference/ holds"); the library's
+ * count for these Re is 240 (ascr_geom_panels_for_re). The tripped set at 2.88e6 is run at
+ * 160: at 240 panels its sweep spends 2.5 minutes on the angles where the stagnation point
+ * passes the lower trip (14-14.5 deg), which fail either way. */
+#define TRIPPED_2_88E6_PANELS ASCR_GEOM_DEFAULT_PANELS
 
 /* ---- NACA 0012 against issue 12's targets -------------------------------------------------
  * The targets (issue 12), each with its reason: lift at a given angle below stall within 0.03
@@ -281,7 +284,7 @@ static void test_visc_naca0012_free_transition_against_ladson(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar_mach(raw, 5.97e6, 0.15, -4.5, 18.0, 0.5, 2.0, HIGH_RE_PANELS);
+  polar pl = run_polar_mach(raw, 5.97e6, 0.15, -4.5, 18.0, 0.5, 2.0, 0);
   double al[40], cl[40], al2[40], cd[40];
   size_t nr = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 1, al, cl, 40);
   size_t nd = read_ref("naca0012_ladson_tm4074_free_transition_re5.97e6_M0.15.csv", -1, 0, 0, 2, al2, cd, 40);
@@ -330,7 +333,7 @@ static void test_visc_naca0012_lift_against_abbott(void **state)
   (void)state;
   ascr_geom_section *raw = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar_mach(raw, 6e6, 0.0, 0.0, 17.5, 0.5, 2.0, HIGH_RE_PANELS);
+  polar pl = run_polar_mach(raw, 6e6, 0.0, 0.0, 17.5, 0.5, 2.0, 0);
   double al[60], cl[60];
   size_t nr = read_ref("naca0012_abbott_vondoenhoff_re6e6_cl_alpha_digitized.csv", -1, 0, 0, 1, al, cl, 60);
   assert_true(nr >= 20);
@@ -351,7 +354,7 @@ static void test_visc_naca0012_tripped_against_gregory(void **state)
   (void)state;
   ascr_geom_section *raw = NULL, *s = NULL;
   assert_int_equal(ascr_geom_section_from_spec("naca0012", &raw, NULL), ASCR_OK);
-  polar pl = run_polar(raw, 2.88e6, 0.0, 17.0, 0.5, 0.05);
+  polar pl = run_polar_mach(raw, 2.88e6, 0.0, 0.0, 17.0, 0.5, 0.05, TRIPPED_2_88E6_PANELS);
   double al[40], cl[40];
   size_t nr = read_ref("naca0012_gregory_oreilly_re2.88e6_cl_digitized.csv", -1, 0, 0, 1, al, cl, 40);
   assert_true(nr >= 10);
