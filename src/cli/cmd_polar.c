@@ -498,10 +498,10 @@ int cmd_polar(int argc, char **argv)
         size_t k = im * nre + ir;
         ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
         fprintf(fp, "\nRe %.0f   Mach %.3g   N_crit %.3g", res[ir], machs[im], vp.ncrit);
-        if (mixed) fprintf(fp, "   %zu panels", ascr_geom_panels_for_re(res[ir]));
         if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
+        if (mixed) fprintf(fp, "   %zu panels", ascr_geom_panels_for_re(res[ir]));
         fprintf(fp, "\n%8s %8s %9s %6s %8s %9s %9s %9s %9s", "alpha", "cl", "cd", "L/D", "cm",
                 "trans_up", "trans_lo", "cdf", "cdp");
         if (banded) fprintf(fp, " %14s %16s", "cl band", "cd band");
