@@ -111,6 +111,9 @@ typedef struct ascr_curve_data {
   size_t n;
   double *alpha_deg, *cl, *cd, *cm;
   int *converged;
+  int *trip_not_applied; /* per point, as ascr_polar_point.trip_not_applied (bit 0 upper, bit 1
+                            lower: the trip lies ahead of the stagnation point and binds
+                            nothing, transition there is free); NULL: none */
 } ascr_curve_data;
 
 /** Free the arrays of a curve (not the struct); NULL is a no-op. */

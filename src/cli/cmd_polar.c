@@ -283,10 +283,10 @@ int cmd_polar(int argc, char **argv)
     /* the Mach 0 curves (tables apply Mach by correction), converged points with numbers */
     ascr_curve_data *cv = calloc(nre, sizeof *cv);
     double *buf = calloc(4 * npts * nre, sizeof *buf);
-    int *ok = calloc(npts * nre, sizeof *ok);
+    int *ok = calloc(npts * nre, sizeof *ok), *tn = calloc(npts * nre, sizeof *tn);
     size_t im0 = 0;
     while (im0 < nmach && machs[im0] != 0.0) im0++;
-    if (cv == NULL || buf == NULL || ok == NULL || im0 == nmach) {
+    if (cv == NULL || buf == NULL || ok == NULL || tn == NULL || im0 == nmach) {
       if (im0 == nmach) cli_error("polar: --table needs Mach 0 among --mach");
       else cli_error("out of memory");
       rc = im0 == nmach ? CLI_EXIT_USAGE : CLI_EXIT_INTERNAL;
@@ -305,10 +305,12 @@ int cmd_polar(int argc, char **argv)
       cv[ir].cd = buf + (4 * ir + 2) * npts;
       cv[ir].cm = buf + (4 * ir + 3) * npts;
       cv[ir].converged = ok + ir * npts;
+      cv[ir].trip_not_applied = tn + ir * npts;
       for (size_t i = 0; i < npts; i++) {
         const ascr_polar_point *q = &pts[k * npts + i];
         cv[ir].alpha_deg[i] = q->alpha_deg;
         cv[ir].converged[i] = q->converged;
+        cv[ir].trip_not_applied[i] = q->converged ? q->trip_not_applied & 3 : 0;
         cv[ir].cl[i] = q->cl;
         cv[ir].cd[i] = q->cd;
         cv[ir].cm[i] = q->cm;
@@ -326,6 +328,7 @@ int cmd_polar(int argc, char **argv)
     free(cv);
     free(buf);
     free(ok);
+    free(tn);
     if (rc != 0) goto fail;
   }
   if (json) {

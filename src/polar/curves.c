@@ -37,6 +37,7 @@ void ascr_curve_data_clear(ascr_curve_data *c)
   free(c->cd);
   free(c->cm);
   free(c->converged);
+  free(c->trip_not_applied);
   memset(c, 0, sizeof *c);
 }
 
@@ -48,7 +49,9 @@ static int curve_alloc(ascr_curve_data *c, size_t n)
   c->cd = core_calloc(n, sizeof *c->cd);
   c->cm = core_calloc(n, sizeof *c->cm);
   c->converged = core_calloc(n, sizeof *c->converged);
-  if (c->alpha_deg == NULL || c->cl == NULL || c->cd == NULL || c->cm == NULL || c->converged == NULL) {
+  c->trip_not_applied = core_calloc(n, sizeof *c->trip_not_applied);
+  if (c->alpha_deg == NULL || c->cl == NULL || c->cd == NULL || c->cm == NULL || c->converged == NULL ||
+      c->trip_not_applied == NULL) {
     ascr_curve_data_clear(c);
     return 0;
   }
@@ -139,6 +142,7 @@ ascr_status ascr_table_curve_compute(const ascr_geom_section *sec, const ascr_cu
   for (size_t i = 0; i < np; i++) {
     out->alpha_deg[i] = pts[i].alpha_deg;
     out->converged[i] = pts[i].converged;
+    out->trip_not_applied[i] = pts[i].converged ? pts[i].trip_not_applied & 3 : 0;
     out->cl[i] = pts[i].converged ? pts[i].cl : NAN;
     out->cd[i] = pts[i].converged ? pts[i].cd : NAN;
     out->cm[i] = pts[i].converged ? pts[i].cm : NAN;
@@ -221,6 +225,12 @@ void ascr_curve_cache_key(const char *fingerprint, const ascr_curve_request *rq,
   if (k < 0) {
     k = 0;
   }
+  /* a tripped curve's entry holds the points where a trip bound nothing (since 2026-12-05):
+   * entries stored before then do not, and are not found by this key */
+  if ((rq->trip_upper <= 1.0 || rq->trip_lower <= 1.0) && (size_t)k < sizeof buf) {
+    int e = snprintf(buf + k, sizeof buf - (size_t)k, "; trip flags");
+    if (e > 0) k += e;
+  }
   size_t len = (size_t)k < sizeof buf ? (size_t)k : sizeof buf - 1;
   uint64_t h = fnv1a(FNV_OFFSET, buf, len);
   snprintf(key, 17, "%016llx", (unsigned long long)h);
@@ -285,6 +295,14 @@ static json_t *curves_to_json(const ascr_curve_data *c, size_t n)
     json_object_set_new(o, "cd", cd);
     json_object_set_new(o, "cm", cm);
     json_object_set_new(o, "converged", cv);
+    /* the points where a trip bound nothing, where there are any (bit 0 upper, bit 1 lower) */
+    int any = 0;
+    for (size_t i = 0; c[k].trip_not_applied != NULL && i < c[k].n; i++) any |= c[k].trip_not_applied[i];
+    if (any) {
+      json_t *tn = json_array();
+      for (size_t i = 0; i < c[k].n; i++) json_array_append_new(tn, json_integer(c[k].trip_not_applied[i] & 3));
+      json_object_set_new(o, "trip_not_applied", tn);
+    }
     json_array_append_new(arr, o);
   }
   return arr;
@@ -568,6 +586,22 @@ ascr_status ascr_table_file_parse(const char *text, size_t len, const char *name
     if (st == ASCR_OK) st = read_scalar(path, k, o, "ncrit", 0, &cv[k].ncrit, err);
     if (st == ASCR_OK) st = read_scalar(path, k, o, "trip_upper", 1, &cv[k].trip_upper, err);
     if (st == ASCR_OK) st = read_scalar(path, k, o, "trip_lower", 1, &cv[k].trip_lower, err);
+    json_t *tn = json_object_get(o, "trip_not_applied");
+    if (st == ASCR_OK && tn != NULL) {
+      if (!json_is_array(tn) || json_array_size(tn) != m) {
+        st = core_fail(err, ASCR_EPARSE, "%s: curves[%zu].trip_not_applied: must be a list as long as alpha_deg",
+                       path, k);
+      }
+      for (size_t i = 0; st == ASCR_OK && i < m; i++) {
+        json_t *v = json_array_get(tn, i);
+        if (!json_is_integer(v) || json_integer_value(v) < 0 || json_integer_value(v) > 3) {
+          st = core_fail(err, ASCR_EPARSE, "%s: curves[%zu].trip_not_applied[%zu]: must be 0, 1, 2 or 3",
+                         path, k, i);
+          break;
+        }
+        cv[k].trip_not_applied[i] = (int)json_integer_value(v);
+      }
+    }
   }
 done:
   json_decref(root);

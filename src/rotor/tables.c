@@ -63,6 +63,37 @@ static void note(ascr_blade_tables *t, const char *fmt, ...)
   }
 }
 
+/* Where a curve's trip bound nothing (the stagnation point behind it, transition free there:
+ * ascr_curve_data.trip_not_applied), one note per section and surface with the count and the
+ * smallest angle of a side, so that a table built with trips does not pass free-transition
+ * points off as tripped ones. */
+static void trip_note(ascr_blade_tables *t, const char *name, const ascr_curve_data *cv, size_t k)
+{
+  static const char *const side[2] = {"upper", "lower"};
+  for (int b = 0; b < 2; b++) {
+    size_t cnt = 0, tot = 0;
+    double a_pos = INFINITY, a_neg = -INFINITY;
+    for (size_t q = 0; q < k; q++) {
+      for (size_t i = 0; i < cv[q].n; i++) {
+        if (!cv[q].converged[i]) continue;
+        tot++;
+        if (cv[q].trip_not_applied == NULL || !(cv[q].trip_not_applied[i] & (1 << b))) continue;
+        cnt++;
+        double a = cv[q].alpha_deg[i];
+        if (a >= 0.0 && a < a_pos) a_pos = a;
+        if (a < 0.0 && a > a_neg) a_neg = a;
+      }
+    }
+    if (cnt == 0) continue;
+    char from[64];
+    if (isfinite(a_pos) && isfinite(a_neg)) snprintf(from, sizeof from, "from %.1f and below %.1f deg", a_pos, a_neg);
+    else snprintf(from, sizeof from, "%s %.1f deg", isfinite(a_pos) ? "from" : "below", isfinite(a_pos) ? a_pos : a_neg);
+    note(t, "section '%s': the %s trip binds nothing at %zu of %zu computed points (%s: the "
+         "stagnation point lies behind it), where the curves have free transition on that side",
+         name, side[b], cnt, tot, from);
+  }
+}
+
 /* mkdir -p; 0 on success */
 static int make_dirs(const char *path)
 {
@@ -520,6 +551,7 @@ ascr_status ascr_blade_tables_prepare(const ascr_blade *b, const ascr_rotor_para
       note(out, "section '%s': %zu of %zu Re curves had too few converged points and are left out "
            "of its table", b->section_name[s], k - in->n_used, k);
     }
+    trip_note(out, b->section_name[s], cv, k);
   }
   jobs_free(&js);
   for (size_t s = 0; s < out->n; s++) ascr_geom_section_free(secs[s]);

@@ -95,6 +95,7 @@ static void test_compute_roundtrip(void **state)
   char buf[65536];
   size_t n = fread(buf, 1, sizeof buf - 1, f);
   buf[n] = '\0';
+  assert_null(strstr(buf, "trip_not_applied")); /* written only where a trip bound nothing */
   char *p = strstr(buf, "\"cd\"");
   assert_non_null(p);
   p = strchr(p, '0');
@@ -122,6 +123,56 @@ static void test_compute_roundtrip(void **state)
   ascr_geom_section_free(sec);
 }
 
+/* A tripped curve keeps the points where a trip bound nothing (the stagnation point behind
+ * it: ascr_polar_point.trip_not_applied), through a polar-table file too; a file with a bad
+ * flag is refused. NACA 0012, Re 1e6, trips at x/c 0.02: at 2 deg both trips bind; by 10 deg
+ * the stagnation point has moved behind the lower one (tests/visc: the same case). */
+static void test_trip_flags(void **state)
+{
+  (void)state;
+  ascr_geom_section *sec = NULL;
+  assert_int_equal(ascr_geom_section_from_spec("naca0012", &sec, NULL), ASCR_OK);
+  ascr_curve_request rq = ascr_curve_request_defaults(1e6);
+  rq.trip_upper = rq.trip_lower = 0.02;
+  rq.alpha_lo_deg = 2.0;
+  rq.alpha_hi_deg = 10.0;
+  rq.alpha_step_deg = 4.0;
+  ascr_curve_data c;
+  ascr_errbuf err;
+  assert_int_equal(ascr_table_curve_compute(sec, &rq, &c, &err), ASCR_OK);
+  assert_int_equal(c.n, 3);
+  assert_non_null(c.trip_not_applied);
+  assert_true(c.converged[0] && c.trip_not_applied[0] == 0);
+  size_t lower = 0;
+  for (size_t i = 0; i < c.n; i++) lower += (size_t)(c.converged[i] && (c.trip_not_applied[i] & 2));
+  assert_true(lower >= 1);
+  assert_true(c.converged[2] && (c.trip_not_applied[2] & 2)); /* 10 deg */
+
+  char fp[17], key[17], text[512];
+  ascr_section_fingerprint(sec, fp);
+  ascr_curve_cache_key(fp, &rq, key, text, sizeof text);
+  assert_non_null(strstr(text, "trip flags"));
+  char path[400];
+  snprintf(path, sizeof path, "%s/%s.json", tmpdir, key);
+  assert_int_equal(ascr_table_file_write(path, "naca0012", text, &c, 1, &err), ASCR_OK);
+  ascr_curve_data *back = NULL;
+  size_t nb = 0;
+  assert_int_equal(ascr_table_file_read(path, text, &back, &nb, &err), ASCR_OK);
+  for (size_t i = 0; i < c.n; i++) assert_int_equal(back[0].trip_not_applied[i], c.trip_not_applied[i]);
+  ascr_curve_data_clear(&back[0]);
+  free(back);
+
+  /* a flag out of range, in a file without a checksum to trip over first */
+  const char *bad = "{\"format\": \"airscrew-polar-table-1\", \"curves\": [{\"re\": 1e6, "
+                    "\"mach\": 0, \"ncrit\": 9, \"trip_upper\": 0.02, \"trip_lower\": 0.02, "
+                    "\"alpha_deg\": [0, 2], \"cl\": [0, 0.2], \"cd\": [0.01, 0.01], "
+                    "\"cm\": [0, 0], \"converged\": [true, true], \"trip_not_applied\": [0, 5]}]}";
+  assert_int_equal(ascr_table_file_parse(bad, strlen(bad), "bad.json", NULL, &back, &nb, &err), ASCR_EPARSE);
+  assert_non_null(strstr(err.msg, "trip_not_applied[1]"));
+  ascr_curve_data_clear(&c);
+  ascr_geom_section_free(sec);
+}
+
 static void test_keys_and_ladder(void **state)
 {
   (void)state;
@@ -138,6 +189,20 @@ static void test_keys_and_ladder(void **state)
     ascr_curve_cache_key("0123456789abcdef", &v[i], k, NULL, 0);
     assert_string_not_equal(k0, k);
   }
+  /* the panel count by Re (0, the default) and the same count named give one key: the entry
+   * holds the count used (ascr_geom_panels_for_re) */
+  ascr_curve_request byre = rq, named = rq;
+  named.n_panels = ascr_geom_panels_for_re(rq.re);
+  assert_int_equal(byre.n_panels, 0);
+  ascr_curve_cache_key("0123456789abcdef", &named, k, NULL, 0);
+  assert_string_equal(k0, k);
+  byre.re = named.re = 3e6;
+  named.n_panels = ascr_geom_panels_for_re(3e6);
+  assert_int_not_equal(named.n_panels, ASCR_GEOM_DEFAULT_PANELS);
+  char k1[17];
+  ascr_curve_cache_key("0123456789abcdef", &byre, k1, NULL, 0);
+  ascr_curve_cache_key("0123456789abcdef", &named, k, NULL, 0);
+  assert_string_equal(k1, k);
   ascr_curve_cache_key("0123456789abcdee", &rq, k, NULL, 0);
   assert_string_not_equal(k0, k);
   double re[32];
@@ -185,6 +250,7 @@ int main(void)
   const struct CMUnitTest tests[] = {
       cmocka_unit_test(test_compute_roundtrip),
       cmocka_unit_test(test_keys_and_ladder),
+      cmocka_unit_test(test_trip_flags),
       cmocka_unit_test(test_table_file_reader_refuses_what_is_not_a_bounded_regular_file),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
