@@ -425,6 +425,24 @@ static void test_cli_rotor_json_contract(void **state)
   assert_int_equal(json_array_size(json_object_get(p0, "efficiency_band")), 2);
   assert_true(json_is_true(json_object_get(p0, "band_complete")));
   json_decref(j);
+  /* tables computed with trips count, per curve, the converged points where a trip bound
+   * nothing (the stagnation point behind it); NACA 4412 at Re 1e4-1e5, trips at 2 %, 0..12 deg
+   * by 4: the lower trip from 12 deg on the curves above the lowest */
+  j = run_json("rotor " ASCR_SOURCE_DIR "/tests/data/blades/two-blade-4412.json --rpm 7000 "
+               "--no-cache --trip-upper 0.02 --trip-lower 0.02 --table-alpha 0:12:4 --json", &code);
+  assert_int_equal(code, 0);
+  assert_non_null(j);
+  json_t *cs = json_object_get(json_array_get(json_object_get(j, "sections"), 0), "curves");
+  assert_true(json_array_size(cs) >= 3);
+  size_t lower = 0;
+  for (size_t k = 0; k < json_array_size(cs); k++) {
+    json_t *tn = json_object_get(json_array_get(cs, k), "trip_not_applied_points");
+    assert_true(json_is_object(tn));
+    assert_true(num(tn, "upper") == 0.0);
+    lower += (size_t)num(tn, "lower");
+  }
+  assert_true(lower >= 1);
+  json_decref(j);
 }
 
 /* Determinism: the same input gives byte-identical output (a polar sweep and a rotor map with
