@@ -308,6 +308,26 @@ static void test_cli_polar_json_contract(void **state)
     ascr_assert_close(num(b, "cl"), 0.5, 0, 0, "bubble cl");
     assert_true(json_is_string(json_object_get(b, "status")));
   }
+  /* one condition, one answer: each Re asked alone gives the numbers it has in the list (its
+   * panel count follows its own Re, never the list's) */
+  for (size_t k = 0; k < 2; k++) {
+    char cmd[128];
+    snprintf(cmd, sizeof cmd, "polar naca0012 --re %g --alpha 0:4:2 --json", res[k]);
+    int c1 = -1;
+    json_t *a = run_json(cmd, &c1);
+    assert_int_equal(c1, 0);
+    json_t *pa = json_object_get(json_array_get(json_object_get(a, "polars"), 0), "points");
+    json_t *pb = json_object_get(json_array_get(pl, k), "points");
+    assert_int_equal(json_array_size(pa), json_array_size(pb));
+    for (size_t i = 0; i < json_array_size(pa); i++) {
+      const char *keys[] = {"cl", "cd", "cm"};
+      for (size_t m = 0; m < 3; m++) {
+        assert_true(num(json_array_get(pa, i), keys[m]) == num(json_array_get(pb, i), keys[m]));
+      }
+    }
+    ascr_assert_close(num(a, "n_panels"), (double)ascr_geom_panels_for_re(res[k]), 0, 0, "alone: n_panels");
+    json_decref(a);
+  }
   json_decref(j);
 }
 
