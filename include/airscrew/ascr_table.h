@@ -116,6 +116,10 @@ typedef struct ascr_curve_data {
                             nothing, transition there is free); NULL: none */
 } ascr_curve_data;
 
+/** Count a curve's converged points where a trip bound nothing (trip_not_applied): upper in
+ *  n[0], lower in n[1]. */
+ASCR_EXPORT void ascr_curve_trip_counts(const ascr_curve_data *c, size_t n[2]);
+
 /** Free the arrays of a curve (not the struct); NULL is a no-op. */
 ASCR_EXPORT void ascr_curve_data_clear(ascr_curve_data *c);
 

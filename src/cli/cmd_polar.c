@@ -70,11 +70,17 @@ static void progress(void *ctx, size_t done, size_t total)
   fflush(stderr);
 }
 
-/* 1 if every polar of the request has the same panel count (given, or the same by Re) */
+/* the panel count of the polar at Re re: the one given (--panels), else the library's for re */
+static size_t polar_panels(size_t given, double re)
+{
+  return given > 0 ? given : ascr_geom_panels_for_re(re);
+}
+
+/* 1 if every polar of the request has the same panel count */
 static int panels_uniform(size_t panels, const double *res, size_t nre)
 {
-  for (size_t i = 1; panels == 0 && i < nre; i++) {
-    if (ascr_geom_panels_for_re(res[i]) != ascr_geom_panels_for_re(res[0])) return 0;
+  for (size_t i = 1; i < nre; i++) {
+    if (polar_panels(panels, res[i]) != polar_panels(panels, res[0])) return 0;
   }
   return 1;
 }
@@ -181,7 +187,7 @@ int cmd_polar(int argc, char **argv)
   int rc = cli_output_open(&out, outpath, force);
   if (rc) return rc;
   cli_analysis an;
-  rc = cli_analysis_open(&an, argv[optind], panels ? panels : ascr_geom_panels_for_re(res[0]));
+  rc = cli_analysis_open(&an, argv[optind], polar_panels(panels, res[0]));
   if (rc) {
     cli_output_discard(&out);
     return rc;
@@ -210,7 +216,7 @@ int cmd_polar(int argc, char **argv)
   for (size_t im = 0; im < nmach && rc == 0; im++) {
     for (size_t ir = 0; ir < nre && rc == 0; ir++) {
       ascr_visc_params vp = cli_visc_params(&vo, res[ir], machs[im]);
-      size_t want = panels ? panels : ascr_geom_panels_for_re(res[ir]);
+      size_t want = polar_panels(panels, res[ir]);
       if (want != an.n_panels) {
         rc = cli_analysis_repanel(&an, want);
         if (rc != 0) break;
@@ -337,7 +343,7 @@ int cmd_polar(int argc, char **argv)
     /* the panel count: per polar (it follows Re unless --panels is given), and at the top
      * where every polar has the same */
     if (panels_uniform(panels, res, nre)) {
-      json_object_set_new(o, "n_panels", json_integer((json_int_t)(panels ? panels : ascr_geom_panels_for_re(res[0]))));
+      json_object_set_new(o, "n_panels", json_integer((json_int_t)polar_panels(panels, res[0])));
     }
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
@@ -347,7 +353,7 @@ int cmd_polar(int argc, char **argv)
         json_object_set_new(po, "re", json_real(res[ir]));
         json_object_set_new(po, "mach", json_real(machs[im]));
         json_object_set_new(po, "ncrit", json_real(vp.ncrit));
-        json_object_set_new(po, "n_panels", json_integer((json_int_t)(panels ? panels : ascr_geom_panels_for_re(res[ir]))));
+        json_object_set_new(po, "n_panels", json_integer((json_int_t)polar_panels(panels, res[ir])));
         if (banded) {
           json_t *nr = json_array();
           json_array_append_new(nr, json_real(nc_lo));
@@ -494,8 +500,8 @@ int cmd_polar(int argc, char **argv)
   } else {
     size_t n_partial = 0;
     int mixed = !panels_uniform(panels, res, nre);
-    if (mixed) fprintf(fp, "section   %s  (panels by Re: 160 up to 1e6, 240 above, 320 above 6.5e6)\n", name);
-    else fprintf(fp, "section   %s  (%zu panels)\n", name, panels ? panels : ascr_geom_panels_for_re(res[0]));
+    if (mixed) fprintf(fp, "section   %s  (panels by Re, given with each)\n", name);
+    else fprintf(fp, "section   %s  (%zu panels)\n", name, polar_panels(panels, res[0]));
     for (size_t im = 0; im < nmach; im++) {
       for (size_t ir = 0; ir < nre; ir++) {
         size_t k = im * nre + ir;
@@ -504,7 +510,7 @@ int cmd_polar(int argc, char **argv)
         if (banded) fprintf(fp, " (band over N_crit %.3g, %.3g, %.3g)", nc_lo, vp.ncrit, nc_hi);
         if (vp.trip_upper <= 1.0) fprintf(fp, "   trip upper x/c %.3f", vp.trip_upper);
         if (vp.trip_lower <= 1.0) fprintf(fp, "   trip lower x/c %.3f", vp.trip_lower);
-        if (mixed) fprintf(fp, "   %zu panels", ascr_geom_panels_for_re(res[ir]));
+        if (mixed) fprintf(fp, "   %zu panels", polar_panels(panels, res[ir]));
         fprintf(fp, "\n%8s %8s %9s %6s %8s %9s %9s %9s %9s", "alpha", "cl", "cd", "L/D", "cm",
                 "trans_up", "trans_lo", "cdf", "cdp");
         if (banded) fprintf(fp, " %14s %16s", "cl band", "cd band");

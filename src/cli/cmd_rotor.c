@@ -424,12 +424,8 @@ int cmd_rotor(int argc, char **argv)
         /* a tripped curve: its converged points where a trip bound nothing (free transition) */
         const ascr_curve_data *cd = !in->user_file && k < in->n_curve ? &in->curve[k] : NULL;
         if (cd != NULL && (cd->trip_upper <= 1.0 || cd->trip_lower <= 1.0)) {
-          size_t nt[2] = {0, 0};
-          for (size_t i = 0; cd->trip_not_applied != NULL && i < cd->n; i++) {
-            if (!cd->converged[i]) continue;
-            nt[0] += (size_t)(cd->trip_not_applied[i] & 1);
-            nt[1] += (size_t)((cd->trip_not_applied[i] >> 1) & 1);
-          }
+          size_t nt[2];
+          ascr_curve_trip_counts(cd, nt);
           json_t *tn = json_object();
           json_object_set_new(tn, "upper", json_integer((json_int_t)nt[0]));
           json_object_set_new(tn, "lower", json_integer((json_int_t)nt[1]));

@@ -41,6 +41,16 @@ void ascr_curve_data_clear(ascr_curve_data *c)
   memset(c, 0, sizeof *c);
 }
 
+void ascr_curve_trip_counts(const ascr_curve_data *c, size_t n[2])
+{
+  n[0] = n[1] = 0;
+  for (size_t i = 0; c->trip_not_applied != NULL && i < c->n; i++) {
+    if (!c->converged[i]) continue;
+    n[0] += (size_t)(c->trip_not_applied[i] & 1);
+    n[1] += (size_t)((c->trip_not_applied[i] >> 1) & 1);
+  }
+}
+
 static int curve_alloc(ascr_curve_data *c, size_t n)
 {
   c->n = n;

@@ -70,27 +70,32 @@ static void note(ascr_blade_tables *t, const char *fmt, ...)
 static void trip_note(ascr_blade_tables *t, const char *name, const ascr_curve_data *cv, size_t k)
 {
   static const char *const side[2] = {"upper", "lower"};
+  size_t cnt[2] = {0, 0}, tot = 0;
+  for (size_t q = 0; q < k; q++) {
+    size_t n[2];
+    ascr_curve_trip_counts(&cv[q], n);
+    cnt[0] += n[0];
+    cnt[1] += n[1];
+    for (size_t i = 0; i < cv[q].n; i++) tot += (size_t)(cv[q].converged[i] != 0);
+  }
   for (int b = 0; b < 2; b++) {
-    size_t cnt = 0, tot = 0;
+    if (cnt[b] == 0) continue;
+    /* the angles nearest zero on each side where it does */
     double a_pos = INFINITY, a_neg = -INFINITY;
     for (size_t q = 0; q < k; q++) {
-      for (size_t i = 0; i < cv[q].n; i++) {
-        if (!cv[q].converged[i]) continue;
-        tot++;
-        if (cv[q].trip_not_applied == NULL || !(cv[q].trip_not_applied[i] & (1 << b))) continue;
-        cnt++;
+      for (size_t i = 0; cv[q].trip_not_applied != NULL && i < cv[q].n; i++) {
+        if (!cv[q].converged[i] || !(cv[q].trip_not_applied[i] & (1 << b))) continue;
         double a = cv[q].alpha_deg[i];
         if (a >= 0.0 && a < a_pos) a_pos = a;
         if (a < 0.0 && a > a_neg) a_neg = a;
       }
     }
-    if (cnt == 0) continue;
     char from[64];
     if (isfinite(a_pos) && isfinite(a_neg)) snprintf(from, sizeof from, "from %.1f and below %.1f deg", a_pos, a_neg);
     else snprintf(from, sizeof from, "%s %.1f deg", isfinite(a_pos) ? "from" : "below", isfinite(a_pos) ? a_pos : a_neg);
     note(t, "section '%s': the %s trip binds nothing at %zu of %zu computed points (%s: the "
          "stagnation point lies behind it), where the curves have free transition on that side",
-         name, side[b], cnt, tot, from);
+         name, side[b], cnt[b], tot, from);
   }
 }
 

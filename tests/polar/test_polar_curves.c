@@ -147,6 +147,10 @@ static void test_trip_flags(void **state)
   for (size_t i = 0; i < c.n; i++) lower += (size_t)(c.converged[i] && (c.trip_not_applied[i] & 2));
   assert_true(lower >= 1);
   assert_true(c.converged[2] && (c.trip_not_applied[2] & 2)); /* 10 deg */
+  size_t cnt[2];
+  ascr_curve_trip_counts(&c, cnt);
+  assert_int_equal(cnt[0], 0);
+  assert_int_equal(cnt[1], lower);
 
   char fp[17], key[17], text[512];
   ascr_section_fingerprint(sec, fp);
