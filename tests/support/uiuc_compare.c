@@ -154,7 +154,8 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
     double x = lift->v[r][0];
     if (fabs(x - re) <= 0.05 * re && (isnan(o->re_lift) || fabs(x - re) < fabs(o->re_lift - re))) o->re_lift = x;
   }
-  double sd = 0.0, md = 0.0, bd = 0.0;
+  double sd = 0.0, md = 0.0, bd = 0.0, ssd = 0.0;
+  size_t nsd = 0;
   for (size_t r = 0; r < drag->nrow; r++) {
     if (drag->v[r][0] != re || drag->v[r][3] > 1.5 * cdmin) continue;
     double c = cd_at_cl(pl, drag->v[r][2]);
@@ -164,7 +165,21 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
     sd += fabs(e);
     md = fmax(md, fabs(e));
     o->cd_n++;
+    /* the four spanwise stations (columns 4-7), where the file has all four */
+    const double *st = &drag->v[r][4];
+    if (isfinite(st[0]) && isfinite(st[1]) && isfinite(st[2]) && isfinite(st[3])) {
+      double m = 0.25 * (st[0] + st[1] + st[2] + st[3]), lo = st[0], hi = st[0], var = 0.0;
+      for (int k = 0; k < 4; k++) {
+        lo = fmin(lo, st[k]);
+        hi = fmax(hi, st[k]);
+        var += (st[k] - m) * (st[k] - m);
+      }
+      ssd += sqrt(var / 3.0) / m;
+      nsd++;
+      if (lo <= c && c <= hi) o->cd_in_range++;
+    }
   }
+  o->cd_station_sd = nsd ? ssd / (double)nsd : NAN;
   o->cd_mean = o->cd_n ? sd / (double)o->cd_n : NAN;
   o->cd_max = o->cd_n ? md : NAN;
   o->cd_bias = o->cd_n ? bd / (double)o->cd_n : NAN;

@@ -6,7 +6,10 @@
  *   - drag: mean, largest and signed mean (bias, + = computed high) relative cd error at the
  *     measured cl over the measured low-drag range (points whose cd is at most 1.5 times the
  *     run's smallest cd: our definition of "attached"), cd of the computed polar interpolated
- *     at that cl on its branch below the largest cl;
+ *     at that cl on its branch below the largest cl; over the same points, the tunnel's own
+ *     spread — the standard deviation of its four spanwise wake-rake stations (cd_s1..cd_s4)
+ *     relative to their mean, averaged — and how many computed cd lie within the stations'
+ *     range (smallest to largest of the four);
  *   - lift: mean, largest and signed mean cl error at the measured angle, -2 to 6 deg, from the
  *     lift run of the nearest Re (within 5 %; the up-going branch of the loop only);
  *   - lift slope: least-squares dcl/dalpha over the measured angles from -2 to 5 deg of that
@@ -29,6 +32,8 @@ typedef struct uiuc_result {
   size_t n_points, n_converged;   /* of the sweep */
   double cd_mean, cd_max, cd_bias; /* relative; NaN where cd_n = 0 */
   size_t cd_n;
+  double cd_station_sd;           /* the stations' mean relative standard deviation; NaN: none */
+  size_t cd_in_range;             /* computed cd within the stations' range, of cd_n */
   double cl_mean, cl_max_err, cl_bias; /* absolute; NaN where cl_n = 0 */
   size_t cl_n;
   double slope_calc, slope_meas, slope_meas_se; /* per deg; NaN where fewer than 4 angles */
