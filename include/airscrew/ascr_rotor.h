@@ -135,6 +135,8 @@ typedef struct ascr_rotor_element {
   double dQ_dr_Nm_m;       /* torque per unit radius, all blades */
   int region;              /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED */
   int stalled, re_outside, converged;
+  int trip_unbound;        /* bit 0 upper, bit 1 lower: the section's trip bound nothing at
+                              this angle (ascr_table_sample.trip_unbound): free transition */
 } ascr_rotor_element;
 
 /** A point whose thrust rests more than this share on flagged elements (extended, bridged or
@@ -159,6 +161,9 @@ typedef struct ascr_rotor_result {
   double tip_mach;            /* helical tip Mach number (no induction) */
   size_t n_stalled, n_extended, n_re_outside; /* elements flagged */
   size_t n_bridged;           /* elements in a bridged gap of their curve */
+  size_t n_trip_unbound;      /* elements where a requested trip bound nothing (free
+                                 transition there; not counted in the flagged share: the
+                                 numbers are computed ones, of another condition) */
   double flagged_thrust_share; /* share of sum |dT| resting on elements whose coefficients are
                                   not between computed points of their own curves (extended,
                                   bridged, or Re outside the table) */

@@ -17,7 +17,9 @@
  *   ASCR_TABLE_EXTENDED;
  * - the curves are resampled on one angle grid (0.5 deg within +-40 deg, 5 deg outside) and
  *   interpolated bicubically in (alpha, log Re) with GSL's interp2d (bilinear with fewer than
- *   four curves); outside the Re range the nearest curve is used and the lookup flagged.
+ *   four curves); outside the Re range the nearest curve is used and the lookup flagged;
+ * - a curve computed with trips may say, per point, that a trip bound nothing there (the
+ *   stagnation point behind it); lookups near such points carry that flag (trip_unbound).
  *
  * Thread safety: a built table is read-only; lookups are reentrant.
  */
@@ -40,6 +42,8 @@ typedef struct ascr_table_curve {
   const double *alpha_deg; /* ascending */
   const double *cl, *cd, *cm;
   const int *converged;    /* NULL: all converged */
+  const int *trip_not_applied; /* per point, bit 0 upper, bit 1 lower: a requested trip bound
+                                  nothing there (ascr_curve_data.trip_not_applied); NULL: none */
 } ascr_table_curve;
 
 /** Build options. */
@@ -66,6 +70,10 @@ typedef struct ascr_table_sample {
   int region;     /* ASCR_TABLE_COMPUTED / _BRIDGED / _EXTENDED, at the nearer curve */
   int re_outside; /* 1 if Re lay outside the table's range (nearest curve used) */
   int stalled;    /* 1 if alpha lies beyond the angle of cl_max (or of cl_min) */
+  int trip_unbound; /* bit 0 upper, bit 1 lower: a requested trip bound nothing at the
+                       converged points of either curve around this angle (beyond a curve's
+                       computed range: at its end point), so its numbers there are those of
+                       free transition */
   double cl_lin;  /* the attached-flow lift line of thin-airfoil theory at this angle,
                      2 pi (alpha - alpha0) / sqrt(1 - M^2), alpha0 the zero-lift angle of the
                      curves (interpolated in log Re as cl is): the reference of stall-delay

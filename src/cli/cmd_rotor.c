@@ -103,6 +103,10 @@ static size_t point_notes(const rotor_point *pt, size_t n_el, char notes[NOTE_MA
     snprintf(notes[k++], 200, "%zu of %zu elements outside the table's Re range (nearest curve)",
              pt->r.n_re_outside, n_el);
   }
+  if (pt->r.n_trip_unbound > 0) {
+    snprintf(notes[k++], 200, "%zu of %zu elements where the section's trip binds nothing (free "
+             "transition there)", pt->r.n_trip_unbound, n_el);
+  }
   if (pt->r.tip_mach > 0.7) {
     snprintf(notes[k++], 200, "tip Mach %.3f above 0.7: compressibility beyond the correction",
              pt->r.tip_mach);
@@ -437,6 +441,18 @@ int cmd_rotor(int argc, char **argv)
       json_array_append_new(sa, so);
     }
     json_object_set_new(o, "sections", sa);
+    /* the elements carry trip_not_applied where a trip was asked for or a table's flags say
+     * one bound nothing */
+    int tripped = 0;
+    for (size_t s = 0; s < tabs.n; s++) {
+      const cli_section_info *in = &tabs.info[s];
+      for (size_t k = 0; !in->user_file && k < in->n_curve; k++) {
+        tripped |= in->curve[k].trip_upper <= 1.0 || in->curve[k].trip_lower <= 1.0;
+      }
+    }
+    for (size_t k = 0; k < npt; k++) {
+      for (size_t i = 0; pts[k].solved && i < rp.n_elements; i++) tripped |= pts[k].el[i].trip_unbound != 0;
+    }
     json_t *pa = json_array();
     for (size_t k = 0; k < npt; k++) {
       const rotor_point *pt = &pts[k];
@@ -498,6 +514,12 @@ int cmd_rotor(int argc, char **argv)
         json_object_set_new(eo, "beyond_polar", json_boolean(e->region == ASCR_TABLE_EXTENDED));
         json_object_set_new(eo, "bridged", json_boolean(e->region == ASCR_TABLE_BRIDGED));
         json_object_set_new(eo, "re_outside", json_boolean(e->re_outside));
+        if (tripped) {
+          json_t *tn = json_array();
+          if (eok && (e->trip_unbound & 1)) json_array_append_new(tn, json_string("upper"));
+          if (eok && (e->trip_unbound & 2)) json_array_append_new(tn, json_string("lower"));
+          json_object_set_new(eo, "trip_not_applied", tn);
+        }
         json_array_append_new(ea, eo);
       }
       json_object_set_new(po, "stations", ea);
@@ -597,12 +619,14 @@ int cmd_rotor(int argc, char **argv)
                 "Mach", "cl", "cd", "dT/dr", "dQ/dr", "flags");
         for (size_t i = 0; i < rp.n_elements; i++) {
           const ascr_rotor_element *e = &pt->el[i];
-          fprintf(fp, "    %7.4f %7.2f %7.2f %9.0f %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s%s%s\n",
+          static const char *const trip[4] = {"", "trip-unbound(upper) ", "trip-unbound(lower) ",
+                                              "trip-unbound(both) "};
+          fprintf(fp, "    %7.4f %7.2f %7.2f %9.0f %6.3f %7.4f %8.5f %9.4f %11.6f  %s%s%s%s%s\n",
                   e->r_m / blade->r_tip_m, e->alpha_deg, e->phi_deg, e->re, e->mach, e->cl, e->cd,
                   e->dT_dr_N_m, e->dQ_dr_Nm_m, e->stalled ? "stalled " : "",
                   e->region == ASCR_TABLE_EXTENDED ? "beyond-polar " : "",
                   e->region == ASCR_TABLE_BRIDGED ? "bridged " : "",
-                  e->re_outside ? "re-outside" : "");
+                  e->re_outside ? "re-outside " : "", trip[e->trip_unbound & 3]);
         }
       }
     }

@@ -646,6 +646,7 @@ ascr_status ascr_polar_table_from_curves(const ascr_curve_data *curves, size_t n
     tc[k].cd = curves[k].cd;
     tc[k].cm = curves[k].cm;
     tc[k].converged = curves[k].converged;
+    tc[k].trip_not_applied = curves[k].trip_not_applied;
   }
   ascr_status st = ascr_polar_table_build(tc, n, opt, out, err);
   free(tc);

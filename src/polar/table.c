@@ -27,6 +27,9 @@ typedef struct table_curve {
                               from negative to positive, else the line of slope_lo */
   size_t ngap;
   double *gap;             /* ngap pairs (lo, hi), deg */
+  size_t ntrip;            /* converged points, where a trip bound nothing at any (else 0) */
+  double *trip_a;          /* their angles, deg, ascending */
+  int *trip_bits;          /* their ascr_table_curve.trip_not_applied bits */
 } table_curve;
 
 struct ascr_polar_table {
@@ -236,6 +239,30 @@ static int curve_prepare(const ascr_table_curve *in, table_curve *c, curve_fit *
     fit_free(f);
     return -1;
   }
+  if (in->trip_not_applied != NULL) {
+    int any = 0;
+    for (size_t i = 0; i < in->n; i++) {
+      any |= (in->converged == NULL || in->converged[i]) && (in->trip_not_applied[i] & 3);
+    }
+    if (any) {
+      c->trip_a = core_calloc(n, sizeof *c->trip_a);
+      c->trip_bits = core_calloc(n, sizeof *c->trip_bits);
+      if (c->trip_a == NULL || c->trip_bits == NULL) {
+        free(c->trip_a);
+        free(c->trip_bits);
+        free(c->gap);
+        memset(c, 0, sizeof *c);
+        fit_free(f);
+        return -1;
+      }
+      for (size_t i = 0, q = 0; i < in->n; i++) {
+        if (in->converged != NULL && !in->converged[i]) continue;
+        c->trip_a[q] = in->alpha_deg[i];
+        c->trip_bits[q++] = in->trip_not_applied[i] & 3;
+      }
+      c->ntrip = n;
+    }
+  }
   return 1;
 }
 
@@ -248,6 +275,8 @@ void ascr_polar_table_free(ascr_polar_table *t)
   }
   for (size_t i = 0; i < t->nc; i++) {
     free(t->c[i].gap);
+    free(t->c[i].trip_a);
+    free(t->c[i].trip_bits);
   }
   free(t->c);
   free(t->agrid);
@@ -507,6 +536,18 @@ static int curve_region(const table_curve *c, double a_deg)
   return ASCR_TABLE_COMPUTED;
 }
 
+/* trip bits at a_deg: those of the converged points on either side (within the computed
+ * range), of the end point beyond it (the extension continues from there) */
+static int curve_trip(const table_curve *c, double a_deg)
+{
+  if (c->ntrip == 0) return 0;
+  if (a_deg <= c->trip_a[0]) return c->trip_bits[0];
+  if (a_deg >= c->trip_a[c->ntrip - 1]) return c->trip_bits[c->ntrip - 1];
+  size_t i = 0;
+  while (i + 2 < c->ntrip && c->trip_a[i + 1] <= a_deg) i++;
+  return c->trip_bits[i] | c->trip_bits[i + 1];
+}
+
 void ascr_polar_table_eval(const ascr_polar_table *t, double alpha_rad, double re, double mach,
                            ascr_table_sample *out)
 {
@@ -583,6 +624,7 @@ void polar_table_lookup(const ascr_polar_table *t, double alpha_rad, double re, 
   }
   int r0 = curve_region(c0, a_deg), r1 = curve_region(c1, a_deg);
   out->region = r0 > r1 ? r0 : r1;
+  out->trip_unbound = curve_trip(c0, a_deg) | curve_trip(c1, a_deg);
   /* stalled: beyond the angle of cl_max (the post-stall extension counts), or below the
    * angle of an interior cl minimum, or below the negative stall angle of the extension */
   double neg0 = c0->a_clmin > c0->a_lo ? c0->a_clmin : c0->a_ns;

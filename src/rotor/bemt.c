@@ -234,7 +234,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
   double r0 = b->stations[0].r_m, r1 = b->stations[b->n_stations - 1].r_m;
   size_t ne = p.n_elements;
   double thrust = 0.0, torque = 0.0;
-  rotor_flags fl = {0, 0, 0, 0, 0.0, 0.0};
+  rotor_flags fl = {0, 0, 0, 0, 0, 0.0, 0.0};
   int all_ok = 1;
   for (size_t i = 0; i < ne; i++) {
     double ea = rotor_edge(r0, r1, i, ne), eb = rotor_edge(r0, r1, i + 1, ne);
@@ -306,6 +306,7 @@ ascr_status ascr_rotor_bemt(const ascr_blade *b, const ascr_polar_table *const *
       o->region = e.smp.region;
       o->stalled = e.smp.stalled;
       o->re_outside = e.smp.re_outside;
+      o->trip_unbound = e.smp.trip_unbound;
     }
   }
   gsl_root_fsolver_free(solver);

@@ -160,6 +160,7 @@ void rotor_sample(const ascr_polar_table *const *tables, size_t s0, size_t s1, d
     out->region = q.region > out->region ? q.region : out->region;
     out->stalled |= q.stalled;
     out->re_outside |= q.re_outside;
+    out->trip_unbound |= q.trip_unbound;
   }
   if (sd > 0.0) stall_delay(sd, mach, out);
 }

@@ -44,7 +44,7 @@ static void eval(ann *a, double v, double u, double *f1, double *f2)
   const ascr_rotor_params *p = a->p;
   double dt = 0.0, dq = 0.0, dh = 0.0, dy = 0.0, mx = 0.0, my = 0.0;
   a->flags.region = 0;
-  a->flags.stalled = a->flags.re_outside = 0;
+  a->flags.stalled = a->flags.re_outside = a->flags.trip_unbound = 0;
   for (size_t k = 0; k < a->n; k++) {
     double up = a->va + v * (1.0 + a->kx * a->cps[k]);
     double ut = a->omega * a->r + a->vp * a->sps[k] - u;
@@ -64,6 +64,7 @@ static void eval(ann *a, double v, double u, double *f1, double *f2)
     a->flags.region = q.region > a->flags.region ? q.region : a->flags.region;
     a->flags.stalled |= q.stalled;
     a->flags.re_outside |= q.re_outside;
+    a->flags.trip_unbound |= q.trip_unbound;
   }
   double inv = 1.0 / (double)a->n;
   a->dt = dt * inv;

@@ -14,6 +14,7 @@ void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, d
   f->n_extended += (size_t)(q->region == ASCR_TABLE_EXTENDED);
   f->n_bridged += (size_t)(q->region == ASCR_TABLE_BRIDGED);
   f->n_re_outside += (size_t)q->re_outside;
+  f->n_trip_unbound += (size_t)(q->trip_unbound != 0);
   double t = fabs(dt_dr * dr);
   if (isfinite(t)) {
     f->t_all += t;
@@ -27,6 +28,7 @@ void rotor_flags_finish(const rotor_flags *f, ascr_rotor_result *res)
   res->n_extended = f->n_extended;
   res->n_bridged = f->n_bridged;
   res->n_re_outside = f->n_re_outside;
+  res->n_trip_unbound = f->n_trip_unbound;
   res->flagged_thrust_share = f->t_all > 0.0 ? f->t_flagged / f->t_all : 0.0;
   res->low_confidence = res->flagged_thrust_share > ASCR_ROTOR_LOW_CONFIDENCE_SHARE;
 }

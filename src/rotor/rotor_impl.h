@@ -40,11 +40,11 @@ double rotor_edge(double r0, double r1, size_t i, size_t n);
 /* Flags of the solved elements of one point: counts, and the thrust magnitudes behind the share
  * resting on flagged ones. Both inflow models count through here (src/rotor/result.c). */
 typedef struct rotor_flags {
-  size_t n_stalled, n_extended, n_bridged, n_re_outside;
+  size_t n_stalled, n_extended, n_bridged, n_re_outside, n_trip_unbound;
   double t_all, t_flagged;
 } rotor_flags;
 
-/* Count one solved element (stalled, extended, bridged, Re outside); dt_dr (N/m) times dr is
+/* Count one solved element (stalled, extended, bridged, Re outside, a trip binding nothing); dt_dr (N/m) times dr is
  * its thrust. */
 void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, double dr);
 

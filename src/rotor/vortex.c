@@ -586,7 +586,7 @@ ascr_status rotor_vortex_from(const ascr_blade *b, const ascr_polar_table *const
   /* loads */
   memset(res, 0, sizeof *res);
   double thrust = 0.0, torque = 0.0, rho = p.density_kg_m3;
-  rotor_flags fl = {0, 0, 0, 0, 0.0, 0.0};
+  rotor_flags fl = {0, 0, 0, 0, 0, 0.0, 0.0};
   if (ok) {
     induced(&s);
   }
@@ -626,6 +626,7 @@ ascr_status rotor_vortex_from(const ascr_blade *b, const ascr_polar_table *const
       o->region = q.region;
       o->stalled = q.stalled;
       o->re_outside = q.re_outside;
+      o->trip_unbound = q.trip_unbound;
     }
   }
   rotor_point_finish(b, &p, rpm, speed_m_s, thrust, torque, conv, &fl, res);

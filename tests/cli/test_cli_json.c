@@ -462,6 +462,32 @@ static void test_cli_rotor_json_contract(void **state)
     lower += (size_t)num(tn, "lower");
   }
   assert_true(lower >= 1);
+  /* and per element: where the elements' angle lies on or past the curves' first flagged
+   * point (12 deg) or in the interval before it (from 8 deg), trip_not_applied names the lower
+   * surface; below 8 deg it is empty; the point's warning counts them */
+  json_t *q0 = json_array_get(json_object_get(j, "points"), 0);
+  json_t *st = json_object_get(q0, "stations");
+  size_t flagged = 0, low = 0;
+  for (size_t i = 0; i < json_array_size(st); i++) {
+    json_t *e = json_array_get(st, i), *tn = json_object_get(e, "trip_not_applied");
+    assert_true(json_is_array(tn));
+    double a = num(e, "alpha_deg");
+    if (json_array_size(tn) > 0) {
+      assert_string_equal(json_string_value(json_array_get(tn, 0)), "lower");
+      assert_true(a > 8.0);
+      flagged++;
+    }
+    if (a >= 12.0) assert_int_equal(json_array_size(tn), 1);
+    if (a < 8.0) low++, assert_int_equal(json_array_size(tn), 0);
+  }
+  assert_true(flagged > 0 && low > 0);
+  char want[160];
+  snprintf(want, sizeof want, "%zu of %zu elements where the section's trip binds nothing", flagged,
+           json_array_size(st));
+  int seen = 0;
+  json_t *w = json_object_get(q0, "warnings");
+  for (size_t i = 0; i < json_array_size(w); i++) seen |= strstr(json_string_value(json_array_get(w, i)), want) != NULL;
+  assert_true(seen);
   json_decref(j);
 }
 

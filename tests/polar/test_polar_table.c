@@ -48,7 +48,7 @@ static void test_inside_and_extension(void **state)
   synth s;
   make(&s, 0.9, 0.02);
   s.conv[20] = s.conv[21] = 0; /* 2.0 and 2.5 deg did not converge */
-  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv};
+  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv, NULL};
   ascr_table_options o = ascr_table_options_defaults();
   ascr_polar_table *t = NULL;
   ascr_errbuf err;
@@ -101,10 +101,10 @@ static void test_re_interpolation_and_mach(void **state)
   (void)state;
   synth a, b, c, d;
   make_four(&a, &b, &c, &d);
-  ascr_table_curve cv[4] = {{3e5, NA, d.al, d.cl, d.cd, d.cm, NULL},
-                            {3e4, NA, a.al, a.cl, a.cd, a.cm, NULL},
-                            {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL},
-                            {6e4, NA, b.al, b.cl, b.cd, b.cm, NULL}};
+  ascr_table_curve cv[4] = {{3e5, NA, d.al, d.cl, d.cd, d.cm, NULL, NULL},
+                            {3e4, NA, a.al, a.cl, a.cd, a.cm, NULL, NULL},
+                            {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL, NULL},
+                            {6e4, NA, b.al, b.cl, b.cd, b.cm, NULL, NULL}};
   ascr_polar_table *t = NULL;
   assert_int_equal(ascr_polar_table_build(cv, 4, NULL, &t, NULL), ASCR_OK);
   assert_int_equal(ascr_polar_table_curves(t), 4);
@@ -137,12 +137,12 @@ static void test_lookup_is_local_in_re(void **state)
   (void)state;
   synth a, b, c, d;
   make_four(&a, &b, &c, &d);
-  ascr_table_curve two[2] = {{6e4, NA, b.al, b.cl, b.cd, b.cm, NULL},
-                             {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL}};
-  ascr_table_curve four[4] = {{3e4, NA, a.al, a.cl, a.cd, a.cm, NULL},
-                              {6e4, NA, b.al, b.cl, b.cd, b.cm, NULL},
-                              {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL},
-                              {3e5, NA, d.al, d.cl, d.cd, d.cm, NULL}};
+  ascr_table_curve two[2] = {{6e4, NA, b.al, b.cl, b.cd, b.cm, NULL, NULL},
+                             {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL, NULL}};
+  ascr_table_curve four[4] = {{3e4, NA, a.al, a.cl, a.cd, a.cm, NULL, NULL},
+                              {6e4, NA, b.al, b.cl, b.cd, b.cm, NULL, NULL},
+                              {1e5, NA, c.al, c.cl, c.cd, c.cm, NULL, NULL},
+                              {3e5, NA, d.al, d.cl, d.cd, d.cm, NULL, NULL}};
   ascr_polar_table *t2 = NULL, *t4 = NULL;
   assert_int_equal(ascr_polar_table_build(two, 2, NULL, &t2, NULL), ASCR_OK);
   assert_int_equal(ascr_polar_table_build(four, 4, NULL, &t4, NULL), ASCR_OK);
@@ -209,7 +209,7 @@ static void test_post_stall_against_sheldahl_klimas(void **state)
     cd[i] = mcd[k < 0 ? -k : k];
     cm[i] = 0.0;
   }
-  ascr_table_curve c = {3.6e5, 21, al, cl, cd, cm, NULL};
+  ascr_table_curve c = {3.6e5, 21, al, cl, cd, cm, NULL, NULL};
   ascr_table_options o = ascr_table_options_defaults();
   o.cd_max = 1.8;
   ascr_polar_table *t = NULL;
@@ -256,7 +256,7 @@ static void test_negative_side_extension(void **state)
   for (int i = 0; i < NA; i++) {
     s.conv[i] = s.al[i] >= 2.0;
   }
-  ascr_table_curve c = {2e4, NA, s.al, s.cl, s.cd, s.cm, s.conv};
+  ascr_table_curve c = {2e4, NA, s.al, s.cl, s.cd, s.cm, s.conv, NULL};
   ascr_polar_table *t = NULL;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, NULL), ASCR_OK);
   ascr_table_sample q;
@@ -277,7 +277,7 @@ static void test_refusals(void **state)
   make(&s, 0.9, 0.02);
   ascr_polar_table *t = NULL;
   ascr_errbuf err;
-  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL};
+  ascr_table_curve c = {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL};
   s.cd[3] = NAN;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EINVAL);
   assert_non_null(strstr(err.msg, "point 4"));
@@ -293,7 +293,7 @@ static void test_refusals(void **state)
   c.converged = s.conv;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EDOM);
   assert_null(t);
-  ascr_table_curve two[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, NULL}, {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL}};
+  ascr_table_curve two[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL}, {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL}};
   assert_int_equal(ascr_polar_table_build(two, 2, NULL, &t, &err), ASCR_EINVAL);
   assert_non_null(strstr(err.msg, "twice"));
 }
@@ -309,8 +309,8 @@ static void test_attached_flow_line(void **state)
   make(&s, 0.9, 0.02);
   make(&s2, 0.9, 0.02);
   for (int i = 0; i < NA; i++) s2.cl[i] += 0.9 * 2.0 * PI * 1.0 * DEG; /* zero lift at -3 deg */
-  ascr_table_curve c[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv},
-                           {4e5, NA, s2.al, s2.cl, s2.cd, s2.cm, s2.conv}};
+  ascr_table_curve c[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, s.conv, NULL},
+                           {4e5, NA, s2.al, s2.cl, s2.cd, s2.cm, s2.conv, NULL}};
   ascr_polar_table *t = NULL;
   assert_int_equal(ascr_polar_table_build(c, 2, NULL, &t, NULL), ASCR_OK);
   ascr_table_sample q;
@@ -327,6 +327,48 @@ static void test_attached_flow_line(void **state)
   ascr_polar_table_free(t);
 }
 
+/* Trip flags (ascr_table_curve.trip_not_applied): a lookup carries the bits of the converged
+ * points on either side of its angle, of the end point beyond the computed range, and of both
+ * curves around its Re; a curve without flags gives none. */
+static void test_trip_flags(void **state)
+{
+  (void)state;
+  synth a, b;
+  make(&a, 0.85, 0.02);
+  make(&b, 0.90, 0.015);
+  int ta[NA], tb[NA];
+  for (int i = 0; i < NA; i++) {
+    ta[i] = a.al[i] >= 4.0 ? 2 : 0; /* lower trip unbound from 4 deg */
+    tb[i] = 0;
+  }
+  a.conv[26] = 0;      /* 5.0 deg unconverged: its flag must not count */
+  ta[26] = 1;
+  ascr_table_curve one = {5e4, NA, a.al, a.cl, a.cd, a.cm, a.conv, ta};
+  ascr_polar_table *t = NULL;
+  assert_int_equal(ascr_polar_table_build(&one, 1, NULL, &t, NULL), ASCR_OK);
+  ascr_table_sample q;
+  ascr_polar_table_eval(t, 2.0 * DEG, 5e4, 0.0, &q);
+  assert_int_equal(q.trip_unbound, 0);
+  ascr_polar_table_eval(t, 3.7 * DEG, 5e4, 0.0, &q); /* between 3.5 (free) and 4.0 (flagged) */
+  assert_int_equal(q.trip_unbound, 2);
+  ascr_polar_table_eval(t, 5.0 * DEG, 5e4, 0.0, &q); /* the unconverged point's bit 0 is not used */
+  assert_int_equal(q.trip_unbound, 2);
+  ascr_polar_table_eval(t, 30.0 * DEG, 5e4, 0.0, &q); /* extension: from the flagged end point */
+  assert_int_equal(q.trip_unbound, 2);
+  ascr_polar_table_eval(t, -20.0 * DEG, 5e4, 0.0, &q);
+  assert_int_equal(q.trip_unbound, 0);
+  ascr_polar_table_free(t);
+
+  ascr_table_curve two[2] = {{5e4, NA, a.al, a.cl, a.cd, a.cm, a.conv, ta},
+                             {1e5, NA, b.al, b.cl, b.cd, b.cm, b.conv, tb}};
+  assert_int_equal(ascr_polar_table_build(two, 2, NULL, &t, NULL), ASCR_OK);
+  ascr_polar_table_eval(t, 6.0 * DEG, 7e4, 0.0, &q); /* between the curves: either one's flag */
+  assert_int_equal(q.trip_unbound, 2);
+  ascr_polar_table_eval(t, 6.0 * DEG, 2e5, 0.0, &q); /* above the range: the flagless curve */
+  assert_int_equal(q.trip_unbound, 0);
+  ascr_polar_table_free(t);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -337,6 +379,7 @@ int main(void)
       cmocka_unit_test(test_negative_side_extension),
       cmocka_unit_test(test_refusals),
       cmocka_unit_test(test_attached_flow_line),
+      cmocka_unit_test(test_trip_flags),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }

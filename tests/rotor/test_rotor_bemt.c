@@ -192,9 +192,9 @@ static ascr_polar_table *re_dependent_table(void)
     cd3[i] = 0.012 + 0.5 * a * a;
     cm1[i] = cm2[i] = cm3[i] = -0.05;
   }
-  ascr_table_curve c[3] = {{3e4, NA, al, cl1, cd1, cm1, NULL},
-                           {1e5, NA, al, cl2, cd2, cm2, NULL},
-                           {3e5, NA, al, cl3, cd3, cm3, NULL}};
+  ascr_table_curve c[3] = {{3e4, NA, al, cl1, cd1, cm1, NULL, NULL},
+                           {1e5, NA, al, cl2, cd2, cm2, NULL, NULL},
+                           {3e5, NA, al, cl3, cd3, cm3, NULL, NULL}};
   ascr_polar_table *t = NULL;
   assert_int_equal(ascr_polar_table_build(c, 3, NULL, &t, NULL), ASCR_OK);
   return t;
@@ -367,7 +367,7 @@ static void test_confidence(void **state)
     cd[i] = 0.015;
     cm[i] = 0.0;
   }
-  ascr_table_curve c = {5e4, 13, al, cl, cd, cm, NULL};
+  ascr_table_curve c = {5e4, 13, al, cl, cd, cm, NULL, NULL};
   ascr_polar_table *shortc;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &shortc, NULL), ASCR_OK);
   test_blade a;
@@ -493,6 +493,65 @@ static void test_isa(void **state)
   assert_int_equal(ascr_air_from_tp(500.0, 101325.0, &r2, &m2, &a2, NULL), ASCR_EDOM);
 }
 
+/* Elements whose table says a trip bound nothing at their angle are flagged and counted, and
+ * do not add to the flagged thrust share (their numbers are computed ones, of free
+ * transition): a table flagged from 4 deg up, a blade whose elements straddle that angle. */
+static void test_trip_unbound_counted(void **state)
+{
+  (void)state;
+  double al[25], cl[25], cd[25], cm[25];
+  int tn[25];
+  for (int i = 0; i < 25; i++) {
+    al[i] = -8.0 + i; /* -8 .. 16 deg */
+    cl[i] = 0.1 * (al[i] + 2.0);
+    cd[i] = 0.015;
+    cm[i] = 0.0;
+    tn[i] = al[i] >= 4.0 ? 2 : 0;
+  }
+  ascr_table_curve c = {5e4, 25, al, cl, cd, cm, NULL, tn};
+  ascr_polar_table *tab;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &tab, NULL), ASCR_OK);
+  test_blade a;
+  small_prop(&a, 1.0);
+  ascr_rotor_params p = ascr_rotor_params_defaults();
+  ascr_rotor_element el[40];
+  assert_true(p.n_elements <= 40);
+  ascr_rotor_result r;
+  const ascr_polar_table *t1[1] = {tab};
+  assert_int_equal(ascr_rotor_bemt(&a.b, t1, &p, 8000.0, 0.0, &r, el, NULL), ASCR_OK);
+  assert_true(r.converged);
+  size_t n = 0, above = 0, below = 0;
+  for (size_t i = 0; i < p.n_elements; i++) {
+    n += el[i].trip_unbound != 0;
+    if (el[i].alpha_deg >= 4.0) above += el[i].trip_unbound == 2;
+    if (el[i].alpha_deg <= 3.0) below += el[i].trip_unbound == 0;
+    if (el[i].alpha_deg >= 4.0 || el[i].alpha_deg <= 3.0) continue;
+    assert_int_equal(el[i].trip_unbound, 2); /* 3..4 deg: the flagged neighbour counts */
+  }
+  size_t n_above = 0, n_below = 0;
+  for (size_t i = 0; i < p.n_elements; i++) {
+    n_above += el[i].alpha_deg >= 4.0;
+    n_below += el[i].alpha_deg <= 3.0;
+  }
+  assert_int_equal(above, n_above);
+  assert_int_equal(below, n_below);
+  assert_true(n_above > 0 && n_below > 0); /* the blade straddles the flagged angle */
+  assert_int_equal(r.n_trip_unbound, n);
+  /* the same table without the flags: the same numbers and flagged share (one curve: every
+   * element is outside its Re, flagged for that alone) */
+  c.trip_not_applied = NULL;
+  ascr_polar_table *plain;
+  assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &plain, NULL), ASCR_OK);
+  ascr_rotor_result r0;
+  const ascr_polar_table *t0[1] = {plain};
+  assert_int_equal(ascr_rotor_bemt(&a.b, t0, &p, 8000.0, 0.0, &r0, NULL, NULL), ASCR_OK);
+  assert_true(r0.thrust_N == r.thrust_N && r0.power_W == r.power_W);
+  assert_true(r0.flagged_thrust_share == r.flagged_thrust_share);
+  assert_int_equal(r0.n_trip_unbound, 0);
+  ascr_polar_table_free(plain);
+  ascr_polar_table_free(tab);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -501,6 +560,7 @@ int main(void)
       cmocka_unit_test(test_thrust_rpm_squared), cmocka_unit_test(test_windmill),
       cmocka_unit_test(test_bad_input),          cmocka_unit_test(test_isa),
       cmocka_unit_test(test_confidence),        cmocka_unit_test(test_band),
+      cmocka_unit_test(test_trip_unbound_counted),
       cmocka_unit_test(test_element_pitching_moment), cmocka_unit_test(test_stall_delay),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);

@@ -173,7 +173,7 @@ static void test_stalled_root_smooth(void **state)
     cd[i] = 0.012 + (a > 8.0 ? 0.01 * (a - 8.0) : 0.0) + 0.0002 * a * a;
     cm[i] = 0.0;
   }
-  ascr_table_curve c = {1e5, 23, al, cl, cd, cm, NULL};
+  ascr_table_curve c = {1e5, 23, al, cl, cd, cm, NULL, NULL};
   ascr_polar_table *tab;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &tab, NULL), ASCR_OK);
   const ascr_polar_table *tabs[1] = {tab};
