@@ -1,6 +1,7 @@
 /* fuzz/fuzz_polar_table.c
  * libFuzzer target: the polar-table reader (ascr_table_file_parse) and, when accepted, the table
- * build and a sweep of lookups over all angles (every number must be finite).
+ * build and a sweep of lookups over all angles (every number must be finite, the trip flags
+ * two bits).
  */
 #include <airscrew/airscrew.h>
 #include <math.h>
@@ -24,6 +25,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
       ascr_table_sample q;
       ascr_polar_table_eval(t, d * 3.14159265358979323846 / 180.0, 5e4, 0.2, &q);
       if (!isfinite(q.cl) || !isfinite(q.cd) || !isfinite(q.cm)) abort();
+      if (q.trip_unbound < 0 || q.trip_unbound > 3) abort();
     }
     ascr_polar_table_free(t);
   }
