@@ -352,6 +352,17 @@ static void test_thrust_rpm_squared(void **state)
   ascr_polar_table_free(tab);
 }
 
+/* A computed-looking curve by 1 deg from a0: cl = 0.1 (alpha + 2 deg), cd 0.015, cm 0. */
+static void line_curve(double a0, int n, double *al, double *cl, double *cd, double *cm)
+{
+  for (int i = 0; i < n; i++) {
+    al[i] = a0 + i;
+    cl[i] = 0.1 * (al[i] + 2.0);
+    cd[i] = 0.015;
+    cm[i] = 0.0;
+  }
+}
+
 /* Confidence: a linear table flags nothing; a computed curve that stops at 3 deg puts a hover
  * rotor's elements beyond it (post-stall extension) and its thrust rests on them: low
  * confidence, counted and shared. */
@@ -361,12 +372,7 @@ static void test_confidence(void **state)
   ascr_polar_table *lin;
   assert_int_equal(ascr_polar_table_linear(5.7, -2.0 * DEG, 0.015, &lin, NULL), ASCR_OK);
   double al[13], cl[13], cd[13], cm[13];
-  for (int i = 0; i < 13; i++) {
-    al[i] = -9.0 + i; /* -9 .. 3 deg */
-    cl[i] = 0.1 * (al[i] + 2.0);
-    cd[i] = 0.015;
-    cm[i] = 0.0;
-  }
+  line_curve(-9.0, 13, al, cl, cd, cm); /* -9 .. 3 deg */
   ascr_table_curve c = {5e4, 13, al, cl, cd, cm, NULL, NULL};
   ascr_polar_table *shortc;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &shortc, NULL), ASCR_OK);
@@ -501,13 +507,8 @@ static void test_trip_unbound_counted(void **state)
   (void)state;
   double al[25], cl[25], cd[25], cm[25];
   int tn[25];
-  for (int i = 0; i < 25; i++) {
-    al[i] = -8.0 + i; /* -8 .. 16 deg */
-    cl[i] = 0.1 * (al[i] + 2.0);
-    cd[i] = 0.015;
-    cm[i] = 0.0;
-    tn[i] = al[i] >= 4.0 ? 2 : 0;
-  }
+  line_curve(-8.0, 25, al, cl, cd, cm); /* -8 .. 16 deg */
+  for (int i = 0; i < 25; i++) tn[i] = al[i] >= 4.0 ? 2 : 0;
   ascr_table_curve c = {5e4, 25, al, cl, cd, cm, NULL, tn};
   ascr_polar_table *tab;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &tab, NULL), ASCR_OK);
