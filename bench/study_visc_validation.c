@@ -7,7 +7,7 @@
  * beside it the tunnel's spanwise spread (its four wake-rake stations' standard deviation, per
  * cent of their mean) and how many computed cd lie within the stations' range; lift
  * mean / largest / signed mean error; the lift slope per degree computed / measured (+- the
- * measured fit's standard error); cl_max computed / measured; where the lift file has the
+ * measured fit's standard error) and the zero-lift angles of the two fitted lines; cl_max computed / measured; where the lift file has the
  * moment (Clark Y), the mean and signed mean cm_c/4 error at the measured angle.
  * Arguments: [reference folder] (default: reference).
  */
@@ -24,9 +24,9 @@ int main(int argc, char **argv)
   openblas_set_num_threads(1);
   const char *dir = argc > 1 ? argv[1] : "reference";
   const char *names[] = {"sd7003", "sd8000", "clarky"};
-  printf("%-7s %7s %5s | %-30s | %-17s | %-29s | %-24s | %-13s | %s\n", "section", "Re", "conv",
+  printf("%-7s %7s %5s | %-30s | %-17s | %-29s | %-24s | %-15s | %-13s | %s\n", "section", "Re", "conv",
          "cd err % mean / max / bias (n)", "stations sd %, in", "cl err mean / max / bias (n)",
-         "slope /deg calc / meas", "cl_max calc/meas", "cm err mean / bias");
+         "slope /deg calc / meas", "alpha0 calc/meas", "cl_max calc/meas", "cm err mean / bias");
   for (int is = 0; is < 3; is++) {
     uiuc_result res[16];
     size_t n = 0;
@@ -35,11 +35,12 @@ int main(int argc, char **argv)
       const uiuc_result *o = &res[i];
       printf("%-7s %7.0f %2zu/%-2zu | %6.1f / %6.1f / %+6.1f (%2zu) | %5.1f, %2zu of %-2zu   | "
              "%.3f / %.3f / %+.3f (%2zu) | "
-             "%.4f / %.4f +- %.4f | %5.2f / %5.2f | %.4f / %+.4f\n",
+             "%.4f / %.4f +- %.4f | %+6.2f / %+6.2f | %5.2f / %5.2f | %.4f / %+.4f\n",
              names[is], o->re, o->n_converged, o->n_points, 100.0 * o->cd_mean, 100.0 * o->cd_max,
              100.0 * o->cd_bias, o->cd_n, 100.0 * o->cd_station_sd, o->cd_in_range, o->cd_n,
              o->cl_mean, o->cl_max_err, o->cl_bias, o->cl_n,
-             o->slope_calc, o->slope_meas, o->slope_meas_se, o->clmax_calc, o->clmax_meas,
+             o->slope_calc, o->slope_meas, o->slope_meas_se, o->alpha0_calc, o->alpha0_meas,
+             o->clmax_calc, o->clmax_meas,
              o->cm_mean, o->cm_bias);
       fflush(stdout);
     }

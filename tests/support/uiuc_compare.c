@@ -229,9 +229,19 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
   o->cm_mean = o->cm_n ? sm / (double)o->cm_n : NAN;
   o->cm_bias = o->cm_n ? bm / (double)o->cm_n : NAN;
   o->slope_calc = o->slope_meas = o->slope_meas_se = NAN;
+  o->alpha0_calc = o->alpha0_meas = NAN;
   if (ns >= 4) {
     o->slope_meas = ls_slope(xa, ym, ns, &o->slope_meas_se);
     o->slope_calc = ls_slope(xa, yc, ns, NULL);
+    /* the zero-lift angle of each line: mean angle less mean lift over the slope */
+    double s_a = 0.0, s_m = 0.0, s_c = 0.0;
+    for (size_t i = 0; i < ns; i++) {
+      s_a += xa[i];
+      s_m += ym[i];
+      s_c += yc[i];
+    }
+    o->alpha0_meas = (s_a - s_m / o->slope_meas) / (double)ns;
+    o->alpha0_calc = (s_a - s_c / o->slope_calc) / (double)ns;
   }
   if (!isfinite(o->clmax_meas)) o->clmax_meas = NAN;
   o->clmax_calc = NAN;

@@ -13,7 +13,8 @@
  *   - lift: mean, largest and signed mean cl error at the measured angle, -2 to 6 deg, from the
  *     lift run of the nearest Re (within 5 %; the up-going branch of the loop only);
  *   - lift slope: least-squares dcl/dalpha over the measured angles from -2 to 5 deg of that
- *     run, measured and computed at the same angles, with the measured fit's standard error;
+ *     run, measured and computed at the same angles, with the measured fit's standard error,
+ *     and the zero-lift angle of each fitted line (printed; not one of issue 12's checks);
  *   - cl_max: measured (up-going branch) against the sweep's largest converged cl;
  *   - pitching moment, where the lift file has one (Clark Y; the SD files carry a placeholder
  *     that is not reproduced): mean and signed mean cm_c/4 error at the measured angle over the
@@ -37,6 +38,7 @@ typedef struct uiuc_result {
   double cl_mean, cl_max_err, cl_bias; /* absolute; NaN where cl_n = 0 */
   size_t cl_n;
   double slope_calc, slope_meas, slope_meas_se; /* per deg; NaN where fewer than 4 angles */
+  double alpha0_calc, alpha0_meas; /* zero-lift angle of the same least-squares lines, deg */
   double clmax_calc, clmax_meas;
   double cm_mean, cm_bias;        /* absolute; NaN where cm_n = 0 */
   size_t cm_n;
