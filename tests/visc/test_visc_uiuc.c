@@ -105,11 +105,13 @@ static void test_uiuc_section(void **state)
         "holds the ones tests/visc/test_visc_uiuc.c lists, the others are open)",
         "Re,converged,cd_mean_err_pct,cd_bias_pct,cd_target_pct,cd_stations_sd_pct,"
         "cd_within_stations,cl_max_err,cl_target,cl_max_calc,cl_max_meas,slope_calc_per_deg,"
-        "slope_meas_per_deg,slope_tol,met_cd_cl_clmax_slope",
-        "%.0f,%zu/%zu,%.1f,%+.1f,%.0f,%.1f,%zu/%zu,%.3f,0.03,%.2f,%.2f,%.4f,%.4f,%.4f,%d%d%d%d",
+        "slope_meas_per_deg,slope_tol,alpha0_calc_deg,alpha0_meas_deg,met_cd_cl_clmax_slope",
+        "%.0f,%zu/%zu,%.1f,%+.1f,%.0f,%.1f,%zu/%zu,%.3f,0.03,%.2f,%.2f,%.4f,%.4f,%.4f,%.2f,%.2f,"
+        "%d%d%d%d",
         o->re, o->n_converged, o->n_points, 100.0 * o->cd_mean, 100.0 * o->cd_bias,
-        100.0 * tol_cd, 100.0 * o->cd_station_sd, o->cd_in_range, o->cd_n, o->cl_max_err, o->clmax_calc, o->clmax_meas, o->slope_calc, o->slope_meas, tol_slope, md,
-        ml, mc, ms);
+        100.0 * tol_cd, 100.0 * o->cd_station_sd, o->cd_in_range, o->cd_n, o->cl_max_err,
+        o->clmax_calc, o->clmax_meas, o->slope_calc, o->slope_meas, tol_slope, o->alpha0_calc,
+        o->alpha0_meas, md, ml, mc, ms);
   }
   assert_false(failed);
 }
