@@ -7,7 +7,8 @@
  * beside it the tunnel's spanwise spread (its four wake-rake stations' standard deviation, per
  * cent of their mean) and how many computed cd lie within the stations' range; lift
  * mean / largest / signed mean error; the lift slope per degree computed / measured (+- the
- * measured fit's standard error) and the zero-lift angles of the two fitted lines; cl_max computed / measured; where the lift file has the
+ * measured fit's standard error) and the zero-lift angles of the two fitted lines; cl_max
+ * computed / measured; where the lift file has the
  * moment (Clark Y), the mean and signed mean cm_c/4 error at the measured angle.
  * Arguments: [reference folder] (default: reference).
  */
@@ -24,7 +25,8 @@ int main(int argc, char **argv)
   openblas_set_num_threads(1);
   const char *dir = argc > 1 ? argv[1] : "reference";
   const char *names[] = {"sd7003", "sd8000", "clarky"};
-  printf("%-7s %7s %5s | %-30s | %-17s | %-29s | %-24s | %-15s | %-13s | %s\n", "section", "Re", "conv",
+  printf("%-7s %7s %5s | %-30s | %-17s | %-29s | %-24s | %-15s | %-13s | %s\n", "section", "Re",
+         "conv",
          "cd err % mean / max / bias (n)", "stations sd %, in", "cl err mean / max / bias (n)",
          "slope /deg calc / meas", "alpha0 calc/meas", "cl_max calc/meas", "cm err mean / bias");
   for (int is = 0; is < 3; is++) {

@@ -451,7 +451,9 @@ int cmd_rotor(int argc, char **argv)
       }
     }
     for (size_t k = 0; k < npt; k++) {
-      for (size_t i = 0; pts[k].solved && i < rp.n_elements; i++) tripped |= pts[k].el[i].trip_unbound != 0;
+      for (size_t i = 0; pts[k].solved && i < rp.n_elements; i++) {
+        tripped |= pts[k].el[i].trip_unbound != 0;
+      }
     }
     json_t *pa = json_array();
     for (size_t k = 0; k < npt; k++) {

@@ -44,7 +44,8 @@ typedef struct rotor_flags {
   double t_all, t_flagged;
 } rotor_flags;
 
-/* Count one solved element (stalled, extended, bridged, Re outside, a trip binding nothing); dt_dr (N/m) times dr is
+/* Count one solved element (stalled, extended, bridged, Re outside, a trip binding nothing);
+ * dt_dr (N/m) times dr is
  * its thrust. */
 void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, double dr);
 

@@ -486,7 +486,9 @@ static void test_cli_rotor_json_contract(void **state)
            json_array_size(st));
   int seen = 0;
   json_t *w = json_object_get(q0, "warnings");
-  for (size_t i = 0; i < json_array_size(w); i++) seen |= strstr(json_string_value(json_array_get(w, i)), want) != NULL;
+  for (size_t i = 0; i < json_array_size(w); i++) {
+    seen |= strstr(json_string_value(json_array_get(w, i)), want) != NULL;
+  }
   assert_true(seen);
   json_decref(j);
 }

@@ -293,7 +293,8 @@ static void test_refusals(void **state)
   c.converged = s.conv;
   assert_int_equal(ascr_polar_table_build(&c, 1, NULL, &t, &err), ASCR_EDOM);
   assert_null(t);
-  ascr_table_curve two[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL}, {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL}};
+  ascr_table_curve two[2] = {{1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL},
+                             {1e5, NA, s.al, s.cl, s.cd, s.cm, NULL, NULL}};
   assert_int_equal(ascr_polar_table_build(two, 2, NULL, &t, &err), ASCR_EINVAL);
   assert_non_null(strstr(err.msg, "twice"));
 }
