@@ -8,8 +8,8 @@
  * cent of their mean) and how many computed cd lie within the stations' range; lift
  * mean / largest / signed mean error; the lift slope per degree computed / measured (+- the
  * measured fit's standard error) and the zero-lift angles of the two fitted lines; cl_max
- * computed / measured; where the lift file has the
- * moment (Clark Y), the mean and signed mean cm_c/4 error at the measured angle.
+ * computed / measured; where the lift file has the moment (Clark Y), the mean and signed mean
+ * cm_c/4 error at the measured angle.
  * Arguments: [reference folder] (default: reference).
  */
 #include "uiuc_compare.h"

@@ -45,8 +45,7 @@ typedef struct rotor_flags {
 } rotor_flags;
 
 /* Count one solved element (stalled, extended, bridged, Re outside, a trip binding nothing);
- * dt_dr (N/m) times dr is
- * its thrust. */
+ * dt_dr (N/m) times dr is its thrust. */
 void rotor_flags_add(rotor_flags *f, const ascr_table_sample *q, double dt_dr, double dr);
 
 /* The counts, flagged_thrust_share and low_confidence into res. */
