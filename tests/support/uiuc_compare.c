@@ -90,10 +90,11 @@ static double cd_at_cl(const polar *pl, double cl)
   return NAN;
 }
 
-static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, polar *pl)
+static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, double ncrit, polar *pl)
 {
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
+  p.ncrit = ncrit;
   ascr_visc_solver_set(v, w, &p, NULL);
   pl->n = ascr_polar_grid_size(-4.0, 16.0, 0.5);
   ascr_polar_summary sum;
@@ -139,7 +140,22 @@ static double ls_slope(const double *x, const double *y, size_t n, double *se)
   return b;
 }
 
-static void compare(const table *drag, const table *lift, const polar *pl, double re, uiuc_result *o)
+/* within [min, max] of v[0..2] (NaN entries left out; none finite: no) */
+static int in_band(double x, const double v[3])
+{
+  double lo = INFINITY, hi = -INFINITY;
+  for (int k = 0; k < 3; k++) {
+    if (isfinite(v[k])) {
+      lo = fmin(lo, v[k]);
+      hi = fmax(hi, v[k]);
+    }
+  }
+  return lo <= x && x <= hi;
+}
+
+/* band: NULL, or the polars at N_crit lo and hi (pl is the one at 9) */
+static void compare(const table *drag, const table *lift, const polar *pl, const polar *band,
+                    double re, uiuc_result *o)
 {
   memset(o, 0, sizeof *o);
   o->re = re;
@@ -160,6 +176,10 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
     if (drag->v[r][0] != re || drag->v[r][3] > 1.5 * cdmin) continue;
     double c = cd_at_cl(pl, drag->v[r][2]);
     if (!isfinite(c)) continue;
+    if (band != NULL) {
+      double v[3] = {c, cd_at_cl(&band[0], drag->v[r][2]), cd_at_cl(&band[1], drag->v[r][2])};
+      o->cd_in_band += (size_t)in_band(drag->v[r][3], v);
+    }
     double e = (c - drag->v[r][3]) / drag->v[r][3];
     bd += e;
     sd += fabs(e);
@@ -206,6 +226,11 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
     if (a < -2.0 || a > 6.0) continue;
     double c = ascr_polar_cl_at_alpha(pl->p, pl->n, a);
     if (!isfinite(c)) continue;
+    if (band != NULL) {
+      double v[3] = {c, ascr_polar_cl_at_alpha(band[0].p, band[0].n, a),
+                     ascr_polar_cl_at_alpha(band[1].p, band[1].n, a)};
+      o->cl_in_band += (size_t)in_band(clm, v);
+    }
     sl += fabs(c - clm);
     bl += c - clm;
     ml = fmax(ml, fabs(c - clm));
@@ -250,13 +275,13 @@ static void compare(const table *drag, const table *lift, const polar *pl, doubl
   }
 }
 
-int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
-                     size_t cap, size_t *n)
+static int section_run(const char *dir, const char *name, double re_only, const double *band,
+                       uiuc_result *out, size_t cap, size_t *n)
 {
   *n = 0;
   char path[512];
   table *tb = malloc(2 * sizeof *tb); /* large: not on the stack */
-  polar *pl = malloc(sizeof *pl);
+  polar *pl = malloc(3 * sizeof *pl); /* N_crit 9, then lo and hi */
   if (tb == NULL || pl == NULL) {
     free(tb);
     free(pl);
@@ -299,8 +324,12 @@ int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_res
   }
   for (size_t ir = 0; ir < nre && *n < cap; ir++) {
     if (re_only > 0.0 && res[ir] != re_only) continue;
-    run_polar(v, w, res[ir], pl);
-    compare(drag, lift, pl, res[ir], &out[(*n)++]);
+    run_polar(v, w, res[ir], 9.0, pl);
+    if (band != NULL) {
+      run_polar(v, w, res[ir], band[0], &pl[1]);
+      run_polar(v, w, res[ir], band[1], &pl[2]);
+    }
+    compare(drag, lift, pl, band != NULL ? &pl[1] : NULL, res[ir], &out[(*n)++]);
   }
   ascr_visc_solver_free(v);
   ascr_panel_solver_free(w);
@@ -309,4 +338,17 @@ int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_res
   free(tb);
   free(pl);
   return 0;
+}
+
+int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
+                     size_t cap, size_t *n)
+{
+  return section_run(dir, name, re_only, NULL, out, cap, n);
+}
+
+int uiuc_section_run_band(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
+                          uiuc_result *out, size_t cap, size_t *n)
+{
+  const double band[2] = {ncrit_lo, ncrit_hi};
+  return section_run(dir, name, 0.0, band, out, cap, n);
 }

@@ -42,6 +42,9 @@ typedef struct uiuc_result {
   double clmax_calc, clmax_meas;
   double cm_mean, cm_bias;        /* absolute; NaN where cm_n = 0 */
   size_t cm_n;
+  /* with a transition band (uiuc_section_run_band): how many measured cd / cl of the
+   * comparisons above lie within [min, max] of the computed values at N_crit lo, 9 and hi */
+  size_t cd_in_band, cl_in_band;
 } uiuc_result;
 
 /* Run every Reynolds number of section name ("sd7003", "sd8000", "clarky") from folder dir;
@@ -49,5 +52,10 @@ typedef struct uiuc_result {
  * average Re. 0 on success, 1 if a file cannot be read (message on stderr). */
 int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
                      size_t cap, size_t *n);
+
+/* As uiuc_section_run, with the polars also computed at N_crit lo and hi: fills cd_in_band and
+ * cl_in_band (the figures are those at N_crit 9). A study's tool (three times the work). */
+int uiuc_section_run_band(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
+                          uiuc_result *out, size_t cap, size_t *n);
 
 #endif
