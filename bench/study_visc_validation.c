@@ -13,7 +13,9 @@
  * Arguments: [reference folder] (default: reference) [--band LO:HI]: with the band, the polars
  * are also computed at N_crit LO and HI (three times the work) and each row ends with how many
  * measured cd and cl lie within the band the three span (the transition-uncertainty band of
- * `polar --ncrit-range`, against the tunnel).
+ * `polar --ncrit-range`, against the tunnel). --wall-curvature: the viscous solver's study
+ * option wall_curvature = 1 (the turbulent layer's dissipation length following the wall's
+ * curvature; docs/theory/viscous.md, "Streamline curvature").
  */
 #include "uiuc_compare.h"
 
@@ -29,8 +31,11 @@ int main(int argc, char **argv)
   openblas_set_num_threads(1);
   const char *dir = "reference";
   double lo = 0.0, hi = 0.0;
+  int curvature = 0;
   for (int i = 1; i < argc; i++) {
-    if (strcmp(argv[i], "--band") == 0 && i + 1 < argc) {
+    if (strcmp(argv[i], "--wall-curvature") == 0) {
+      curvature = 1;
+    } else if (strcmp(argv[i], "--band") == 0 && i + 1 < argc) {
       if (sscanf(argv[++i], "%lf:%lf", &lo, &hi) != 2 || !(lo > 0.0 && hi > lo)) {
         fprintf(stderr, "--band LO:HI, 0 < LO < HI\n");
         return 2;
@@ -48,8 +53,7 @@ int main(int argc, char **argv)
   for (int is = 0; is < 3; is++) {
     uiuc_result res[16];
     size_t n = 0;
-    int bad = band ? uiuc_section_run_band(dir, names[is], lo, hi, res, 16, &n)
-                   : uiuc_section_run(dir, names[is], 0.0, res, 16, &n);
+    int bad = uiuc_section_run_study(dir, names[is], lo, hi, curvature, res, 16, &n);
     if (bad != 0) return 1;
     for (size_t i = 0; i < n; i++) {
       const uiuc_result *o = &res[i];

@@ -40,9 +40,15 @@ typedef struct ascr_visc_params {
   double wake_length;   /* wake length, chords (default 1) */
   int max_iter;         /* Newton iteration limit (default 60) */
   double tol;           /* convergence: largest relative update of theta and m (default 1e-7) */
+  int wall_curvature;   /* 0 (default): the flat-wall turbulent closure; 1: the turbulent layer's
+                           dissipation length follows the wall's curvature (Bradshaw 1969, in
+                           the lag equation as Green, Weeks & Brooman 1977; shorter on convex
+                           walls). A study option, measured on every reference and not the
+                           default: docs/theory/viscous.md, "Streamline curvature" */
 } ascr_visc_params;
 
-/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7. */
+/** Defaults: Re 1e6, Mach 0, N_crit 9, no trips, 1-chord wake, 60 iterations, 1e-7, flat-wall
+ *  closure (wall_curvature 0). */
 ASCR_EXPORT ascr_visc_params ascr_visc_params_defaults(void);
 
 /** Default number of wake nodes for a section of n_nodes nodes. */

@@ -77,13 +77,21 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
 double bl_closure_turbulent_cd(double cf, double us, double ctau, int wake);
 
 /* Lag equation of the turbulent layer (Green, Weeks & Brooman 1977, ARC R&M 3791, in the form of
- * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - sqrt(Ctau)) / delta with
- * K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c), in a wall layer
- * at most Coles' kappa dstar / ((1 + Pi) sqrt(Cf/2)) divided by the weight coles (> 0); in a wake
- * (wake = 1) K is doubled, the wake's dissipation length being half the wall layer's. One place
- * for the march and the coupled residuals. sc = sqrt(Ctau); lengths in chord. */
+ * Drela & Giles 1987): d sqrt(Ctau)/dxi = K sqrt(Ctau) (sqrt(Ctau_EQ) - lambda sqrt(Ctau)) / delta
+ * with K = 2.8 and delta = theta (3.15 + 1.72/(Hk - 1)) + dstar (closure_turbulent.c), in a wall
+ * layer at most Coles' kappa dstar / ((1 + Pi) sqrt(Cf/2)) divided by the weight coles (> 0); in
+ * a wake (wake = 1) K is doubled, the wake's dissipation length being half the wall layer's.
+ * lambda = bl_curvature_lambda(theta, H, Hk, kappa) on a wall of curvature kappa (1/chord,
+ * convex > 0; 0 for a flat wall and in the wake). One place for the march and the coupled
+ * residuals. sc = sqrt(Ctau); lengths in chord. */
 double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, double cf,
-                   int wake, double coles);
+                   int wake, double coles, double kappa);
+
+/* The ratio lambda = L0/L of the flat-wall dissipation length to the curved wall's (Bradshaw
+ * 1969, 1973; in the lag equation as Green, Weeks & Brooman 1977): 1 + 7 Ri on a convex wall,
+ * 1/(1 - 4.5 Ri) on a concave one, Ri = (2/3)(theta kappa)(H1 + H)(H1/H + 0.3), H1 = 3.15 +
+ * 1.72/(Hk - 1). Exactly 1 at kappa = 0. closure_turbulent.c gives the sources. */
+double bl_curvature_lambda(double theta, double h, double hk, double kappa);
 
 /* Envelope amplification rate dN/dxi (1/chord) at Hk, theta, Re_theta (Drela & Giles 1987). */
 double bl_amplification_rate(double hk, double theta, double rth);

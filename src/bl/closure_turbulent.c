@@ -90,6 +90,35 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
  * (docs/theory/viscous.md, "The wake"). */
 #define LAG_WAKE_LAMBDA 0.5
 
+/* Streamline curvature. Curvature of the streamlines in the plane of the mean shear changes the
+ * turbulence an order of magnitude more than the extra terms it brings into the mean equations:
+ * a convex wall (stabilising) shortens the length scale of the stress-carrying eddies, a concave
+ * one lengthens it. Bradshaw's analogy with buoyancy (P. Bradshaw, "The analogy between
+ * streamline curvature and buoyancy in turbulent shear flow", J. Fluid Mech. 36(1), 1969,
+ * pp. 177-191; "Effects of streamline curvature on turbulent flow", AGARDograph 169, 1973)
+ * writes it as L/L0 = 1 - beta Ri, Ri = (2U/R)/(dU/dy) the curvature Richardson number. In the
+ * lag equation the dissipation term, the one in sqrt(Ctau), carries 1/L: it is multiplied by
+ * lambda = L0/L, and the stress the layer sustains falls by lambda^2. Green, Weeks & Brooman
+ * (1977) evaluate Ri for the integral layer as (2/3)(theta/R)(H1 + H)(H1/H + 0.3) with Head's
+ * H1 and take beta = 7 on convex and 4.5 on concave walls (form and constants from memory of
+ * the report). The form checked: a power-law profile U/Ue = (y/delta)^n, n = (H - 1)/2, at
+ * y = delta/3 gives Ri = (4/3)(theta/R)(H1 + H)/(H - 1), 3.3 against 3.7 theta (H1 + H)/R at
+ * H 1.4 and 1.3 against 1.8 at H 2 (tests/bl/test_bl_march.c). Convex: Green's linear form
+ * 1 + 7 Ri (Bradshaw's 1/(1 - 7 Ri) to first order, finite for any Ri); concave: Bradshaw's
+ * 1/(1 + 4.5 |Ri|) exactly, positive for any curvature. The curvature is the wall's: for an
+ * attached layer that of its streamlines; over a separation bubble the dividing streamline's
+ * differs (docs/theory/viscous.md, "Streamline curvature"). */
+#define CURV_BETA_CONVEX 7.0
+#define CURV_BETA_CONCAVE 4.5
+
+double bl_curvature_lambda(double theta, double h, double hk, double kappa)
+{
+  if (kappa == 0.0) return 1.0;
+  double h1 = 3.15 + 1.72 / (hk - 1.0);
+  double ri = (2.0 / 3.0) * theta * kappa * (h1 + h) * (h1 / h + 0.3);
+  return ri > 0.0 ? 1.0 + CURV_BETA_CONVEX * ri : 1.0 / (1.0 - CURV_BETA_CONCAVE * ri);
+}
+
 /* The lag thickness. Head's entrainment shape factor as fitted by Green, Weeks & Brooman,
  * delta = theta (3.15 + 1.72/(Hk - 1)) + dstar, grows without bound as Hk -> 1 (29 theta at Hk
  * 1.07), beyond the fit's range (H about 1.3-2.8): behind a leading-edge bubble a layer with
@@ -100,7 +129,7 @@ void bl_closure_turbulent(double h, double rth, double me, double ctau, int wake
  * 8.89 theta, tests/bl/test_bl_march.c), near separation (Cf -> 0) Coles' grows and the fit
  * stands. Measured (docs/theory/viscous.md). */
 double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq, double cf,
-                   int wake, double coles)
+                   int wake, double coles, double kappa)
 {
   double delta = theta * (3.15 + 1.72 / (hk - 1.0)) + h * theta;
   if (!wake && coles > 0.0 && cf > 0.0) {
@@ -108,5 +137,6 @@ double bl_lag_rate(double theta, double h, double hk, double sc, double ctau_eq,
     if (dc < delta) delta = dc;
   }
   double k = wake ? LAG_K / LAG_WAKE_LAMBDA : LAG_K;
-  return k * sc * (sqrt(ctau_eq) - sc) / delta;
+  double lam = wake ? 1.0 : bl_curvature_lambda(theta, h, hk, kappa);
+  return k * sc * (sqrt(ctau_eq) - lam * sc) / delta;
 }

@@ -75,7 +75,7 @@ static void evaluate(const st_state *s, double re, double mach, bl_turb_fit fit,
   if (s->turb) {
     bl_closure_turbulent(s->h, e->rth, e->me, s->sc * s->sc, 0, fit, &e->c);
     double hk = e->c.hk;
-    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, e->c.cf, 0, fit.coles);
+    e->lag_rhs = bl_lag_rate(s->theta, s->h, hk, s->sc, e->c.ctau_eq, e->c.cf, 0, fit.coles, 0.0);
     e->amp = 0.0;
   } else {
     bl_closure_laminar(s->h, e->rth, e->me, &e->c);

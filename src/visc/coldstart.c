@@ -104,7 +104,8 @@ static double hk_of(const vctx *cx, const vstate *s)
 }
 
 int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue,
-                    const vstate *first, double *th, double *m, double *c, int *turb)
+                    const double *kappa, const vstate *first, double *th, double *m, double *c,
+                    int *turb)
 {
   vstate a = *first;
   a.first = 1;
@@ -117,6 +118,7 @@ int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue
     vstate b = a;
     b.first = 0;
     b.xi = xi[k];
+    b.kappa = kappa[k];
     b.ue = fmax(ue[k], 1e-4);
     b.m = a.m / fmax(a.ue, 1e-6) * b.ue; /* same displacement thickness */
     int kind = a.turb ? VR_TURB : VR_LAM;
@@ -212,6 +214,7 @@ void visc_initial_state_exact(ascr_visc_solver *v)
     f.m = hh * thh * f.ue;
     f.c = 0.0;
     f.turb = 0;
+    f.kappa = 0.0;
     f.first = 1;
     /* the trailing edge: the larger of the inviscid velocity and its linear extrapolation
      * from the two stations upstream (v->ue is the march's velocity, scratch until the
@@ -223,7 +226,7 @@ void visc_initial_state_exact(ascr_visc_solver *v)
       if (ex > um[j]) um[j] = ex;
     }
     /* a station the march could only approximate is left to the Newton iteration */
-    (void)visc_cold_march(&cx, cnt, v->xi + k0, um, &f, v->th + k0, v->mm + k0, v->cc + k0,
+    (void)visc_cold_march(&cx, cnt, v->xi + k0, um, v->kappa_st + k0, &f, v->th + k0, v->mm + k0, v->cc + k0,
                           v->turb + k0);
   }
   wake_start(v);

@@ -42,7 +42,7 @@ static double ke_source(const bl_closure *c, double th)
 
 /* The parts of a turbulent evaluation that depend on the third unknown sqrt(Ctau): the
  * dissipation, the lag rate and the energy equation's source. */
-static void eval_stress(const vctx *cx, double th, double sc, int wake, vev *e)
+static void eval_stress(const vctx *cx, double th, double sc, int wake, double kappa, vev *e)
 {
   e->c.cd = bl_closure_turbulent_cd(e->c.cf, e->c.us, sc * sc, wake);
   /* the wake's shorter dissipation length (bl_lag_rate) goes with the exact formulation for
@@ -50,7 +50,7 @@ static void eval_stress(const vctx *cx, double th, double sc, int wake, vev *e)
    * converged points of 1125 and takes the banded iteration from 1080 to 1053, whose states
    * it moves along their path (docs/theory/viscous.md, "The wake") */
   e->lag = bl_lag_rate(th, e->h, e->c.hk, sc, e->c.ctau_eq, e->c.cf, wake && cx->exact_tr,
-                       cx->turb_fit.coles);
+                       cx->turb_fit.coles, kappa);
   e->ke = ke_source(&e->c, th);
 }
 
@@ -67,7 +67,7 @@ static void eval(const vctx *cx, const vstate *s, int turb, int wake, vev *e)
     bl_closure_turbulent(e->h, e->rth, e->me, sc * sc, wake, cx->turb_fit, &e->c);
     e->amp = 0.0;
     e->mom = 0.5 * e->c.cf / th;
-    eval_stress(cx, th, sc, wake, e);
+    eval_stress(cx, th, sc, wake, s->kappa, e);
   } else {
     bl_closure_laminar(e->h, e->rth, e->me, &e->c);
     e->lag = 0.0;
@@ -113,6 +113,7 @@ static vstate interp(const vstate *a, const vstate *b, double f)
   t.ue = a->ue + f * (b->ue - a->ue);
   t.m = t.ue * (da + f * (db - da));
   t.xi = a->xi + f * (b->xi - a->xi);
+  t.kappa = a->kappa + f * (b->kappa - a->kappa);
   t.c = a->c;
   t.turb = 0;
   return t;
@@ -380,7 +381,10 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a_in, const 
         /* the third unknown: a laminar closure does not see N, a turbulent one sees sqrt(Ctau)
          * in its dissipation only */
         ep[q][var] = e0[q];
-        if (turb) eval_stress(cx, t->th > 1e-12 ? t->th : 1e-12, t->c > 1e-5 ? t->c : 1e-5, wake, &ep[q][var]);
+        if (turb) {
+          eval_stress(cx, t->th > 1e-12 ? t->th : 1e-12, t->c > 1e-5 ? t->c : 1e-5, wake, t->kappa,
+                      &ep[q][var]);
+        }
       } else {
         eval(cx, t, turb, wake, &ep[q][var]);
       }

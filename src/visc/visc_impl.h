@@ -34,6 +34,7 @@ typedef struct visc_pred_rec {
 typedef struct vstate {
   double th, m, c, ue; /* unknowns and edge velocity */
   double xi;           /* arc length from the stagnation point (surfaces) or the TE (wake) */
+  double kappa;        /* wall curvature, 1/chord, convex > 0 (0 in the wake) */
   int turb;            /* 1 turbulent, 0 laminar */
   int first;           /* 1 for the first station of a surface (next to the stagnation point) */
 } vstate;
@@ -90,11 +91,16 @@ void visc_residual_plain_fd(int kind, const vctx *cx, const vstate *a, const vst
  * shape parameter of s. */
 double visc_sqrt_ctau_start(const vctx *cx, const vstate *s);
 
+/* The wall curvature at the nodes, v->kappa_node (stations.c): zero where p.wall_curvature is 0. */
+void visc_wall_curvature(ascr_visc_solver *v);
+
 /* Cold-start march of one surface (coldstart.c): n stations at xi[0..n-1] with driving edge
- * velocities ue[0..n-1]; first = the state of station 0 (stagnation); fills th, m, c, turb
- * for the n stations. Returns 1, or 0 if some station was only approximated. */
+ * velocities ue[0..n-1] and wall curvatures kappa[0..n-1]; first = the state of station 0
+ * (stagnation); fills th, m, c, turb for the n stations. Returns 1, or 0 if some station was
+ * only approximated. */
 int visc_cold_march(const vctx *cx, size_t n, const double *xi, const double *ue,
-                    const vstate *first, double *th, double *m, double *c, int *turb);
+                    const double *kappa, const vstate *first, double *th, double *m, double *c,
+                    int *turb);
 
 /* Station with the stagnation similarity start: theta of the closure's Hiemenz layer for the
  * context's stagnation-flow gradient (its H is cx->hiem_h). */
@@ -139,6 +145,7 @@ struct ascr_visc_solver {
   visc_run run;              /* the run under way (driver.c) */
   double alpha;              /* angle of the prepared wake */
   double *snode;             /* arc length at the nodes, n */
+  double *kappa_node;        /* wall curvature at the nodes, smoothed, n (0: p.wall_curvature off) */
   double *xw, *yw, *sw;      /* wake nodes and arc length from the TE, nw */
   double *E;                 /* (n + nw) x np, row-major: d ue(node) / d sigma_p, surface rows
                                 give d gamma_i / d sigma_p */
@@ -161,6 +168,7 @@ struct ascr_visc_solver {
   double *sgn;               /* +1 upper and wake, -1 lower */
   double *xi;                /* nst: distance from the stagnation point (surfaces), from the TE (wake) */
   double *dfirst;            /* nst: distance from the side's first node (surfaces) */
+  double *kappa_st;          /* nst: wall curvature of the station (kappa_node; 0 in the wake) */
   double dsp;                /* length of the panel holding the stagnation point */
   double hiem_h, hiem_f;   /* the Hiemenz layer's H and Re_theta Cf/2, once (vctx) */
   bl_turb_fit turb_fit;    /* how the turbulent fits are evaluated: as published

@@ -22,6 +22,7 @@ ascr_visc_params ascr_visc_params_defaults(void)
   p.wake_length = 1.0;
   p.max_iter = 60;
   p.tol = 1e-7;
+  p.wall_curvature = 0;
   return p;
 }
 
@@ -50,6 +51,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   int ok = 1;
 #define ALLOC(ptr, cnt) ok = ok && ((ptr) = core_calloc((cnt), sizeof *(ptr))) != NULL
   ALLOC(v->snode, n);
+  ALLOC(v->kappa_node, n);
   ALLOC(v->xw, nw);
   ALLOC(v->yw, nw);
   ALLOC(v->sw, nw);
@@ -70,6 +72,7 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
   ALLOC(v->sgn, nst);
   ALLOC(v->xi, nst);
   ALLOC(v->dfirst, nst);
+  ALLOC(v->kappa_st, nst);
   ALLOC(v->D, nst * nst);
   ALLOC(v->ue_inv, nst);
   ALLOC(v->pa, np);
@@ -129,9 +132,10 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
 void ascr_visc_solver_free(ascr_visc_solver *v)
 {
   if (v == NULL) return;
-  free(v->snode); free(v->xw); free(v->yw); free(v->sw); free(v->E); free(v->gam_inv);
+  free(v->snode); free(v->kappa_node); free(v->xw); free(v->yw); free(v->sw); free(v->E); free(v->gam_inv);
   free(v->qw_inv); free(v->plen); free(v->work); free(v->cu); free(v->cv); free(v->qmid);
   free(v->qmid_g); free(v->qmid_inv); free(v->wtx); free(v->wty); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
+  free(v->kappa_st);
   free(v->D); free(v->ue_inv); free(v->pa); free(v->pb); free(v->ga); free(v->gb); free(v->th);
   free(v->mm); free(v->cc); free(v->turb); free(v->ue); free(v->J); free(v->R); free(v->dx);
   free(v->ipiv); free(v->iscratch); free(v->cp); free(v->sig);
@@ -218,6 +222,10 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   if (!isfinite(p->trip_upper) || !isfinite(p->trip_lower)) {
     return core_fail(err, ASCR_EINVAL, "viscous solver: trip location is not finite");
   }
+  if (p->wall_curvature != 0 && p->wall_curvature != 1) {
+    return core_fail(err, ASCR_EINVAL, "viscous solver: wall_curvature %d is neither 0 nor 1",
+                     p->wall_curvature);
+  }
   v->ps = ps;
   v->p = *p;
   v->is_set = 0;
@@ -232,6 +240,7 @@ ascr_status ascr_visc_solver_set(ascr_visc_solver *v, const ascr_panel_solver *p
   for (size_t i = 1; i < n; i++) {
     v->snode[i] = v->snode[i - 1] + hypot(ps->x[i] - ps->x[i - 1], ps->y[i] - ps->y[i - 1]);
   }
+  visc_wall_curvature(v);
   /* surface source panels: d gamma / d sigma = -A^-1 B (alpha-independent) */
   double *W = v->work;
   for (size_t pp = 0; pp + 1 < n; pp++) {

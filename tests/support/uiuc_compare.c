@@ -90,11 +90,13 @@ static double cd_at_cl(const polar *pl, double cl)
   return NAN;
 }
 
-static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, double ncrit, polar *pl)
+static void run_polar(ascr_visc_solver *v, ascr_panel_solver *w, double re, double ncrit,
+                      int wall_curvature, polar *pl)
 {
   ascr_visc_params p = ascr_visc_params_defaults();
   p.re = re;
   p.ncrit = ncrit;
+  p.wall_curvature = wall_curvature;
   ascr_visc_solver_set(v, w, &p, NULL);
   pl->n = ascr_polar_grid_size(-4.0, 16.0, 0.5);
   ascr_polar_summary sum;
@@ -276,7 +278,7 @@ static void compare(const table *drag, const table *lift, const polar *pl, const
 }
 
 static int section_run(const char *dir, const char *name, double re_only, const double *band,
-                       uiuc_result *out, size_t cap, size_t *n)
+                       int wall_curvature, uiuc_result *out, size_t cap, size_t *n)
 {
   *n = 0;
   char path[512];
@@ -324,10 +326,10 @@ static int section_run(const char *dir, const char *name, double re_only, const 
   }
   for (size_t ir = 0; ir < nre && *n < cap; ir++) {
     if (re_only > 0.0 && res[ir] != re_only) continue;
-    run_polar(v, w, res[ir], 9.0, pl);
+    run_polar(v, w, res[ir], 9.0, wall_curvature, pl);
     if (band != NULL) {
-      run_polar(v, w, res[ir], band[0], &pl[1]);
-      run_polar(v, w, res[ir], band[1], &pl[2]);
+      run_polar(v, w, res[ir], band[0], wall_curvature, &pl[1]);
+      run_polar(v, w, res[ir], band[1], wall_curvature, &pl[2]);
     }
     compare(drag, lift, pl, band != NULL ? &pl[1] : NULL, res[ir], &out[(*n)++]);
   }
@@ -343,12 +345,13 @@ static int section_run(const char *dir, const char *name, double re_only, const 
 int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
                      size_t cap, size_t *n)
 {
-  return section_run(dir, name, re_only, NULL, out, cap, n);
+  return section_run(dir, name, re_only, NULL, 0, out, cap, n);
 }
 
-int uiuc_section_run_band(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
-                          uiuc_result *out, size_t cap, size_t *n)
+int uiuc_section_run_study(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
+                           int wall_curvature, uiuc_result *out, size_t cap, size_t *n)
 {
   const double band[2] = {ncrit_lo, ncrit_hi};
-  return section_run(dir, name, 0.0, band, out, cap, n);
+  return section_run(dir, name, 0.0, ncrit_hi > ncrit_lo ? band : NULL, wall_curvature, out, cap,
+                     n);
 }

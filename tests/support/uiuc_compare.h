@@ -42,7 +42,7 @@ typedef struct uiuc_result {
   double clmax_calc, clmax_meas;
   double cm_mean, cm_bias;        /* absolute; NaN where cm_n = 0 */
   size_t cm_n;
-  /* with a transition band (uiuc_section_run_band): how many measured cd / cl of the
+  /* with a transition band (uiuc_section_run_study): how many measured cd / cl of the
    * comparisons above lie within [min, max] of the computed values at N_crit lo, 9 and hi */
   size_t cd_in_band, cl_in_band;
 } uiuc_result;
@@ -53,9 +53,11 @@ typedef struct uiuc_result {
 int uiuc_section_run(const char *dir, const char *name, double re_only, uiuc_result *out,
                      size_t cap, size_t *n);
 
-/* As uiuc_section_run, with the polars also computed at N_crit lo and hi: fills cd_in_band and
- * cl_in_band (the figures are those at N_crit 9). A study's tool (three times the work). */
-int uiuc_section_run_band(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
-                          uiuc_result *out, size_t cap, size_t *n);
+/* As uiuc_section_run (every Re), for studies: with ncrit_hi > ncrit_lo the polars are also
+ * computed at N_crit lo and hi and cd_in_band, cl_in_band filled (the figures are those at
+ * N_crit 9; three times the work); wall_curvature as in ascr_visc_params (1: the turbulent
+ * layer's dissipation length follows the wall's curvature). */
+int uiuc_section_run_study(const char *dir, const char *name, double ncrit_lo, double ncrit_hi,
+                           int wall_curvature, uiuc_result *out, size_t cap, size_t *n);
 
 #endif

@@ -8,7 +8,9 @@
  *  - the forward differences of an interval with the previous interval's end evaluations held
  *    (visc_residual_plain_fd with its cache) equal those computed afresh (without it).
  * States: the iterates of runs on NACA 2412 at Re 1e5, 3 deg (laminar, transition, turbulent and
- * wake intervals, a separation bubble) and the 3 %-thick, 4.5 %-camber plate at Re 2e4, 2 deg.
+ * wake intervals, a separation bubble) and the 3 %-thick, 4.5 %-camber plate at Re 2e4, 2 deg;
+ * NACA 2412 once more with the study option wall_curvature (each station's own curvature in the
+ * lag equation, interpolated at a transition point).
  * Tolerance: 1e-12 relative. The paths do the same operations in the same order, so on this
  * machine they agree to the bit; a compiler that fuses multiplies and adds differently in the
  * two functions may leave a few units in the last place.
@@ -88,11 +90,17 @@ static void check_state(ascr_visc_solver *v, size_t seen[6])
   }
 }
 
-static void check_run(const char *spec, double re, double alpha_deg)
+static void check_run(const char *spec, double re, double alpha_deg, int wall_curvature)
 {
   fixture f;
   setup(&f, spec, re);
   ascr_errbuf e;
+  if (wall_curvature) {
+    ascr_visc_params p = ascr_visc_params_defaults();
+    p.re = re;
+    p.wall_curvature = 1;
+    assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, &e), ASCR_OK);
+  }
   size_t seen[6] = {0}, checked = 0;
   assert_int_equal(ascr_visc_solver_start(f.v, alpha_deg * DEG, ASCR_VISC_START_MARCH, &e),
                    ASCR_OK);
@@ -115,13 +123,49 @@ static void check_run(const char *spec, double re, double alpha_deg)
 static void test_visc_residual_fast_paths_naca2412(void **state)
 {
   (void)state;
-  check_run("naca2412", 1e5, 3.0);
+  check_run("naca2412", 1e5, 3.0, 0);
+}
+
+/* The curvature the option gives each station: NACA 2412's convex surfaces, positive and about
+ * the nose's 1/r (r = 1.1 t^2 c, Abbott & von Doenhoff's leading-edge radius of the 4-digit
+ * sections: 62 per chord at t = 0.12) near the leading edge after the smoothing, at most that;
+ * zero in the wake; zero everywhere without the option. */
+static void test_visc_residual_fast_paths_wall_curvature(void **state)
+{
+  (void)state;
+  check_run("naca2412", 1e5, 3.0, 1);
+  fixture f;
+  setup(&f, "naca2412", 1e5);
+  ascr_errbuf e;
+  assert_int_equal(ascr_visc_solver_start(f.v, 3.0 * DEG, ASCR_VISC_START_MARCH, &e), ASCR_OK);
+  for (size_t k = 0; k < f.v->nst; k++) assert_true(f.v->kappa_st[k] == 0.0);
+  ascr_visc_params p = ascr_visc_params_defaults();
+  p.re = 1e5;
+  p.wall_curvature = 2;
+  assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, &e), ASCR_EINVAL);
+  p.wall_curvature = 1;
+  assert_int_equal(ascr_visc_solver_set(f.v, f.w, &p, &e), ASCR_OK);
+  assert_int_equal(ascr_visc_solver_start(f.v, 3.0 * DEG, ASCR_VISC_START_MARCH, &e), ASCR_OK);
+  double kmax = 0.0;
+  size_t ns = f.v->nu + f.v->nl;
+  for (size_t k = 0; k < f.v->nst; k++) {
+    if (k >= ns) {
+      assert_true(f.v->kappa_st[k] == 0.0);
+    } else {
+      assert_true(f.v->kappa_st[k] > 0.0);
+      kmax = fmax(kmax, f.v->kappa_st[k]);
+    }
+  }
+  print_message("NACA 2412: largest smoothed wall curvature %.1f per chord (nose 1/r = %.1f)\n",
+                kmax, 1.0 / (1.1019 * 0.12 * 0.12));
+  assert_true(kmax > 10.0 && kmax <= 1.0 / (1.1019 * 0.12 * 0.12));
+  teardown(&f);
 }
 
 static void test_visc_residual_fast_paths_thin_plate(void **state)
 {
   (void)state;
-  check_run("plate:t=3,f=4.5,xf=45", 2e4, 2.0);
+  check_run("plate:t=3,f=4.5,xf=45", 2e4, 2.0, 0);
 }
 
 int main(void)
@@ -130,6 +174,7 @@ int main(void)
   const struct CMUnitTest tests[] = {
     cmocka_unit_test(test_visc_residual_fast_paths_naca2412),
     cmocka_unit_test(test_visc_residual_fast_paths_thin_plate),
+    cmocka_unit_test(test_visc_residual_fast_paths_wall_curvature),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
