@@ -226,8 +226,8 @@ void visc_initial_state_exact(ascr_visc_solver *v)
       if (ex > um[j]) um[j] = ex;
     }
     /* a station the march could only approximate is left to the Newton iteration */
-    (void)visc_cold_march(&cx, cnt, v->xi + k0, um, v->kappa_st + k0, &f, v->th + k0, v->mm + k0, v->cc + k0,
-                          v->turb + k0);
+    (void)visc_cold_march(&cx, cnt, v->xi + k0, um, v->kappa_st + k0, &f, v->th + k0,
+                          v->mm + k0, v->cc + k0, v->turb + k0);
   }
   wake_start(v);
 }

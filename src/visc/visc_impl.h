@@ -145,7 +145,7 @@ struct ascr_visc_solver {
   visc_run run;              /* the run under way (driver.c) */
   double alpha;              /* angle of the prepared wake */
   double *snode;             /* arc length at the nodes, n */
-  double *kappa_node;        /* wall curvature at the nodes, smoothed, n (0: p.wall_curvature off) */
+  double *kappa_node;        /* wall curvature at the nodes, smoothed, n (0 without the option) */
   double *xw, *yw, *sw;      /* wake nodes and arc length from the TE, nw */
   double *E;                 /* (n + nw) x np, row-major: d ue(node) / d sigma_p, surface rows
                                 give d gamma_i / d sigma_p */

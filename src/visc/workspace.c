@@ -132,7 +132,8 @@ ascr_visc_solver *ascr_visc_solver_alloc(size_t n_nodes, size_t n_wake)
 void ascr_visc_solver_free(ascr_visc_solver *v)
 {
   if (v == NULL) return;
-  free(v->snode); free(v->kappa_node); free(v->xw); free(v->yw); free(v->sw); free(v->E); free(v->gam_inv);
+  free(v->snode); free(v->kappa_node); free(v->xw); free(v->yw); free(v->sw); free(v->E);
+  free(v->gam_inv);
   free(v->qw_inv); free(v->plen); free(v->work); free(v->cu); free(v->cv); free(v->qmid);
   free(v->qmid_g); free(v->qmid_inv); free(v->wtx); free(v->wty); free(v->node); free(v->side); free(v->sgn); free(v->xi); free(v->dfirst);
   free(v->kappa_st);
